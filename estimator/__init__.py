@@ -1,0 +1,58 @@
+"""ullage: screening estimates of vapour hazards from a liquid's temperature up.
+
+Saturated vapour pressure, equilibrium headspace, evaporation from spills and the
+air concentration people breathe, compared with limits the user enters. Every
+result is a screening estimate: measure with calibrated instruments before entry
+and follow local codes, permits and qualified industrial-hygiene and
+process-safety practice.
+
+The stable API takes and returns SI units (K, Pa, kg, m, s, mol) as floats or
+numpy arrays.
+"""
+
+__version__ = "0.1.0"
+
+from .errors import (
+    ExtrapolationWarning,
+    InputError,
+    OutOfRangeError,
+    UllageError,
+    UllageWarning,
+    UnknownSubstanceError,
+)
+from .substances import Substance, all_substances, lookup_cas, substance, user_substance
+from .vapor import (
+    clausius_clapeyron,
+    fit_clausius_clapeyron,
+    vapor_pressure,
+    vapor_pressure_estimate,
+)
+
+#: The cautions every result carries.
+CAUTIONS = (
+    "This is a screening estimate, not a measurement.",
+    "Measure the real atmosphere with calibrated direct-reading instruments before "
+    "anyone enters or opens a space.",
+    "Follow local codes, permits, confined-space and hot-work rules, and qualified "
+    "industrial-hygiene and process-safety practice.",
+)
+
+__all__ = [
+    "__version__",
+    "CAUTIONS",
+    "Substance",
+    "substance",
+    "all_substances",
+    "user_substance",
+    "lookup_cas",
+    "vapor_pressure",
+    "vapor_pressure_estimate",
+    "clausius_clapeyron",
+    "fit_clausius_clapeyron",
+    "UllageError",
+    "InputError",
+    "OutOfRangeError",
+    "UnknownSubstanceError",
+    "UllageWarning",
+    "ExtrapolationWarning",
+]

@@ -1,0 +1,464 @@
+"""Pure-substance property data: the bundled table, user-defined substances, lookups.
+
+The table ``estimator/data/substances.csv`` holds one row per liquid with its CAS
+number, properties in SI units and the source of every value group; it is built by
+``tools/build_substance_table.py`` and described in ``estimator/data/SOURCES.md``.
+"""
+
+from __future__ import annotations
+
+import csv
+import functools
+import math
+import re
+from dataclasses import dataclass, field
+from pathlib import Path
+from types import MappingProxyType
+
+from .constants import STANDARD_ATMOSPHERE
+from .errors import InputError, UnknownSubstanceError, suggest
+from .vapor import (
+    AntoineCorrelation,
+    ClausiusClapeyronCorrelation,
+    Dippr101Correlation,
+    fit_clausius_clapeyron,
+    trouton_enthalpy,
+)
+
+__all__ = [
+    "Substance",
+    "substance",
+    "as_substance",
+    "all_substances",
+    "search_substances",
+    "user_substance",
+    "lookup_cas",
+    "TABLE_PATH",
+]
+
+TABLE_PATH = Path(__file__).with_name("data") / "substances.csv"
+
+_CAS = re.compile(r"^\d{2,7}-\d{2}-\d$")
+
+
+@dataclass(frozen=True)
+class Substance:
+    """A pure liquid and the properties ullage uses, in SI units.
+
+    Attributes
+    ----------
+    key : str
+        Short identifier, such as "methyl-ethyl-ketone".
+    name : str
+        Display name.
+    cas : str
+        CAS registry number, or "" for a user-defined substance without one.
+    molar_mass : float
+        [kg/mol]
+    boiling_point : float
+        Normal boiling point, at 101325 Pa. [K]
+    critical_temperature : float or None
+        [K]
+    lower_flammability_limit, upper_flammability_limit : float or None
+        In air, at ambient conditions. [volume fraction]
+    flash_point : float or None
+        Published closed-cup flash point. [K]
+    liquid_density : float or None
+        [kg/m3] at `liquid_density_temperature`.
+    melting_point, critical_pressure, enthalpy_of_vaporization : float or None
+        [K], [Pa], [J/mol at the normal boiling point]
+    diffusion_volume : float or None
+        Fuller-Schettler-Giddings sum of atomic diffusion volumes. [-]
+    correlations : tuple
+        Vapour-pressure correlations, best first.
+    sources : mapping
+        Value group -> where the values come from.
+    origin : str
+        "table", "user" or "lookup".
+    """
+
+    key: str
+    name: str
+    cas: str
+    molar_mass: float
+    boiling_point: float
+    critical_temperature: float | None = None
+    lower_flammability_limit: float | None = None
+    upper_flammability_limit: float | None = None
+    flash_point: float | None = None
+    liquid_density: float | None = None
+    liquid_density_temperature: float | None = None
+    melting_point: float | None = None
+    critical_pressure: float | None = None
+    enthalpy_of_vaporization: float | None = None
+    diffusion_volume: float | None = None
+    formula: str = ""
+    synonyms: tuple[str, ...] = ()
+    correlations: tuple = ()
+    sources: MappingProxyType = field(default_factory=lambda: MappingProxyType({}))
+    origin: str = "table"
+    notes: tuple[str, ...] = ()
+
+    @property
+    def flammable(self) -> bool:
+        """Whether a lower flammability limit is known."""
+        return self.lower_flammability_limit is not None
+
+    def __repr__(self) -> str:
+        return f"Substance({self.key!r}, cas={self.cas!r})"
+
+
+def _float(row: dict, key: str) -> float | None:
+    text = (row.get(key) or "").strip() if isinstance(row.get(key), str) else row.get(key)
+    if text is None or text == "":
+        return None
+    value = float(text)
+    return None if math.isnan(value) else value
+
+
+def _clausius_clapeyron_family(boiling_point, enthalpy, critical_temperature, tmin,
+                               source_enthalpy):
+    tmax = critical_temperature if critical_temperature is not None else math.inf
+    out = []
+    reference = f"normal boiling point with ΔHvap from {source_enthalpy}"
+    if enthalpy is not None and critical_temperature is not None:
+        out.append(ClausiusClapeyronCorrelation(
+            boiling_point, STANDARD_ATMOSPHERE, enthalpy, tmin, tmax, reference,
+            method="clausius-clapeyron-watson", critical_temperature=critical_temperature))
+    if enthalpy is not None:
+        out.append(ClausiusClapeyronCorrelation(
+            boiling_point, STANDARD_ATMOSPHERE, enthalpy, tmin, tmax, reference))
+    out.append(ClausiusClapeyronCorrelation(
+        boiling_point, STANDARD_ATMOSPHERE, float(trouton_enthalpy(boiling_point)), tmin,
+        tmax, "normal boiling point with ΔHvap by Trouton's rule (88 J/(mol K) × Tb)",
+        method="trouton"))
+    return out
+
+
+def _from_row(row: dict, origin: str) -> Substance:
+    f = functools.partial(_float, row)
+    sources = {
+        group: row[column].strip()
+        for group, column in (
+            ("molar_mass", "molar_mass_source"),
+            ("phase_change", "phase_change_source"),
+            ("critical", "critical_source"),
+            ("enthalpy_of_vaporization", "enthalpy_source"),
+            ("dippr101", "dippr_source"),
+            ("antoine", "antoine_source"),
+            ("liquid_density", "liquid_density_source"),
+            ("flammability", "flammability_source"),
+            ("flash_point", "flash_point_source"),
+            ("diffusion_volume", "diffusion_volume_source"),
+        )
+        if (row.get(column) or "").strip()
+    }
+    correlations = []
+    if f("dippr_c1") is not None:
+        correlations.append(Dippr101Correlation(
+            f("dippr_c1"), f("dippr_c2"), f("dippr_c3"), f("dippr_c4"), f("dippr_c5"),
+            f("dippr_tmin"), f("dippr_tmax"), sources.get("dippr101", "")))
+    if f("antoine_a") is not None:
+        correlations.append(AntoineCorrelation(
+            f("antoine_a"), f("antoine_b"), f("antoine_c"), f("antoine_tmin"),
+            f("antoine_tmax"), sources.get("antoine", "")))
+    melting = f("melting_point")
+    correlations.extend(_clausius_clapeyron_family(
+        f("boiling_point"), f("enthalpy_vaporization_nbp"), f("critical_temperature"),
+        melting if melting is not None else 0.0,
+        sources.get("enthalpy_of_vaporization", "")))
+    synonyms = tuple(s.strip() for s in (row.get("synonyms") or "").split(";") if s.strip())
+    return Substance(
+        key=row["key"].strip(),
+        name=row["name"].strip(),
+        cas=(row.get("cas") or "").strip(),
+        formula=(row.get("formula") or "").strip(),
+        synonyms=synonyms,
+        molar_mass=f("molar_mass"),
+        boiling_point=f("boiling_point"),
+        melting_point=melting,
+        critical_temperature=f("critical_temperature"),
+        critical_pressure=f("critical_pressure"),
+        enthalpy_of_vaporization=f("enthalpy_vaporization_nbp"),
+        liquid_density=f("liquid_density"),
+        liquid_density_temperature=f("liquid_density_temperature"),
+        lower_flammability_limit=f("lfl"),
+        upper_flammability_limit=f("ufl"),
+        flash_point=f("flash_point"),
+        diffusion_volume=f("diffusion_volume"),
+        correlations=tuple(correlations),
+        sources=MappingProxyType(sources),
+        origin=origin,
+    )
+
+
+def _normalise(text: str) -> str:
+    return re.sub(r"[^0-9a-z]", "", text.lower())
+
+
+@functools.cache
+def _table() -> tuple[dict[str, Substance], dict[str, str]]:
+    with TABLE_PATH.open(newline="", encoding="utf-8") as handle:
+        rows = list(csv.DictReader(handle))
+    by_key = {}
+    index = {}
+    for row in rows:
+        sub = _from_row(row, "table")
+        by_key[sub.key] = sub
+        for label in (sub.key, sub.name, sub.cas, *sub.synonyms):
+            if label:
+                index.setdefault(label.lower().strip(), sub.key)
+                index.setdefault(_normalise(label), sub.key)
+    return by_key, index
+
+
+def all_substances() -> tuple[Substance, ...]:
+    """Every substance of the bundled table, sorted by key."""
+    by_key, _ = _table()
+    return tuple(by_key[k] for k in sorted(by_key))
+
+
+def substance(key: str, field: str = "substance") -> Substance:
+    """Look a substance up in the bundled table by name, synonym or CAS number.
+
+    Parameters
+    ----------
+    key : str
+        Name ("toluene"), synonym ("MEK", "IPA") or CAS number ("108-88-3");
+        case, spaces, hyphens and commas do not matter.
+    field : str
+        Name of the input, for messages.
+
+    Returns
+    -------
+    Substance
+
+    Raises
+    ------
+    UnknownSubstanceError
+        If nothing matches; the message suggests close matches.
+
+    Examples
+    --------
+    >>> substance("MEK").name
+    'Methyl ethyl ketone'
+    >>> substance("108-88-3").key
+    'toluene'
+    """
+    if not isinstance(key, str) or not key.strip():
+        raise InputError(field, "give a substance name, synonym or CAS number")
+    by_key, index = _table()
+    hit = index.get(key.lower().strip()) or index.get(_normalise(key))
+    if hit is not None:
+        return by_key[hit]
+    labels = {label for s in by_key.values() for label in (s.key, s.name, *s.synonyms)}
+    hints = suggest(key.strip(), labels)
+    if not hints and _CAS.match(key.strip()):
+        raise UnknownSubstanceError(field, key, ())
+    raise UnknownSubstanceError(field, key, hints)
+
+
+def as_substance(value, field: str = "substance") -> Substance:
+    """A `Substance` as given, or looked up by key."""
+    if isinstance(value, Substance):
+        return value
+    return substance(value, field)
+
+
+def search_substances(text: str, limit: int = 10) -> list[Substance]:
+    """Substances whose key, name, synonyms or CAS contain `text`, then close matches."""
+    by_key, _ = _table()
+    needle = _normalise(text)
+    found = [
+        s for s in all_substances()
+        if not needle or any(needle in _normalise(label)
+                             for label in (s.key, s.name, s.cas, *s.synonyms))
+    ]
+    if len(found) < limit and needle:
+        labels = {}
+        for s in by_key.values():
+            for label in (s.key, s.name, *s.synonyms):
+                labels[label] = s
+        for hint in suggest(text, labels, n=limit):
+            if labels[hint] not in found:
+                found.append(labels[hint])
+    return found[:limit]
+
+
+def _positive(value, field: str, unit: str, lo: float = 0.0, hi: float = math.inf,
+              hint: str = "") -> float:
+    try:
+        number = float(value)
+    except (TypeError, ValueError):
+        raise InputError(field, f"expected a number in {unit}, got {value!r}") from None
+    if not math.isfinite(number):
+        raise InputError(field, f"must be a finite number in {unit}")
+    if not lo < number < hi:
+        raise InputError(field, f"{number:g} {unit} is outside {lo:g}-{hi:g} {unit}{hint}")
+    return number
+
+
+def user_substance(name: str, molar_mass: float, boiling_point: float,
+                   vapor_pressure_points=(), *, lower_flammability_limit=None,
+                   upper_flammability_limit=None, flash_point=None, liquid_density=None,
+                   critical_temperature=None, melting_point=None,
+                   enthalpy_of_vaporization=None, cas: str = "",
+                   source: str = "user-entered (safety data sheet)") -> Substance:
+    """A substance defined from what a safety data sheet gives.
+
+    The vapour pressure is a Clausius-Clapeyron line through the normal boiling
+    point and the given points (least squares for more than one). With no point,
+    Clausius-Clapeyron from the boiling point with the given ΔHvap, or with
+    Trouton's rule as a last resort (flagged in `notes`).
+
+    Parameters
+    ----------
+    name : str
+        Display name.
+    molar_mass : float
+        [kg/mol]
+    boiling_point : float
+        Normal boiling point. [K]
+    vapor_pressure_points : sequence of (float, float)
+        (temperature [K], vapour pressure [Pa]) pairs, such as the SDS's vapour
+        pressure at 20 degC.
+    lower_flammability_limit, upper_flammability_limit : float, optional
+        [volume fraction]
+    flash_point : float, optional
+        Closed-cup flash point. [K]
+    liquid_density : float, optional
+        [kg/m3]
+    critical_temperature, melting_point : float, optional
+        [K]
+    enthalpy_of_vaporization : float, optional
+        At the boiling point. [J/mol]
+    cas : str
+        CAS number, if known.
+    source : str
+        Where the values come from, shown in reports.
+
+    Returns
+    -------
+    Substance
+
+    Examples
+    --------
+    >>> s = user_substance("Solvent blend X", 0.100, 380.0, [(293.15, 3000.0)])
+    >>> s.correlations[0].method
+    'clausius-clapeyron-fit'
+    """
+    if not isinstance(name, str) or not name.strip():
+        raise InputError("name", "give the substance a name")
+    molar_mass = _positive(molar_mass, "molar_mass", "kg/mol", 0.002, 2.0,
+                           " (molar mass is in kg/mol: 0.092 for 92 g/mol)")
+    boiling_point = _positive(boiling_point, "boiling_point", "K", 20.0, 1500.0)
+    tc = None if critical_temperature is None else _positive(
+        critical_temperature, "critical_temperature", "K", boiling_point, 3000.0,
+        " (it must lie above the boiling point)")
+    tm = None if melting_point is None else _positive(
+        melting_point, "melting_point", "K", 0.0, boiling_point,
+        " (it must lie below the boiling point)")
+    lfl = None if lower_flammability_limit is None else _positive(
+        lower_flammability_limit, "lower_flammability_limit", "volume fraction", 0.0, 1.0,
+        " (a fraction: 0.012 for 1.2 %)")
+    ufl = None if upper_flammability_limit is None else _positive(
+        upper_flammability_limit, "upper_flammability_limit", "volume fraction", 0.0, 1.0001,
+        " (a fraction: 0.07 for 7 %)")
+    if lfl is not None and ufl is not None and ufl <= lfl:
+        raise InputError("upper_flammability_limit",
+                         f"{ufl:g} is not above the lower limit {lfl:g}")
+    tf = None if flash_point is None else _positive(flash_point, "flash_point", "K", 0.0,
+                                                    boiling_point,
+                                                    " (it must lie below the boiling point)")
+    rho = None if liquid_density is None else _positive(liquid_density, "liquid_density",
+                                                        "kg/m3", 100.0, 25000.0)
+    dh = None if enthalpy_of_vaporization is None else _positive(
+        enthalpy_of_vaporization, "enthalpy_of_vaporization", "J/mol", 1000.0, 2e5,
+        " (J/mol: 35000 for 35 kJ/mol)")
+    points = [tuple(p) for p in vapor_pressure_points]
+    for i, point in enumerate(points):
+        if len(point) != 2:
+            raise InputError(f"vapor_pressure_points[{i}]",
+                             "each point is (temperature in K, pressure in Pa)")
+        _positive(point[0], f"vapor_pressure_points[{i}] temperature", "K", 0.0,
+                  tc if tc is not None else math.inf)
+        _positive(point[1], f"vapor_pressure_points[{i}] pressure", "Pa")
+    tmin = tm if tm is not None else 0.0
+    notes = []
+    if points:
+        fit = fit_clausius_clapeyron([boiling_point] + [p[0] for p in points],
+                                     [STANDARD_ATMOSPHERE] + [p[1] for p in points])
+        correlations = [_fit_correlation(
+            fit, f"line through the boiling point and {len(points)} point(s), {source}")]
+        correlations += _clausius_clapeyron_family(boiling_point, dh, tc, tmin,
+                                                   source)[:-1]
+    else:
+        correlations = _clausius_clapeyron_family(boiling_point, dh, tc, tmin, source)
+        if dh is None:
+            notes.append(f"{name}: no vapour pressure given; estimated from the boiling "
+                         "point with Trouton's rule, which can be far off (enter the "
+                         "SDS vapour pressure)")
+    return Substance(
+        key=_normalise(name) or "user",
+        name=name.strip(),
+        cas=cas.strip(),
+        molar_mass=molar_mass,
+        boiling_point=boiling_point,
+        melting_point=tm,
+        critical_temperature=tc,
+        enthalpy_of_vaporization=dh,
+        liquid_density=rho,
+        lower_flammability_limit=lfl,
+        upper_flammability_limit=ufl,
+        flash_point=tf,
+        correlations=tuple(correlations),
+        sources=MappingProxyType({"all": source}),
+        origin="user",
+        notes=tuple(notes),
+    )
+
+
+def _fit_correlation(fit, source) -> ClausiusClapeyronCorrelation:
+    reference_temperature = fit.temperature_range[1]
+    return ClausiusClapeyronCorrelation(
+        reference_temperature, float(fit(reference_temperature)),
+        fit.enthalpy_of_vaporization, fit.temperature_range[0], fit.temperature_range[1],
+        source, method="clausius-clapeyron-fit")
+
+
+def lookup_cas(cas: str) -> Substance:
+    """A substance for any CAS number, from the general-purpose `chemicals` package.
+
+    Needs the optional dependency (``pip install ullage[lookup]``). The values
+    are compiled data of that package with their original sources named; check
+    them against the supplier's safety data sheet before relying on them.
+
+    Raises
+    ------
+    InputError
+        If the package is missing, the CAS number is malformed or unknown, or
+        the data found are not enough to compute a vapour pressure.
+    """
+    if not isinstance(cas, str) or not _CAS.match(cas.strip()):
+        raise InputError("cas", f"{cas!r} is not a CAS number such as '108-88-3'")
+    try:
+        from . import _chemicals_lookup
+        row = _chemicals_lookup.lookup(cas.strip())
+    except ImportError:
+        raise InputError("cas", "looking up a CAS number needs the optional 'chemicals' "
+                         "package: pip install 'ullage[lookup]'") from None
+    except (KeyError, ValueError, LookupError) as exc:
+        raise InputError("cas", f"no data found for {cas}: {exc}") from None
+    if row is None or row.get("boiling_point") in (None, "") or row.get("molar_mass") in (None, ""):
+        raise InputError("cas", f"the chemicals package has no boiling point or molar "
+                         f"mass for {cas}; define the substance from its SDS instead")
+    row = {k: ("" if v is None else str(v) if not isinstance(v, str) else v)
+           for k, v in row.items()}
+    row.setdefault("key", cas)
+    row["key"] = row.get("key") or cas
+    row["name"] = row.get("name") or cas
+    base = _from_row(row, "lookup")
+    return Substance(**{**base.__dict__, "notes": (
+        f"{base.name}: properties looked up by CAS number in the chemicals package "
+        "(compiled data, sources named per value); check them against the "
+        "supplier's safety data sheet",)})
