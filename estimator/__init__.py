@@ -27,6 +27,10 @@ from .vapor import (
     vapor_pressure,
     vapor_pressure_estimate,
 )
+from .mixtures import Liquid, liquid
+from .headspace import headspace, temperature_for_concentration
+from .evaporation import evaporation_rate
+from .indoor import well_mixed_room
 
 #: The cautions every result carries.
 CAUTIONS = (
@@ -49,6 +53,12 @@ __all__ = [
     "vapor_pressure_estimate",
     "clausius_clapeyron",
     "fit_clausius_clapeyron",
+    "Liquid",
+    "liquid",
+    "headspace",
+    "temperature_for_concentration",
+    "evaporation_rate",
+    "well_mixed_room",
     "UllageError",
     "InputError",
     "OutOfRangeError",

@@ -154,14 +154,14 @@ def _from_row(row: dict, origin: str) -> Substance:
         if (row.get(column) or "").strip()
     }
     correlations = []
-    if f("dippr_c1") is not None:
-        correlations.append(Dippr101Correlation(
-            f("dippr_c1"), f("dippr_c2"), f("dippr_c3"), f("dippr_c4"), f("dippr_c5"),
-            f("dippr_tmin"), f("dippr_tmax"), sources.get("dippr101", "")))
     if f("antoine_a") is not None:
         correlations.append(AntoineCorrelation(
             f("antoine_a"), f("antoine_b"), f("antoine_c"), f("antoine_tmin"),
             f("antoine_tmax"), sources.get("antoine", "")))
+    if f("dippr_c1") is not None:
+        correlations.append(Dippr101Correlation(
+            f("dippr_c1"), f("dippr_c2"), f("dippr_c3"), f("dippr_c4"), f("dippr_c5"),
+            f("dippr_tmin"), f("dippr_tmax"), sources.get("dippr101", "")))
     melting = f("melting_point")
     correlations.extend(_clausius_clapeyron_family(
         f("boiling_point"), f("enthalpy_vaporization_nbp"), f("critical_temperature"),
@@ -251,11 +251,11 @@ def substance(key: str, field: str = "substance") -> Substance:
     hit = index.get(key.lower().strip()) or index.get(_normalise(key))
     if hit is not None:
         return by_key[hit]
-    labels = {label for s in by_key.values() for label in (s.key, s.name, *s.synonyms)}
-    hints = suggest(key.strip(), labels)
+    labels = {label: s.key for s in by_key.values() for label in (s.key, s.name, *s.synonyms)}
+    hints = list(dict.fromkeys(labels[h] for h in suggest(key.strip(), sorted(labels), n=6)))
     if not hints and _CAS.match(key.strip()):
         raise UnknownSubstanceError(field, key, ())
-    raise UnknownSubstanceError(field, key, hints)
+    raise UnknownSubstanceError(field, key, hints[:3])
 
 
 def as_substance(value, field: str = "substance") -> Substance:

@@ -49,6 +49,33 @@ def reference_saturation_pressure(cas: str, temperatures) -> np.ndarray:
     return np.asarray(CP.PropsSI("P", "T", t, "Q", 0, coolprop_fluids_by_cas()[cas]))
 
 
+#: Largest violation of the exact Clapeyron equation for a reference point to count. [-]
+CLAPEYRON_TOLERANCE = 1e-3
+
+
+def reference_is_consistent(cas: str, temperatures) -> np.ndarray:
+    """Where the reference's saturation pressure obeys the exact Clapeyron equation.
+
+    dp/dT = ΔH / (T Δv) holds exactly for any equation of state at phase
+    equilibrium. Where CoolProp's saturation pressure breaks it (with its own ΔH
+    and Δv) by more than `CLAPEYRON_TOLERANCE`, the library has not solved phase
+    equilibrium there (an ancillary fit stands in, seen for propylene glycol below
+    about 25 degC) and the point is no reference.
+    """
+    t = np.atleast_1d(np.asarray(temperatures, dtype=float))
+    if cas == WATER_CAS:
+        return np.ones(t.shape, dtype=bool)
+    import CoolProp.CoolProp as CP
+
+    name = coolprop_fluids_by_cas()[cas]
+    step = 1e-3
+    dp_dt = (CP.PropsSI("P", "T", t + step, "Q", 0, name)
+             - CP.PropsSI("P", "T", t - step, "Q", 0, name)) / (2 * step)
+    dh = CP.PropsSI("H", "T", t, "Q", 1, name) - CP.PropsSI("H", "T", t, "Q", 0, name)
+    dv = 1 / CP.PropsSI("D", "T", t, "Q", 1, name) - 1 / CP.PropsSI("D", "T", t, "Q", 0, name)
+    return np.abs(t * dv * dp_dt / dh - 1.0) <= CLAPEYRON_TOLERANCE
+
+
 def has_reference(cas: str) -> bool:
     """Whether an outside reference exists for this CAS number."""
     return cas == WATER_CAS or cas in coolprop_fluids_by_cas()

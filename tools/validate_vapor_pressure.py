@@ -27,6 +27,7 @@ from estimator.vapor import METHODS, vapor_pressure_estimate  # noqa: E402
 from outside_references import (  # noqa: E402
     coolprop_range,
     has_reference,
+    reference_is_consistent,
     reference_saturation_pressure,
     WATER_CAS,
 )
@@ -43,7 +44,8 @@ def grid_for(sub) -> np.ndarray:
     if sub.cas != WATER_CAS:
         t_triple, t_crit = coolprop_range(sub.cas)
         lo, hi = max(lo, t_triple), min(hi, t_crit)
-    return TEMPERATURES[(TEMPERATURES > lo) & (TEMPERATURES < hi)]
+    t = TEMPERATURES[(TEMPERATURES > lo) & (TEMPERATURES < hi)]
+    return t[reference_is_consistent(sub.cas, t)] if t.size else t
 
 
 def method_errors() -> dict[str, list[tuple[str, np.ndarray]]]:
@@ -57,10 +59,13 @@ def method_errors() -> dict[str, list[tuple[str, np.ndarray]]]:
             continue
         reference = reference_saturation_pressure(sub.cas, t)
         for correlation in sub.correlations:
+            inside = (t >= correlation.tmin) & (t <= correlation.tmax)
+            if not inside.any():
+                continue
             with warnings.catch_warnings():
                 warnings.simplefilter("ignore")
-                p = vapor_pressure_estimate(sub, t, method=correlation.method).pressure
-            errors[correlation.method].append((sub.key, p / reference - 1.0))
+                p = vapor_pressure_estimate(sub, t[inside], method=correlation.method).pressure
+            errors[correlation.method].append((sub.key, p / reference[inside] - 1.0))
         p20 = float(reference_saturation_pressure(sub.cas, [SDS_POINT_TEMPERATURE])[0])
         sds = estimator.user_substance(sub.name, sub.molar_mass, sub.boiling_point,
                                        [(SDS_POINT_TEMPERATURE, p20)])

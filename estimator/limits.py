@@ -1,0 +1,308 @@
+"""Exposure and flammability limits the user enters, and comparisons with them.
+
+ullage ships no exposure limits. Each limit is entered by the user with a label
+saying where it comes from (a regulation, a standard, a company value); demo
+scenarios carry illustrative values that say so.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass
+
+import numpy as np
+
+from .constants import (
+    GAS_CONSTANT,
+    HYGIENE_MOLAR_VOLUME,
+    STANDARD_ATMOSPHERE,
+)
+from .errors import InputError
+
+__all__ = [
+    "LIMIT_KINDS",
+    "ExposureLimit",
+    "FlammabilityAlarms",
+    "LimitComparison",
+    "exposure_limit",
+    "ppm_to_mg_per_m3",
+    "mg_per_m3_to_ppm",
+    "compare",
+    "additive_index",
+    "vapor_hazard_ratio",
+    "flammability_findings",
+]
+
+#: Kinds of exposure limit, with the averaging time each applies over.
+LIMIT_KINDS = {
+    "TWA": "8-hour time-weighted average",
+    "STEL": "15-minute short-term exposure limit",
+    "ceiling": "ceiling, not to be exceeded at any time",
+    "emergency": "emergency or immediately-dangerous value",
+}
+
+_UNITS = ("ppm", "mg/m3")
+
+
+def ppm_to_mg_per_m3(ppm, molar_mass, temperature=None, pressure=STANDARD_ATMOSPHERE):
+    """Convert ppm by volume to mg/m3.
+
+    Parameters
+    ----------
+    ppm : float or array_like
+        [ppm by volume]
+    molar_mass : float
+        [kg/mol]
+    temperature : float, optional
+        Air temperature [K]. Omitted, the occupational-hygiene convention of
+        24.45 L/mol (25 degC, 1 atm) is used.
+    pressure : float
+        Air pressure [Pa], used with `temperature`.
+
+    Returns
+    -------
+    float or numpy.ndarray
+        [mg/m3]
+
+    Examples
+    --------
+    Toluene, 92.14 g/mol, 20 ppm (24.45 L/mol convention):
+
+    >>> round(ppm_to_mg_per_m3(20, 0.09214), 1)
+    75.4
+    """
+    molar_volume = (HYGIENE_MOLAR_VOLUME if temperature is None
+                    else GAS_CONSTANT * temperature / pressure)
+    out = np.asarray(ppm, dtype=float) * molar_mass / molar_volume
+    return float(out) if out.ndim == 0 else out
+
+
+def mg_per_m3_to_ppm(mg_per_m3, molar_mass, temperature=None, pressure=STANDARD_ATMOSPHERE):
+    """Convert mg/m3 to ppm by volume (inverse of `ppm_to_mg_per_m3`).
+
+    Examples
+    --------
+    >>> round(mg_per_m3_to_ppm(75.37, 0.09214), 2)
+    20.0
+    """
+    molar_volume = (HYGIENE_MOLAR_VOLUME if temperature is None
+                    else GAS_CONSTANT * temperature / pressure)
+    out = np.asarray(mg_per_m3, dtype=float) * molar_volume / molar_mass
+    return float(out) if out.ndim == 0 else out
+
+
+@dataclass(frozen=True)
+class ExposureLimit:
+    """One exposure limit for one substance, as the user entered it.
+
+    Attributes
+    ----------
+    substance : str
+        Key of the substance it applies to.
+    kind : str
+        A key of `LIMIT_KINDS`.
+    value : float
+        As entered.
+    unit : str
+        "ppm" or "mg/m3", as entered.
+    source : str
+        Where the value comes from (jurisdiction, standard, company), required.
+    volume_fraction : float
+        The limit as a volume fraction; a mg/m3 value is converted with the
+        24.45 L/mol convention (25 degC, 1 atm), as occupational limits are
+        defined. [-]
+    """
+
+    substance: str
+    kind: str
+    value: float
+    unit: str
+    source: str
+    volume_fraction: float
+
+    @property
+    def ppm(self) -> float:
+        return self.volume_fraction * 1e6
+
+    @property
+    def label(self) -> str:
+        return f"{self.kind} {self.value:g} {self.unit} ({self.source})"
+
+
+def exposure_limit(substance, kind: str, value, unit: str, source: str) -> ExposureLimit:
+    """Build an `ExposureLimit`, checking each field.
+
+    Parameters
+    ----------
+    substance : Substance or str
+        The substance, or its name, synonym or CAS number.
+    kind : str
+        "TWA", "STEL", "ceiling" or "emergency".
+    value : float
+        The limit's value in `unit`.
+    unit : str
+        "ppm" or "mg/m3".
+    source : str
+        Where it comes from, e.g. "site permit 2026" or a regulation's name.
+
+    Examples
+    --------
+    >>> lim = exposure_limit("toluene", "TWA", 75.4, "mg/m3", "illustrative")
+    >>> round(lim.ppm, 2)
+    20.01
+    """
+    from .substances import as_substance
+
+    sub = as_substance(substance, "limit substance")
+    if kind not in LIMIT_KINDS:
+        lowered = {k.lower(): k for k in LIMIT_KINDS}
+        if isinstance(kind, str) and kind.strip().lower() in lowered:
+            kind = lowered[kind.strip().lower()]
+        else:
+            raise InputError("limit kind", f"{kind!r} is not a kind of limit; use one of "
+                             f"{', '.join(LIMIT_KINDS)}")
+    unit_key = str(unit).strip().replace("³", "3").replace("**", "").lower()
+    if unit_key not in _UNITS:
+        raise InputError(f"{sub.name} {kind} unit", f"{unit!r} is not a limit unit; give "
+                         "the limit in ppm or mg/m3")
+    try:
+        number = float(value)
+    except (TypeError, ValueError):
+        raise InputError(f"{sub.name} {kind}", f"expected a number, got {value!r}") from None
+    if not math.isfinite(number) or number <= 0:
+        raise InputError(f"{sub.name} {kind}", f"{value!r} must be a positive number")
+    if not isinstance(source, str) or not source.strip():
+        raise InputError(f"{sub.name} {kind} source",
+                         "say where the limit comes from (regulation, standard, company "
+                         "value, or 'illustrative')")
+    fraction = (number * 1e-6 if unit_key == "ppm"
+                else mg_per_m3_to_ppm(number, sub.molar_mass) * 1e-6)
+    if fraction >= 1.0:
+        raise InputError(f"{sub.name} {kind}", "the limit is above 100 % by volume; check "
+                         "the value and unit")
+    return ExposureLimit(sub.key, kind, number, unit_key, source.strip(), fraction)
+
+
+@dataclass(frozen=True)
+class FlammabilityAlarms:
+    """Flammability and oxygen levels that make an atmosphere hazardous.
+
+    Defaults are the US OSHA 29 CFR 1910.146(b) definition of a hazardous
+    atmosphere in a permit-required confined space: flammable vapour above 10 %
+    of its LFL, oxygen below 19.5 % or above 23.5 %. Edit them to the rules that
+    apply to you.
+    """
+
+    percent_lfl: float = 10.0
+    oxygen_low: float = 19.5
+    oxygen_high: float = 23.5
+    source: str = "US OSHA 29 CFR 1910.146(b), hazardous atmosphere (default)"
+
+    def __post_init__(self):
+        if not 0 < self.percent_lfl <= 100:
+            raise InputError("LFL alarm", "must be above 0 and at most 100 % of the LFL")
+        if not 0 < self.oxygen_low < self.oxygen_high <= 100:
+            raise InputError("oxygen bounds", "need 0 < low < high <= 100 % oxygen")
+
+
+@dataclass(frozen=True)
+class LimitComparison:
+    """One concentration set against one limit.
+
+    Attributes
+    ----------
+    limit : ExposureLimit
+    concentration : float
+        [volume fraction]
+    ratio : float
+        concentration / limit. [-]
+    """
+
+    limit: ExposureLimit
+    concentration: float
+    ratio: float
+
+    @property
+    def exceeded(self) -> bool:
+        return self.ratio > 1.0
+
+    @property
+    def statement(self) -> str:
+        c = self.concentration * 1e6
+        lim = self.limit
+        verb = "exceeds" if self.exceeded else "is below"
+        return (f"{lim.substance}: {c:.4g} ppm {verb} the {lim.kind} of {lim.ppm:.4g} ppm "
+                f"({lim.source}) — ratio {self.ratio:.3g}")
+
+
+def compare(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit]):
+    """Ratio of each substance's concentration to each of its limits.
+
+    Parameters
+    ----------
+    concentrations : mapping
+        Substance key -> concentration. [volume fraction]
+    limits : iterable of ExposureLimit
+
+    Returns
+    -------
+    list of LimitComparison
+        One per limit whose substance has a concentration.
+    """
+    out = []
+    for lim in limits:
+        if lim.substance in concentrations:
+            c = float(concentrations[lim.substance])
+            out.append(LimitComparison(lim, c, c / lim.volume_fraction))
+    return out
+
+
+def additive_index(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit],
+                   kind: str = "TWA") -> float | None:
+    """Additive mixture exposure index E = Σ C_i / L_i for limits of one kind.
+
+    Common practice for substances with similar effects on the same organs; an
+    index above 1 means the mixture exceeds the limit. US OSHA 29 CFR
+    1910.1000(d)(2)(i).
+
+    Returns
+    -------
+    float or None
+        None when no substance present has a limit of that kind.
+    """
+    terms = [float(concentrations[lim.substance]) / lim.volume_fraction
+             for lim in limits if lim.kind == kind and lim.substance in concentrations]
+    return sum(terms) if terms else None
+
+
+def vapor_hazard_ratio(saturated_volume_fraction, limit: ExposureLimit) -> float:
+    """Saturated vapour concentration over an exposure limit.
+
+    How many times the limit the air could reach at equilibrium: a measure of the
+    potential for overexposure by vapour (Popendorf 1984, Am. Ind. Hyg. Assoc. J.
+    45(10), 719-726).
+    """
+    return float(saturated_volume_fraction) / limit.volume_fraction
+
+
+def flammability_findings(percent_lfl, oxygen_percent, alarms: FlammabilityAlarms) -> list[str]:
+    """Plain-language screening statements on %LFL and oxygen against the alarms."""
+    out = []
+    pl, ox = float(percent_lfl), float(oxygen_percent)
+    if pl >= alarms.percent_lfl:
+        out.append(f"Flammable vapour at {pl:.3g} % of the LFL is at or above the "
+                   f"{alarms.percent_lfl:g} % LFL alarm level ({alarms.source}).")
+    else:
+        out.append(f"Flammable vapour at {pl:.3g} % of the LFL is below the "
+                   f"{alarms.percent_lfl:g} % LFL alarm level ({alarms.source}).")
+    if ox < alarms.oxygen_low:
+        out.append(f"Oxygen at {ox:.3g} % is below {alarms.oxygen_low:g} %: "
+                   "oxygen-deficient.")
+    elif ox > alarms.oxygen_high:
+        out.append(f"Oxygen at {ox:.3g} % is above {alarms.oxygen_high:g} %: "
+                   "oxygen-enriched.")
+    else:
+        out.append(f"Oxygen at {ox:.3g} % is within {alarms.oxygen_low:g}-"
+                   f"{alarms.oxygen_high:g} %.")
+    return out

@@ -1,0 +1,212 @@
+"""The vapour space of a storage tank: vapour held, pushed out by filling, breathed out.
+
+First-principles screening: ideal gas, a saturated vapour space at the liquid
+temperature, a free vent at constant pressure. US EPA AP-42 Chapter 7.1 gives
+the regulatory emission-estimating method for fixed-roof tanks; these functions
+reduce to its equations when its factors are set to 1.
+"""
+
+from __future__ import annotations
+
+import math
+import warnings
+from dataclasses import dataclass
+
+import numpy as np
+
+from .constants import GAS_CONSTANT, STANDARD_ATMOSPHERE
+from .errors import InputError, OutOfRangeError
+from .headspace import headspace
+from .mixtures import liquid as make_liquid
+
+__all__ = [
+    "vapor_space_volume",
+    "VaporInventory",
+    "vapor_inventory",
+    "filling_displacement",
+    "BreathingLoss",
+    "thermal_breathing",
+]
+
+
+def _positive(value, field, unit):
+    try:
+        v = float(value)
+    except (TypeError, ValueError):
+        raise InputError(field, f"expected a number in {unit}, got {value!r}") from None
+    if not math.isfinite(v) or v <= 0:
+        raise InputError(field, f"must be a positive number in {unit}")
+    return v
+
+
+def vapor_space_volume(tank_volume, fill_fraction) -> float:
+    """Volume of the vapour space of a tank filled to a fraction of its volume.
+
+    Parameters
+    ----------
+    tank_volume : float
+        Total internal volume. [m3]
+    fill_fraction : float
+        Liquid volume over tank volume, 0 to below 1. [-]
+
+    Returns
+    -------
+    float
+        [m3]
+    """
+    v = _positive(tank_volume, "tank volume", "m3")
+    f = float(fill_fraction)
+    if not math.isfinite(f) or not 0.0 <= f < 1.0:
+        raise InputError("fill level", f"{fill_fraction!r} must be from 0 to below 1 "
+                         "(0.8 for 80 % full); a full tank has no vapour space")
+    return v * (1.0 - f)
+
+
+@dataclass(frozen=True)
+class VaporInventory:
+    """Vapour held in a vapour space at equilibrium.
+
+    Attributes
+    ----------
+    names : tuple of str
+    masses : numpy.ndarray
+        Per component. [kg]
+    total_mass : float
+        [kg]
+    volume : float
+        Vapour-space volume. [m3]
+    """
+
+    names: tuple[str, ...]
+    masses: np.ndarray
+    total_mass: float
+    volume: float
+
+
+def vapor_inventory(liquid, temperature, volume, pressure=STANDARD_ATMOSPHERE,
+                    **liquid_options) -> VaporInventory:
+    """Mass of vapour in a saturated vapour space: m_i = y_i P V M_i / (R T).
+
+    Parameters
+    ----------
+    liquid : as for `estimator.headspace.headspace`
+    temperature : float
+        [K]
+    volume : float
+        Vapour-space volume. [m3]
+    pressure : float
+        Absolute pressure. [Pa]
+
+    Returns
+    -------
+    VaporInventory
+    """
+    v = _positive(volume, "vapour-space volume", "m3")
+    hs = headspace(liquid, float(temperature), pressure, **liquid_options)
+    masses = np.asarray(hs.mass_concentrations, dtype=float) * v
+    return VaporInventory(hs.liquid.names, masses, float(masses.sum()), v)
+
+
+def filling_displacement(liquid, temperature, volume_pumped, pressure=STANDARD_ATMOSPHERE,
+                         **liquid_options) -> VaporInventory:
+    """Vapour pushed out of the vent while liquid is pumped in.
+
+    Each cubic metre pumped in displaces one cubic metre of saturated vapour-air
+    mixture (the upper bound: AP-42 Chapter 7.1 working loss with turnover,
+    product and vent factors of 1).
+
+    Parameters
+    ----------
+    liquid : as for `estimator.headspace.headspace`
+    temperature : float
+        [K]
+    volume_pumped : float
+        Liquid volume pumped in. [m3]
+    pressure : float
+        Absolute pressure. [Pa]
+
+    Returns
+    -------
+    VaporInventory
+        Mass expelled per component, for the displaced volume.
+    """
+    return vapor_inventory(liquid, temperature, _positive(volume_pumped, "volume pumped",
+                                                          "m3"), pressure, **liquid_options)
+
+
+@dataclass(frozen=True)
+class BreathingLoss:
+    """Vapour vented by one warming of a tank's vapour space.
+
+    Attributes
+    ----------
+    names : tuple of str
+    masses : numpy.ndarray
+        Vapour vented per component, per cycle. [kg]
+    total_mass : float
+        [kg]
+    gas_vented : float
+        Vapour-air mixture vented, in moles. [mol]
+    """
+
+    names: tuple[str, ...]
+    masses: np.ndarray
+    total_mass: float
+    gas_vented: float
+
+
+def thermal_breathing(liquid, temperature_low, temperature_high, volume,
+                      pressure=STANDARD_ATMOSPHERE, steps=400, **liquid_options) -> BreathingLoss:
+    """Vapour vented by a daily temperature swing of a tank's vapour space.
+
+    As the vapour space warms from `temperature_low` to `temperature_high` at
+    constant pressure (a free vent), its gas expands and the vapour pressure
+    rises, and gas leaves. Air is neither made nor lost except by venting, so the
+    moles leaving are dn_out = -d[(1 - y) n] / (1 - y) with n = P V / (R T), and
+    component i leaves at y_i dn_out. Integrated over the swing (liquid and
+    vapour space at the same temperature; the liquid's own expansion neglected).
+
+    Parameters
+    ----------
+    liquid : as for `estimator.headspace.headspace`
+    temperature_low, temperature_high : float
+        Coolest and warmest vapour-space temperature of the cycle. [K]
+    volume : float
+        Vapour-space volume. [m3]
+    pressure : float
+        Absolute pressure held by the vent. [Pa]
+    steps : int
+        Integration steps over the swing.
+
+    Returns
+    -------
+    BreathingLoss
+
+    References
+    ----------
+    Compare US EPA AP-42, 5th ed., Chapter 7.1 (2020), standing loss with the
+    vapour-space expansion factor K_E = ΔT_V/T_LA + ΔP_V/(P_A - P_VA).
+    """
+    v = _positive(volume, "vapour-space volume", "m3")
+    lo = _positive(temperature_low, "lowest temperature", "K")
+    hi = _positive(temperature_high, "highest temperature", "K")
+    if hi <= lo:
+        raise InputError("highest temperature", "must be above the lowest temperature")
+    liq = make_liquid(liquid, **liquid_options)
+    t = np.linspace(lo, hi, int(steps) + 1)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        hs = headspace(liq, t, pressure)
+    if np.any(hs.boiling):
+        raise OutOfRangeError("highest temperature", "the liquid boils within the swing; "
+                              "the vapour space vents pure vapour and this model does not apply")
+    y_i = np.asarray(hs.volume_fractions)
+    y = y_i.sum(axis=0)
+    air = (1.0 - y) * pressure * v / (GAS_CONSTANT * t)
+    d_air = -np.diff(air)
+    y_mid_i = 0.5 * (y_i[:, 1:] + y_i[:, :-1])
+    y_mid = y_mid_i.sum(axis=0)
+    out_total = d_air / (1.0 - y_mid)
+    moles_i = np.sum(y_mid_i * out_total, axis=1)
+    masses = moles_i * liq.molar_masses
+    return BreathingLoss(liq.names, masses, float(masses.sum()), float(out_total.sum()))

@@ -1,0 +1,245 @@
+"""Equilibrium headspace: concentrations, flammability, oxygen, against outside references."""
+
+import numpy as np
+import pytest
+
+import estimator
+from estimator.errors import InputError, OutOfRangeError, UnknownSubstanceError
+from estimator.headspace import (
+    barometric_pressure,
+    estimated_flash_point,
+    headspace,
+    le_chatelier,
+    site_pressure,
+    temperature_for_concentration,
+    temperature_for_percent_lfl,
+)
+
+CP = pytest.importorskip("CoolProp.CoolProp")
+
+
+def test_pure_toluene_against_coolprop():
+    """Pure toluene at 25 degC: y = p_sat/P with p_sat within 1 % of CoolProp's EOS."""
+    hs = headspace("toluene", 298.15)
+    p_ref = CP.PropsSI("P", "T", 298.15, "Q", 0, "Toluene")
+    assert hs.total_volume_fraction == pytest.approx(p_ref / 101325.0, rel=0.01)
+    assert hs.total_ppm == pytest.approx(hs.total_volume_fraction * 1e6)
+
+
+def test_mg_per_m3_at_actual_conditions():
+    """mg/m3 = y P M / (R T) at the actual temperature and pressure (ideal gas,
+    common practice), not the 25 degC convention."""
+    hs = headspace("acetone", 308.15, pressure=90000.0)
+    m = estimator.substance("acetone").molar_mass
+    expected = float(hs.total_volume_fraction) * 90000.0 * m / (8.314462618 * 308.15) * 1e6
+    assert hs.total_mg_per_m3 == pytest.approx(expected, rel=1e-12)
+
+
+def test_benzene_toluene_bubble_pressure_against_coolprop_mixture():
+    """Equimolar benzene-toluene at 25-60 degC: Raoult's total pressure within 3 % of
+    CoolProp's multi-fluid mixture model (GERG-type departure functions), a near-ideal pair."""
+    for t in (298.15, 313.15, 333.15):
+        hs = headspace({"benzene": 0.5, "toluene": 0.5}, t)
+        p_raoult = hs.partial_pressures.sum()
+        p_ref = CP.PropsSI("P", "T", t, "Q", 0, "HEOS::Benzene[0.5]&Toluene[0.5]")
+        assert p_raoult == pytest.approx(p_ref, rel=0.03)
+
+
+def test_mixture_reduces_to_pure():
+    """A mixture of one component at mole fraction 1 equals the pure liquid."""
+    a = headspace("ethyl acetate", 300.0)
+    b = headspace({"ethyl acetate": 1.0}, 300.0)
+    assert float(a.total_volume_fraction) == pytest.approx(float(b.total_volume_fraction))
+
+
+def test_mass_basis_composition():
+    """A 50/50 mass mix is converted to mole fractions with the molar masses."""
+    hs = headspace({"toluene": 0.5, "n-hexane": 0.5}, 298.15, basis="mass")
+    m_t = estimator.substance("toluene").molar_mass
+    m_h = estimator.substance("n-hexane").molar_mass
+    x_t = (0.5 / m_t) / (0.5 / m_t + 0.5 / m_h)
+    assert hs.liquid.mole_fractions[0] == pytest.approx(x_t)
+
+
+def test_composition_normalised_with_warning_or_refused():
+    """99 % total is scaled with a warning; 80 % is an error saying by how much."""
+    hs = headspace({"toluene": 0.5, "o-xylene": 0.49}, 298.15)
+    assert any("scaled to 100 %" in w for w in hs.warnings)
+    with pytest.raises(InputError, match="20 points short of 100 %"):
+        headspace({"toluene": 0.5, "o-xylene": 0.3}, 298.15)
+
+
+def test_activity_coefficients_scale_partial_pressures():
+    """γ = 2 doubles a component's partial pressure (modified Raoult's law)."""
+    ideal = headspace({"methanol": 0.2, "toluene": 0.8}, 298.15)
+    real = headspace({"methanol": 0.2, "toluene": 0.8}, 298.15,
+                     activity_coefficients={"methanol": 2.0})
+    assert real.partial_pressures[0] == pytest.approx(2 * ideal.partial_pressures[0])
+    assert real.partial_pressures[1] == pytest.approx(ideal.partial_pressures[1])
+
+
+def test_oxygen_by_displacement():
+    """O2 % = 20.9 x (1 - Σy) (oxygen displacement, common practice)."""
+    hs = headspace("n-pentane", 293.15)
+    assert hs.oxygen_percent == pytest.approx(20.9 * (1 - hs.total_volume_fraction))
+
+
+def test_le_chatelier_rule():
+    """Le Chatelier: 1/Σ(f_i/L_i) on a fuel-only basis (Mashuga & Crowl 2000, Eq. 1)."""
+    assert float(le_chatelier([0.01, 0.03], [0.02, 0.04])) == pytest.approx(0.04 / (0.5 + 0.75))
+    assert np.isnan(le_chatelier([0.01], [np.nan]))
+
+
+def test_flammability_states():
+    """Lean, flammable and too-rich states in plain words."""
+    cold = headspace("toluene", 273.15 + 0.0)
+    warm = headspace("toluene", 273.15 + 25.0)
+    hot = headspace("toluene", 273.15 + 80.0)
+    assert cold.flammability.item() == "lean"
+    assert warm.flammability.item() == "flammable"
+    assert hot.flammability.item() == "rich"
+    assert "diluted with air" in hot.flammability_words
+    assert headspace("water", 300.0).flammability.item() == "none"
+
+
+def test_boiling_is_reported():
+    """Above the boiling point the space is essentially pure vapour, and says so."""
+    hs = headspace("acetone", 335.0)
+    assert bool(hs.boiling)
+    assert float(hs.total_volume_fraction) == pytest.approx(1.0)
+    assert any("boils" in w for w in hs.warnings)
+
+
+def test_sweep_shapes():
+    """A temperature array gives arrays of every output."""
+    t = np.linspace(273.15, 313.15, 9)
+    hs = headspace({"toluene": 0.7, "ethylbenzene": 0.3}, t)
+    assert hs.volume_fractions.shape == (2, 9)
+    assert hs.percent_lfl.shape == (9,)
+    assert np.all(np.diff(hs.total_volume_fraction) > 0)
+
+
+def test_barometric_pressure_standard_atmosphere():
+    """U.S. Standard Atmosphere 1976 table (from memory): 1000 m 89.88 kPa, 2000 m
+    79.50 kPa, 3000 m 70.12 kPa."""
+    np.testing.assert_allclose(barometric_pressure(np.array([1000.0, 2000.0, 3000.0])),
+                               [89876.0, 79501.0, 70121.0], rtol=2e-4)
+    assert barometric_pressure(0.0) == pytest.approx(101325.0)
+
+
+def test_site_pressure_gauge():
+    """Absolute = barometric + gauge; both barometric and elevation is an error."""
+    assert site_pressure(barometric=100000.0, gauge=5000.0) == pytest.approx(105000.0)
+    with pytest.raises(InputError, match="not both"):
+        site_pressure(barometric=1e5, elevation=100.0)
+    with pytest.raises(InputError, match="gauge"):
+        site_pressure(gauge=-2e5)
+
+
+def test_temperature_for_concentration_inverts_headspace():
+    """The temperature found gives back the target concentration."""
+    t = temperature_for_concentration({"toluene": 0.5, "o-xylene": 0.5}, 0.01)
+    hs = headspace({"toluene": 0.5, "o-xylene": 0.5}, t)
+    assert float(hs.total_volume_fraction) == pytest.approx(0.01, rel=1e-6)
+
+
+def test_temperature_for_percent_lfl_alarm():
+    """The 10 % LFL temperature lies below the flash-point estimate."""
+    t10 = temperature_for_percent_lfl("n-heptane", 10.0)
+    t100 = temperature_for_percent_lfl("n-heptane", 100.0)
+    assert t10 < t100
+    assert float(headspace("n-heptane", t10).percent_lfl) == pytest.approx(10.0, rel=1e-6)
+
+
+def test_unreachable_targets_are_explained():
+    """Targets below the value at the melting point are refused with the reason."""
+    with pytest.raises(OutOfRangeError, match="lowest temperature"):
+        temperature_for_concentration("water", 1e-4)
+    with pytest.raises(InputError, match="lower flammability limit"):
+        temperature_for_percent_lfl("water", 10.0)
+    with pytest.raises(InputError, match="above 0 and below 1"):
+        temperature_for_concentration("toluene", 1.5)
+
+
+# Flash-point estimates against the published values of IEC 60079-20-1:2010, or NFPA
+# 497 (2008) where IEC has none (as carried by the chemicals package; the
+# transcription does not record the cup type).
+# The estimate is the temperature at which the saturated vapour reaches the LFL
+# (ASTM E1232 lower temperature limit), usually a few kelvin below the closed-cup
+# flash point. Observed for the bundled table: within 7 K for most compounds; the
+# compounds below are known to be poorer with this method and these data, and are
+# held to the bound given (observed difference in brackets).
+KNOWN_POOR_FLASH_POINTS = {
+    "carbon-disulfide": 27.0,  # (-25.7 K) its IEC LFL (0.6 %) is far below older values
+    "n-n-dimethylformamide": 13.5,  # (-12.6 K)
+    "n-pentane": 13.5,  # (-12.5 K)
+    "tetrahydrofuran": 11.0,  # (-10.0 K)
+    "methyl-formate": 10.5,  # (-9.3 K)
+    "formic-acid": 10.5,  # (+9.3 K) vapour dimerises; ideal-gas Raoult is poor
+    "aniline": 9.0,  # (-8.1 K)
+    "isobutyl-acetate": 8.5,  # (+7.3 K)
+}
+#: Their LFL temperature lies below their melting point: no liquid there.
+FREEZES_ABOVE_LFL_TEMPERATURE = ("benzene", "cyclohexane", "1-4-dioxane")
+GENERAL_FLASH_POINT_TOLERANCE = 7.0
+
+FLASH_POINT_CASES = sorted(
+    s.key for s in estimator.all_substances()
+    if s.flash_point is not None and s.lower_flammability_limit is not None
+    and s.key not in FREEZES_ABOVE_LFL_TEMPERATURE)
+
+
+def test_flash_point_cases_cover_the_table():
+    """At least 60 compounds have a flash-point check."""
+    assert len(FLASH_POINT_CASES) >= 60
+
+
+@pytest.mark.parametrize("key", FLASH_POINT_CASES)
+def test_flash_point_estimates_against_published(key):
+    """Estimated flash point within 7 K of IEC 60079-20-1 / NFPA 497, or the stated bound."""
+    est = estimated_flash_point(key)
+    bound = KNOWN_POOR_FLASH_POINTS.get(key, GENERAL_FLASH_POINT_TOLERANCE)
+    assert abs(est.difference) <= bound, (key, est.difference)
+    assert "IEC 60079-20-1" in est.published_source or "NFPA 497" in est.published_source
+
+
+def test_flash_point_median_is_a_few_kelvin_below():
+    """The median estimate lies 1-4 K below the published flash point."""
+    diffs = [estimated_flash_point(k).difference for k in FLASH_POINT_CASES]
+    assert -4.0 < float(np.median(diffs)) < -1.0
+
+
+@pytest.mark.parametrize("key", FREEZES_ABOVE_LFL_TEMPERATURE)
+def test_flash_point_below_melting_point_is_explained(key):
+    """Where the LFL temperature lies below the melting point, the reason is given."""
+    with pytest.raises(OutOfRangeError, match="lowest temperature the liquid exists"):
+        estimated_flash_point(key)
+
+
+@pytest.mark.parametrize(
+    "liquid, temperature, pressure, exc, fragment",
+    [
+        ("tolune", 298.15, 101325.0, UnknownSubstanceError, "did you mean 'toluene'"),
+        ({"toluene": -0.1, "o-xylene": 1.1}, 298.15, 101325.0, InputError, "negative"),
+        ({"toluene": 1.2}, 298.15, 101325.0, InputError, "above 100 %"),
+        ("toluene", 298.15, 0.0, InputError, "above zero"),
+        ("toluene", 298.15, -5.0, InputError, "above zero"),
+        ("toluene", 298.15, 1.0, InputError, "absolute, in pascals"),
+        ("toluene", float("nan"), 101325.0, InputError, "NaN"),
+        ("toluene", 0.0, 101325.0, InputError, "absolute zero"),
+        ("toluene", 700.0, 101325.0, OutOfRangeError, "critical temperature"),
+        ("benzene", 270.0, 101325.0, OutOfRangeError, "melting point"),
+        ({}, 298.15, 101325.0, InputError, "no components"),
+    ],
+)
+def test_bad_headspace_inputs(liquid, temperature, pressure, exc, fragment):
+    """Bad liquids, temperatures and pressures raise errors that say what to do."""
+    with pytest.raises(exc) as info:
+        headspace(liquid, temperature, pressure)
+    assert fragment in str(info.value)
+
+
+def test_component_above_own_boiling_point_warns():
+    """A volatile component above its own boiling point in a mixture is flagged."""
+    hs = headspace({"n-pentane": 0.05, "n-decane": 0.95}, 313.15)
+    assert any("own boiling point" in w for w in hs.warnings)
