@@ -31,6 +31,7 @@ __all__ = [
     "temperature_for_concentration",
     "temperature_for_percent_lfl",
     "estimated_flash_point",
+    "water_headspace",
     "FlashPointEstimate",
     "barometric_pressure",
     "site_pressure",
@@ -294,13 +295,23 @@ def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole"
     """
     liq = make_liquid(liquid, basis, activity_coefficients)
     p_total = _check_pressure(pressure)
-    t = np.asarray(temperature, dtype=float)
     estimates = _estimates(liq, temperature, "temperature")
     notes = list(liq.warnings)
     for e in estimates:
         notes.extend(e.warnings)
     p_sat = np.stack([np.asarray(e.pressure, dtype=float) for e in estimates])
     p_i = raoult_partial_pressures(liq.mole_fractions, p_sat, liq.activity_coefficients)
+    above_own = [c.name for c, ps in zip(liq.components, p_sat) if np.any(ps >= p_total)]
+    if above_own and not liq.is_pure:
+        notes.append(f"{', '.join(above_own)} is above its own boiling point at this "
+                     "pressure; in an open vessel it would boil off")
+    return _assemble(liq, temperature, p_total, p_sat, p_i, tuple(estimates), notes)
+
+
+def _assemble(liq: Liquid, temperature, p_total: float, p_sat, p_i, estimates,
+              notes: list[str]) -> Headspace:
+    """A `Headspace` from the partial pressures of each component."""
+    t = np.asarray(temperature, dtype=float)
     p_sum = p_i.sum(axis=0)
     boiling = p_sum >= p_total
     y = p_i / np.maximum(p_sum, p_total)
@@ -311,10 +322,6 @@ def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole"
             f"the liquid boils at {np.min(at) - 273.15:.1f} degC and {p_total / 1000:.1f} kPa "
             "or above: the vapour pressure reaches the pressure of the space, which then "
             "holds essentially pure vapour (air displaced)")
-    above_own = [c.name for c, ps in zip(liq.components, p_sat) if np.any(ps >= p_total)]
-    if above_own and not liq.is_pure:
-        notes.append(f"{', '.join(above_own)} is above its own boiling point at this "
-                     "pressure; in an open vessel it would boil off")
     molar = liq.molar_masses.reshape((-1,) + (1,) * t.ndim)
     conc = y * p_total * molar / (GAS_CONSTANT * t)
     lfl = np.array([c.lower_flammability_limit if c.lower_flammability_limit else np.nan
@@ -354,6 +361,85 @@ def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole"
         relative_uncertainty=max(uncertainties) if uncertainties else None,
         warnings=tuple(dict.fromkeys(notes)),
     )
+
+
+def water_headspace(dissolved, temperature, pressure=STANDARD_ATMOSPHERE) -> Headspace:
+    """Equilibrium headspace over water holding dilute dissolved volatiles.
+
+    Water by Raoult's law (its mole fraction taken as 1 less the solutes'), each
+    solute by Henry's law with the bundled constants and their van 't Hoff
+    temperature dependence (`estimator.henry`). For wastewater sumps, scrubber
+    liquor and contaminated water; not for solvent layers floating on the water.
+
+    Parameters
+    ----------
+    dissolved : mapping
+        Substance key, name or CAS -> dissolved concentration. [kg/m3]
+        (1 mg/L = 1e-3 kg/m3)
+    temperature : float or array_like
+        Water temperature, 0-100 degC. [K]
+    pressure : float
+        Absolute pressure of the space. [Pa]
+
+    Returns
+    -------
+    Headspace
+        With water as the first component.
+
+    Examples
+    --------
+    Water holding 1 mg/L of benzene at 25 degC (Sander 2015 constants):
+
+    >>> hs = water_headspace({"benzene": 1e-3}, 298.15)
+    >>> round(float(hs.ppm[1]), 1)
+    74.3
+    """
+    from .henry import henry_constants, henry_partial_pressure
+    from .mixtures import Liquid
+    from .substances import as_substance
+
+    if not dissolved:
+        raise InputError("dissolved", "name at least one dissolved compound")
+    p_total = _check_pressure(pressure)
+    water = as_substance("water")
+    solutes = [as_substance(k, "dissolved compound") for k in dissolved]
+    notes: list[str] = []
+    t = np.asarray(temperature, dtype=float)
+    partial = []
+    for sub, value in zip(solutes, dissolved.values()):
+        try:
+            c = float(value)
+        except (TypeError, ValueError):
+            raise InputError(f"dissolved {sub.name}", f"expected a concentration in kg/m3, "
+                             f"got {value!r}") from None
+        if not np.isfinite(c) or c < 0:
+            raise InputError(f"dissolved {sub.name}", "must be a concentration of 0 or more")
+        constants = henry_constants(sub.key)
+        with warnings.catch_warnings(record=True) as caught:
+            warnings.simplefilter("always")
+            p = henry_partial_pressure(c, sub.molar_mass, temperature, constants.hcp_298,
+                                       constants.temperature_dependence,
+                                       constants.solubility_298)
+        notes.extend(f"{sub.name}: {w.message}" for w in caught)
+        partial.append(np.asarray(p, dtype=float))
+    water_estimate = vapor_pressure_estimate(water, temperature)
+    notes.extend(water_estimate.warnings)
+    moles_per_m3 = np.array([float(v) / s.molar_mass for s, v in zip(solutes, dissolved.values())])
+    x_solutes = moles_per_m3 / (WATER_MOLAR_CONCENTRATION + moles_per_m3.sum())
+    x = np.concatenate(([1.0 - x_solutes.sum()], x_solutes))
+    p_water = np.asarray(water_estimate.pressure, dtype=float)
+    p_i = np.stack([x[0] * p_water] + partial)
+    p_sat = np.stack([p_water] + [np.full(t.shape, np.nan) for _ in solutes])
+    liq = Liquid((water, *solutes), x, np.ones(x.size),
+                 "water by Raoult's law; dissolved compounds by Henry's law (Sander 2015 "
+                 "compilation)")
+    notes.append("dissolved compounds by Henry's law, valid for dilute solutions")
+    return _assemble(liq, temperature, p_total, p_sat, p_i, (water_estimate,), notes)
+
+
+#: Molar concentration of liquid water near 25 degC. [mol/m3] IAPWS-95 density
+#: 997.05 kg/m3 over 18.015 g/mol.
+WATER_MOLAR_CONCENTRATION = 997.047 / 18.015268e-3
 
 
 def _liquid_range(liq: Liquid) -> tuple[float, float]:

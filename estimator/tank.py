@@ -26,6 +26,8 @@ __all__ = [
     "filling_displacement",
     "BreathingLoss",
     "thermal_breathing",
+    "EntryPurge",
+    "entry_purge",
 ]
 
 
@@ -210,3 +212,97 @@ def thermal_breathing(liquid, temperature_low, temperature_high, volume,
     moles_i = np.sum(y_mid_i * out_total, axis=1)
     masses = moles_i * liq.molar_masses
     return BreathingLoss(liq.names, masses, float(masses.sum()), float(out_total.sum()))
+
+
+@dataclass(frozen=True)
+class EntryPurge:
+    """Dilution purge of a tank's vapour space before entry.
+
+    Attributes
+    ----------
+    time : float
+        From the start of purging to the target; inf if never reached. [s]
+    initial_volume_fraction, target_volume_fraction, floor_volume_fraction : float
+        Start, target, and the level the purge tends to while residual liquid
+        keeps evaporating. [-]
+    residual_evaporation : float
+        Evaporation rate of the residual liquid during the purge. [kg/s]
+    reachable : bool
+    note : str
+    """
+
+    time: float
+    initial_volume_fraction: float
+    target_volume_fraction: float
+    floor_volume_fraction: float
+    residual_evaporation: float
+    reachable: bool
+    note: str
+
+
+def entry_purge(liquid, temperature, vapor_space, purge_rate, target_volume_fraction,
+                mixing_factor=1.0, residual_area=0.0, air_speed=0.1,
+                pressure=STANDARD_ATMOSPHERE) -> EntryPurge:
+    """Time for purge ventilation to bring a saturated vapour space below a target.
+
+    The space starts at its equilibrium headspace and is purged with clean air
+    (well-mixed, mixing factor K >= 1 dividing the purge rate). A residual
+    liquid heel of `residual_area` keeps evaporating (Mackay-Matsugu at the
+    internal air speed), which sets a floor G K / Q; a target at or below it is
+    never reached. Purging is followed by measurement: this says how long to
+    plan for, not when the space is safe.
+
+    Parameters
+    ----------
+    liquid : as for `estimator.headspace.headspace` (a pure liquid or a mapping)
+    temperature : float
+        [K]
+    vapor_space : float
+        Volume being purged. [m3]
+    purge_rate : float
+        Clean-air purge rate. [m3/s]
+    target_volume_fraction : float
+        Total vapour to reach, such as 10 % of the LFL or an exposure limit. [-]
+    mixing_factor : float
+        K >= 1. [-]
+    residual_area : float
+        Area of liquid left in the tank, 0 for a drained, clean tank. [m2]
+    air_speed : float
+        Air speed over the residual liquid during purging. [m/s]
+    pressure : float
+        [Pa]
+
+    Returns
+    -------
+    EntryPurge
+    """
+    from .evaporation import mixture_evaporation_rates
+    from .indoor import purge_time
+
+    v = _positive(vapor_space, "vapour-space volume", "m3")
+    q = _positive(purge_rate, "purge rate", "m3/s")
+    target = float(target_volume_fraction)
+    if not math.isfinite(target) or not 0 < target < 1:
+        raise InputError("purge target", "must be a volume fraction above 0 and below 1")
+    hs = headspace(liquid, float(temperature), pressure)
+    y0 = float(hs.total_volume_fraction)
+    to_molar = pressure / (GAS_CONSTANT * float(temperature))
+    residual = 0.0
+    residual_moles = 0.0
+    if residual_area and float(residual_area) > 0:
+        liq = hs.liquid
+        rates = np.asarray(mixture_evaporation_rates(
+            liq.components, liq.mole_fractions, float(temperature), float(residual_area),
+            air_speed, liq.activity_coefficients, pressure=pressure))
+        residual = float(rates.sum())
+        residual_moles = float(np.sum(rates / liq.molar_masses))
+    estimate = purge_time(v, q, y0 * to_molar, target * to_molar, mixing_factor,
+                          residual_moles)
+    floor = estimate.floor / to_molar
+    note = estimate.note
+    if not estimate.reachable and residual > 0:
+        note = (f"the residual liquid keeps the space at about {floor * 1e6:.3g} ppm at this "
+                f"purge rate, at or above the {target * 1e6:.3g} ppm target: it can never be "
+                "reached; remove the liquid or raise the purge rate")
+    return EntryPurge(estimate.time, y0, target, float(floor), residual,
+                      estimate.reachable, note)

@@ -243,3 +243,28 @@ def test_component_above_own_boiling_point_warns():
     """A volatile component above its own boiling point in a mixture is flagged."""
     hs = headspace({"n-pentane": 0.05, "n-decane": 0.95}, 313.15)
     assert any("own boiling point" in w for w in hs.warnings)
+
+
+def test_water_headspace_henry_and_raoult():
+    """Over dilute water: solutes by Henry's law (hand calculation: 1 mg/L benzene,
+    Hcp 1.8e-3 mol/(m3 Pa) at 25 degC (Sander 2015) -> p = 1e-3/0.078114/1.8e-3 Pa),
+    water at IAPWS-95's 3.17 kPa."""
+    from estimator.headspace import water_headspace
+    from estimator.henry import henry_constants
+
+    hs = water_headspace({"benzene": 1e-3}, 298.15)
+    hcp = henry_constants("benzene").hcp_298
+    assert hs.partial_pressures[1] == pytest.approx(1e-3 / 0.078114 / hcp, rel=1e-3)
+    assert hs.partial_pressures[0] == pytest.approx(3169.9, rel=0.01)
+    assert hs.flammability.item() == "lean"
+    assert any("Henry" in w for w in hs.warnings)
+
+
+def test_water_headspace_flags_above_solubility():
+    """Toluene above its water solubility (about 0.5 g/L) is flagged as not dilute."""
+    from estimator.headspace import water_headspace
+
+    hs = water_headspace({"toluene": 2.0}, 298.15)
+    assert any("solubility" in w for w in hs.warnings)
+    with pytest.raises(InputError, match="dissolved"):
+        water_headspace({"toluene": -1.0}, 298.15)

@@ -78,3 +78,28 @@ def test_breathing_bad_inputs():
         thermal_breathing("n-pentane", 290.0, 320.0, 5.0)
     with pytest.raises(InputError, match="positive"):
         thermal_breathing("toluene", 290.0, 300.0, -1.0)
+
+
+def test_entry_purge_matches_acgih_purge_equation():
+    """No residual liquid: t = (K V / Q) ln(C0 / C), the purge equation of ACGIH
+    Industrial Ventilation (dilution ventilation chapter; form from memory)."""
+    from estimator.tank import entry_purge
+
+    r = entry_purge("toluene", 298.15, 20.0, 0.2, 10e-6, mixing_factor=3.0)
+    y0 = float(headspace("toluene", 298.15).total_volume_fraction)
+    assert r.time == pytest.approx(3.0 * 20.0 / 0.2 * np.log(y0 / 10e-6), rel=1e-9)
+    assert r.reachable
+
+
+def test_entry_purge_residual_liquid_sets_a_floor():
+    """A residual heel sets the floor G K / Q (mol basis); a target below is never met."""
+    from estimator.evaporation import evaporation_rate
+    from estimator.tank import entry_purge
+
+    r = entry_purge("toluene", 298.15, 20.0, 0.2, 10e-6, mixing_factor=3.0,
+                    residual_area=2.0, air_speed=0.5)
+    g = evaporation_rate("toluene", 298.15, 2.0, 0.5) / estimator.substance("toluene").molar_mass
+    floor = g * 3.0 / 0.2 / (101325.0 / (GAS_CONSTANT * 298.15))
+    assert r.floor_volume_fraction == pytest.approx(floor, rel=1e-6)
+    assert not r.reachable and r.time == float("inf")
+    assert "never be reached" in r.note
