@@ -32,6 +32,8 @@ __all__ = [
     "additive_index",
     "vapor_hazard_ratio",
     "flammability_findings",
+    "format_ppm",
+    "format_ratio",
 ]
 
 #: Kinds of exposure limit, with the averaging time each applies over.
@@ -229,11 +231,29 @@ class LimitComparison:
 
     @property
     def statement(self) -> str:
-        c = self.concentration * 1e6
         lim = self.limit
-        verb = "exceeds" if self.exceeded else "is below"
-        return (f"{lim.substance}: {c:.4g} ppm {verb} the {lim.kind} of {lim.ppm:.4g} ppm "
-                f"({lim.source}) — ratio {self.ratio:.3g}")
+        verb = "above" if self.exceeded else "below"
+        return (f"{lim.substance} {format_ppm(self.concentration * 1e6)} ppm is "
+                f"{format_ratio(self.ratio)} the {lim.kind} of {format_ppm(lim.ppm)} ppm "
+                f"({lim.source}): {verb} it")
+
+
+def format_ppm(value: float) -> str:
+    """A ppm figure as people read it: 28,400 / 312 / 4.2 / 0.052."""
+    v = float(value)
+    if not math.isfinite(v):
+        return str(v)
+    if abs(v) >= 1000:
+        return f"{float(f'{v:.3g}'):,.0f}"
+    return f"{v:.3g}"
+
+
+def format_ratio(ratio: float) -> str:
+    """A ratio to a limit in words: "1,420 times" or "0.35 of"."""
+    r = float(ratio)
+    if r >= 1:
+        return f"{format_ppm(r)} times"
+    return f"{r:.2g} of"
 
 
 def compare(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit]):

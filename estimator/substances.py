@@ -41,7 +41,7 @@ TABLE_PATH = Path(__file__).with_name("data") / "substances.csv"
 _CAS = re.compile(r"^\d{2,7}-\d{2}-\d$")
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class Substance:
     """A pure liquid and the properties ullage uses, in SI units.
 
@@ -106,6 +106,16 @@ class Substance:
 
     def __repr__(self) -> str:
         return f"Substance({self.key!r}, cas={self.cas!r})"
+
+    def _identity(self):
+        return (self.key, self.cas, self.origin, self.name, self.molar_mass,
+                self.boiling_point, self.correlations)
+
+    def __eq__(self, other) -> bool:
+        return isinstance(other, Substance) and self._identity() == other._identity()
+
+    def __hash__(self) -> int:
+        return hash((self.key, self.cas, self.origin))
 
 
 def _float(row: dict, key: str) -> float | None:

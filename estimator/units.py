@@ -110,7 +110,13 @@ def _split(text: str, field: str) -> tuple[float, str]:
     return float(number), unit.strip()
 
 
+_POWER = re.compile(r"(?<=[A-Za-z])([23])(?![0-9*])")
+
+
 def _normalise_unit(unit: str, kind: str) -> str:
+    unit = unit.replace("³", "3").replace("²", "2")
+    if "**" not in unit and "^" not in unit:
+        unit = _POWER.sub(r"**\1", unit)
     key = unit.strip().lower()
     if key in ("c", "f", "r") and kind not in ("temperature", "temperature_difference"):
         return unit

@@ -92,7 +92,7 @@ def test_compare_and_hazard_ratio():
     [cmp] = compare({"toluene": 50e-6, "water": 0.01}, [lim])
     assert cmp.ratio == pytest.approx(2.5)
     assert cmp.exceeded
-    assert "exceeds" in cmp.statement and "site rule" in cmp.statement
+    assert "2.5 times the TWA of 20 ppm" in cmp.statement and "site rule" in cmp.statement
     assert vapor_hazard_ratio(0.0375, lim) == pytest.approx(1875.0)
 
 

@@ -1,0 +1,531 @@
+"""Run a scenario: every tank and spill through the models, compared with the limits.
+
+`run_scenario` calls the model functions in the one direction of the data flow
+(vapour pressure, then headspace or evaporation, then air concentration, then
+the comparison) and returns frozen results that carry the values, the method of
+each step, the assumptions, the warnings and the cautions.
+"""
+
+from __future__ import annotations
+
+import math
+import warnings
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from . import CAUTIONS, __version__
+from .errors import InputError, OutOfRangeError, UllageError
+from .headspace import (
+    Headspace,
+    FlashPointEstimate,
+    estimated_flash_point,
+    headspace,
+    temperature_for_percent_lfl,
+    water_headspace,
+)
+from .limits import (
+    LimitComparison,
+    additive_index,
+    compare,
+    flammability_findings,
+    vapor_hazard_ratio,
+)
+from .scenario import Scenario, _build_liquid
+
+__all__ = [
+    "TankResult",
+    "ZoneExposure",
+    "SpillResult",
+    "ScenarioResult",
+    "run_scenario",
+    "screen_tank",
+    "sweep_temperatures",
+]
+
+#: Averaging window each limit kind is compared over.
+_WINDOW = {"TWA": "8-h TWA", "STEL": "highest 15-min average", "ceiling": "peak",
+           "emergency": "peak"}
+
+
+def _concentrations(hs: Headspace, index=None) -> dict[str, float]:
+    y = np.asarray(hs.volume_fractions)
+    if index is not None:
+        y = y[:, index]
+    return {c.key: float(v) for c, v in zip(hs.liquid.components, y)}
+
+
+@dataclass(frozen=True)
+class TankResult:
+    """Screening of one tank's vapour space.
+
+    Attributes
+    ----------
+    name, liquid : str
+    temperature, worst_temperature : float or None
+        [K]
+    pressure : float
+        Absolute pressure of the vapour space. [Pa]
+    headspace, worst : Headspace or None
+        At the stated and the worst temperature.
+    sweep : Headspace or None
+        Over a range of temperatures, for tables and plots.
+    comparisons, worst_comparisons : tuple of LimitComparison
+    additive_index, worst_additive_index : float or None
+        Σ C_i/L_i over TWA limits.
+    hazard_ratios : dict
+        Substance key -> vapour hazard ratio (saturated vapour / TWA) at the stated
+        temperature.
+    flash_point : FlashPointEstimate or None
+    alarm_temperature : float or None
+        Liquid temperature at which the headspace reaches the % LFL alarm. [K]
+    inventory, filling, breathing, purge : objects from `estimator.tank`, or None
+    findings : tuple of str
+        Plain-language screening statements.
+    warnings : tuple of str
+    """
+
+    name: str
+    liquid: str
+    temperature: float
+    worst_temperature: float | None
+    pressure: float
+    headspace: Headspace
+    worst: Headspace | None
+    sweep: Headspace | None
+    comparisons: tuple[LimitComparison, ...]
+    worst_comparisons: tuple[LimitComparison, ...]
+    additive_index: float | None
+    worst_additive_index: float | None
+    hazard_ratios: dict
+    flash_point: FlashPointEstimate | None
+    alarm_temperature: float | None
+    inventory: object
+    filling: object
+    breathing: object
+    purge: object
+    findings: tuple[str, ...]
+    warnings: tuple[str, ...]
+
+    @property
+    def exceeded(self) -> bool:
+        """Whether any limit or alarm is exceeded at the stated or worst temperature."""
+        cmp = any(c.exceeded for c in self.comparisons + self.worst_comparisons)
+        return cmp or any("at or above" in f or "oxygen-" in f for f in self.findings)
+
+
+@dataclass(frozen=True)
+class ZoneExposure:
+    """Exposure metrics of one substance in one zone over a spill run.
+
+    Concentrations in ppm by volume, times in s from the spill.
+    """
+
+    zone: str
+    substance: str
+    peak: float
+    peak_time: float
+    twa: float
+    short_term: float
+    comparisons: tuple[tuple[str, float, float, float | None, float | None], ...]
+    # (limit label, limit ppm, ratio, first time above, time back below)
+
+
+@dataclass(frozen=True)
+class SpillResult:
+    """Screening of one spill.
+
+    Attributes
+    ----------
+    name, liquid : str
+    where : str
+        Room name, or "outdoors".
+    indoor : IndoorSpill or None
+    outdoor : OutdoorSpill or None
+    initial_rates : dict
+        Model name -> total initial evaporation rate, both models side by side. [kg/s]
+    exposures : tuple of ZoneExposure
+    distances : tuple of (limit label, distance [m] or None, note)
+        Outdoors: how far the centreline stays above each limit.
+    findings, warnings : tuple of str
+    """
+
+    name: str
+    liquid: str
+    where: str
+    indoor: object
+    outdoor: object
+    initial_rates: dict
+    exposures: tuple[ZoneExposure, ...]
+    distances: tuple
+    findings: tuple[str, ...]
+    warnings: tuple[str, ...]
+
+    @property
+    def exceeded(self) -> bool:
+        if any(ratio > 1 for e in self.exposures for _, _, ratio, _, _ in e.comparisons):
+            return True
+        return any(d is None or (d or 0) > 0 for _, d, _ in self.distances)
+
+
+@dataclass(frozen=True)
+class ScenarioResult:
+    """Everything a scenario run produced.
+
+    Attributes
+    ----------
+    scenario : Scenario
+    tanks : tuple of TankResult
+    spills : tuple of SpillResult
+    errors : tuple of (item, message)
+        Items that could not be computed, and why; the others still are.
+    assumptions : tuple of str
+    cautions : tuple of str
+    version : str
+    """
+
+    scenario: Scenario
+    tanks: tuple[TankResult, ...]
+    spills: tuple[SpillResult, ...]
+    errors: tuple[tuple[str, str], ...]
+    assumptions: tuple[str, ...]
+    cautions: tuple[str, ...] = CAUTIONS
+    version: str = __version__
+
+    @property
+    def exceeded(self) -> bool:
+        """Whether any limit or alarm is exceeded anywhere in the scenario."""
+        return any(t.exceeded for t in self.tanks) or any(s.exceeded for s in self.spills)
+
+
+def sweep_temperatures(liq, low: float, high: float, n: int = 41) -> np.ndarray:
+    """Temperatures for a sweep, kept inside the liquid range of every component. [K]"""
+    components = liq.components
+    lo = max([low] + [(c.melting_point or 0.0) + 0.5 for c in components])
+    hi = min([high] + [(c.critical_temperature or 2000.0) - 1.0 for c in components])
+    if hi <= lo:
+        raise InputError("sweep", "the range lies outside the liquid range of the liquid")
+    return np.linspace(lo, hi, n)
+
+
+def _findings(hs: Headspace, comparisons, alarms, label: str) -> list[str]:
+    from .limits import format_ppm
+
+    out = [f"{label}: headspace {format_ppm(hs.total_ppm)} ppm, "
+           f"{float(hs.percent_lfl):.3g} % of the LFL; {hs.flammability_words}."]
+    out += flammability_findings(float(hs.percent_lfl), float(hs.oxygen_percent), alarms)
+    out += ["Headspace " + c.statement + "." for c in comparisons]
+    return out
+
+
+def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
+    """Screen one tank of a scenario (see `TankResult`)."""
+    from .tank import entry_purge, filling_displacement, thermal_breathing, vapor_inventory
+
+    entry = scenario.liquids[tank["liquid"]]
+    pressure = scenario.pressure + tank.get("gauge_pressure", 0.0)
+    t = tank["temperature"]
+    worst_t = tank.get("worst_temperature")
+    notes: list[str] = []
+    water = entry["kind"] == "water"
+
+    def evaluate(temperature):
+        with warnings.catch_warnings(record=True) as caught:
+            warnings.simplefilter("always")
+            if water:
+                hs = water_headspace({s.key: c for s, c in entry["spec"].items()},
+                                     temperature, pressure)
+            else:
+                hs = headspace(_build_liquid(entry), temperature, pressure)
+        notes.extend(str(w.message) for w in caught)
+        return hs
+
+    hs = evaluate(t)
+    worst = evaluate(worst_t) if worst_t is not None else None
+    limits = scenario.limits
+    comparisons = tuple(compare(_concentrations(hs), limits))
+    worst_comparisons = tuple(compare(_concentrations(worst), limits)) if worst else ()
+    findings = _findings(hs, comparisons, scenario.alarms, f"At {t - 273.15:.1f} degC")
+    if worst is not None:
+        findings += _findings(worst, worst_comparisons, scenario.alarms,
+                              f"At the worst case, {worst_t - 273.15:.1f} degC")
+    ratios = {}
+    y = _concentrations(hs)
+    for lim in limits:
+        if lim.kind == "TWA" and lim.substance in y:
+            ratios[lim.substance] = vapor_hazard_ratio(y[lim.substance], lim)
+
+    lo = tank.get("sweep_from", t - 15.0)
+    hi = tank.get("sweep_to", (worst_t or t) + 15.0)
+    sweep = None
+    try:
+        if water:
+            grid = np.linspace(max(lo, 273.65), min(hi, 372.65), 41)
+        else:
+            grid = sweep_temperatures(hs.liquid, lo, hi)
+        sweep = evaluate(grid)
+    except UllageError as exc:
+        notes.append(f"temperature sweep not computed: {exc}")
+
+    flash = alarm_t = None
+    if not water and any(c.lower_flammability_limit for c in hs.liquid.components):
+        try:
+            flash = estimated_flash_point(hs.liquid, pressure)
+        except UllageError as exc:
+            notes.append(f"flash-point estimate: {exc}")
+        try:
+            alarm_t = temperature_for_percent_lfl(hs.liquid, scenario.alarms.percent_lfl,
+                                                  pressure)
+        except UllageError as exc:
+            notes.append(f"{scenario.alarms.percent_lfl:g} % LFL temperature: {exc}")
+    if flash is not None:
+        text = f"Estimated flash point {flash.estimate - 273.15:.1f} degC"
+        if flash.published is not None:
+            text += f" (published {flash.published - 273.15:.1f} degC, {flash.published_source})"
+        findings.append(text + ".")
+    if alarm_t is not None:
+        findings.append(f"The headspace reaches {scenario.alarms.percent_lfl:g} % of the LFL "
+                        f"at {alarm_t - 273.15:.1f} degC.")
+
+    inventory = filling = breathing = purge = None
+    space = None
+    if tank.get("volume") is not None:
+        space = tank["volume"] * (1.0 - tank.get("fill", 0.0))
+    liquid_for_tank = None if water else hs.liquid
+    if liquid_for_tank is not None:
+        if space:
+            inventory = vapor_inventory(liquid_for_tank, t, space, pressure)
+        if tank.get("pumped_volume"):
+            filling = filling_displacement(liquid_for_tank, t, tank["pumped_volume"], pressure)
+        if tank.get("daily_low") is not None and space:
+            try:
+                breathing = thermal_breathing(liquid_for_tank, tank["daily_low"],
+                                              tank["daily_high"], space, pressure)
+            except UllageError as exc:
+                notes.append(f"thermal breathing: {exc}")
+        if tank.get("purge_rate") and space:
+            target = tank.get("purge_target")
+            if target is None:
+                target = 0.01 * scenario.alarms.percent_lfl * float(hs.lfl_mixture) \
+                    if np.isfinite(hs.lfl_mixture) else None
+            if target is None:
+                notes.append("purge not computed: give purge_target (no LFL to aim below)")
+            else:
+                try:
+                    purge = entry_purge(liquid_for_tank, t, space, tank["purge_rate"], target,
+                                        tank.get("purge_mixing_factor", 1.0),
+                                        tank.get("residual_area", 0.0), 0.1, pressure)
+                except UllageError as exc:
+                    notes.append(f"purge: {exc}")
+    elif any(tank.get(k) for k in ("pumped_volume", "daily_low", "purge_rate")):
+        notes.append("filling, breathing and purge are not computed for water with "
+                     "dissolved volatiles")
+    if purge is not None:
+        findings.append(
+            f"Purging at the given rate reaches {purge.target_volume_fraction * 1e6:.3g} ppm in "
+            f"{purge.time / 60:.0f} min." if purge.reachable else purge.note[:1].upper()
+            + purge.note[1:] + ".")
+    return TankResult(
+        name=tank["name"], liquid=tank["liquid"], temperature=t, worst_temperature=worst_t,
+        pressure=pressure, headspace=hs, worst=worst, sweep=sweep, comparisons=comparisons,
+        worst_comparisons=worst_comparisons,
+        additive_index=additive_index(_concentrations(hs), limits),
+        worst_additive_index=additive_index(_concentrations(worst), limits) if worst else None,
+        hazard_ratios=ratios, flash_point=flash, alarm_temperature=alarm_t,
+        inventory=inventory, filling=filling, breathing=breathing, purge=purge,
+        findings=tuple(findings),
+        warnings=tuple(dict.fromkeys(list(hs.warnings) + notes
+                                     + (list(worst.warnings) if worst else []))),
+    )
+
+
+def _zone_exposure(zone, key, times, ppm, limits, shift) -> ZoneExposure:
+    from .exposure import first_time_above, max_rolling_average, peak, time_back_below
+    from .exposure import time_weighted_average
+
+    top = peak(times, ppm)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        twa = time_weighted_average(times, ppm, shift=shift)
+    window = max_rolling_average(times, ppm) if times[-1] - times[0] >= 900 else None
+    short = window.value if window is not None else float(np.mean(ppm))
+    rows = []
+    for lim in limits:
+        if lim.substance != key:
+            continue
+        metric = {"TWA": twa, "STEL": short}.get(lim.kind, top.value)
+        first = first_time_above(times, ppm, lim.ppm)
+        back = time_back_below(times, ppm, lim.ppm) if first is not None else None
+        rows.append((lim.label, lim.ppm, metric / lim.ppm, first, back))
+    return ZoneExposure(zone, key, top.value, top.time, twa, short, tuple(rows))
+
+
+def _spill(scenario: Scenario, spill: dict) -> SpillResult:
+    from .evaporation import mixture_evaporation_rates
+    from .spill import indoor_spill, outdoor_spill
+
+    entry = scenario.liquids[spill["liquid"]]
+    liq = _build_liquid(entry)
+    t = spill["temperature"]
+    pressure = scenario.pressure
+    notes: list[str] = []
+    geometry = dict(area=spill.get("area"), dike_area=spill.get("dike_area"))
+    if spill.get("depth") is not None:
+        geometry["depth"] = spill["depth"]
+    findings: list[str] = []
+    exposures = []
+    distances = []
+    indoor = outdoor = None
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always")
+        if spill.get("room"):
+            room = next(r for r in scenario.rooms if r["name"] == spill["room"])
+            air_speed = room["air_speed"]
+            two_zone = {}
+            if room.get("near_field_radius"):
+                from .indoor import interzonal_airflow, near_field_hemisphere
+
+                geo = near_field_hemisphere(room["near_field_radius"])
+                two_zone = dict(near_field_volume=geo.volume,
+                                interzonal_flow=interzonal_airflow(geo.free_surface_area,
+                                                                   room["random_air_speed"]))
+            amount = ({"spilled_volume": spill["volume"]} if spill.get("volume")
+                      else {"spilled_mass": spill["mass"]})
+            indoor = indoor_spill(
+                liq, t, room_volume=room["volume"], ventilation_rate=room["ventilation_rate"],
+                mixing_factor=room["mixing_factor"], air_speed=air_speed,
+                duration=spill["duration"], source_removed_at=spill.get("cleanup_after"),
+                model=spill["model"], pressure=pressure, **amount, **two_zone, **geometry)
+            area = indoor.pool_area
+            zones = [("room", "far field" if two_zone else "room")]
+            if two_zone:
+                zones.insert(0, ("near_field", "near field"))
+            for zone, label in zones:
+                ppm = indoor.ppm(zone)
+                for j, c in enumerate(liq.components):
+                    exposures.append(_zone_exposure(label, c.key, indoor.times, ppm[:, j],
+                                                    scenario.limits, scenario.shift))
+            gone = indoor.pool_gone_time
+            removed = indoor.source_removed_time
+            left = float(indoor.mass_remaining[-1].sum())
+            if math.isfinite(gone):
+                text = f"The pool ({area:.2f} m2) has evaporated after {gone / 60:.0f} min."
+            elif removed is not None and removed < indoor.times[-1]:
+                at = int(np.searchsorted(indoor.times, removed))
+                text = (f"The pool ({area:.2f} m2) is cleaned up at {removed / 60:.0f} min "
+                        f"with {float(indoor.mass_remaining[at].sum()):.3g} kg still in it.")
+            else:
+                text = (f"The pool ({area:.2f} m2) still holds {left:.3g} kg at the end "
+                        "of the run.")
+            findings.append(text)
+        else:
+            od = scenario.outdoors
+            stability = od.get("stability")
+            if stability is None:
+                from .outdoor import stability_class
+
+                stability = stability_class(od["wind_speed"], od.get("daytime", True),
+                                            od.get("insolation"), od.get("cloud_cover"))
+                notes.append(f"stability class {stability} from the wind speed and "
+                             f"{'insolation' if od.get('daytime', True) else 'cloud cover'}")
+            wind = od["wind_speed"]
+            if od.get("wind_height", 10.0) != 10.0:
+                from .outdoor import wind_speed_at_height
+
+                wind = wind_speed_at_height(od["wind_speed"], 10.0, od["wind_height"],
+                                            stability.split("-")[-1], od["terrain"])
+                notes.append(f"wind speed {od['wind_speed']:.2g} m/s at "
+                             f"{od['wind_height']:g} m taken to {wind:.2g} m/s at 10 m "
+                             "(power law)")
+            volume = spill.get("volume") or spill["mass"] / _density(liq)
+            outdoor = outdoor_spill(liq, t, od["receptors"], wind_speed=wind,
+                                    stability=stability, terrain=od["terrain"],
+                                    spilled_volume=volume, model=spill["model"],
+                                    pressure=pressure, **geometry)
+            area = None
+            from .outdoor import distance_to_concentration
+
+            for lim in scenario.limits:
+                keys = [c.key for c in liq.components]
+                if lim.substance not in keys:
+                    continue
+                j = keys.index(lim.substance)
+                g = outdoor.emission_rate[j]
+                c_lim = lim.volume_fraction * pressure * liq.molar_masses[j] / (8.314462618 * t)
+                d = distance_to_concentration(g, wind, c_lim, stability, od["terrain"])
+                distances.append((lim.label, d.distance, d.note))
+            findings.append(f"Source strength {1000 * outdoor.emission_rate.sum():.3g} g/s "
+                            f"(initial evaporation rate), stability class {stability}.")
+        rates = {}
+        area_for_rates = area if area is not None else None
+        if area_for_rates is None:
+            from .evaporation import spill_pool_area
+
+            area_for_rates = spill.get("area") or spill_pool_area(
+                spill.get("volume") or spill["mass"] / _density(liq), spill.get("dike_area"),
+                spill.get("depth", 0.01))
+        speed = (next(r for r in scenario.rooms if r["name"] == spill["room"])["air_speed"]
+                 if spill.get("room") else scenario.outdoors["wind_speed"])
+        for model in ("mackay-matsugu", "epa-rmp"):
+            try:
+                rates[model] = float(np.sum(mixture_evaporation_rates(
+                    liq.components, liq.mole_fractions, t, area_for_rates, speed,
+                    liq.activity_coefficients, model, pressure)))
+            except UllageError as exc:
+                notes.append(f"{model}: {exc}")
+    notes.extend(str(w.message) for w in caught)
+    run = indoor or outdoor
+    notes.extend(run.warnings)
+    for e in exposures:
+        for label, limit_ppm, ratio, first, back in e.comparisons:
+            verb = "exceeds" if ratio > 1 else "stays below"
+            text = (f"{e.zone}, {e.substance}: {_WINDOW[label.split()[0]]} {verb} the "
+                    f"{label} (ratio {ratio:.3g})")
+            if first is not None:
+                text += f"; above {limit_ppm:.4g} ppm from {first / 60:.0f} min"
+                text += (f", back below at {back / 60:.0f} min" if back is not None
+                         else ", not back below within the run")
+            findings.append(text + ".")
+    for label, d, note in distances:
+        if d is None:
+            text = f"Downwind, the {label} is exceeded beyond the farthest distance computed"
+        elif d == 0:
+            text = f"Downwind, the centreline stays below the {label}"
+        else:
+            text = (f"Downwind, the centreline stays above the {label} out to about "
+                    f"{d:,.0f} m")
+            if d < 100:
+                text += " (under 100 m, outside the range of the dispersion coefficients)"
+        findings.append(text + ".")
+    return SpillResult(
+        name=spill["name"], liquid=spill["liquid"], where=spill.get("room") or "outdoors",
+        indoor=indoor, outdoor=outdoor, initial_rates=rates, exposures=tuple(exposures),
+        distances=tuple(distances), findings=tuple(findings),
+        warnings=tuple(dict.fromkeys(notes)))
+
+
+def _density(liq) -> float:
+    from .spill import liquid_mixture_density
+
+    return liquid_mixture_density(liq)
+
+
+def run_scenario(scenario: Scenario) -> ScenarioResult:
+    """Run every tank and spill of a scenario.
+
+    An item that cannot be computed is reported in `errors` with the reason; the
+    others are still computed.
+    """
+    tanks, spills, errors = [], [], []
+    for tank in scenario.tanks:
+        try:
+            tanks.append(screen_tank(scenario, tank))
+        except UllageError as exc:
+            errors.append((f"tank {tank['name']}", str(exc)))
+    for spill in scenario.spills:
+        try:
+            spills.append(_spill(scenario, spill))
+        except UllageError as exc:
+            errors.append((f"spill {spill['name']}", str(exc)))
+    return ScenarioResult(scenario, tuple(tanks), tuple(spills), tuple(errors),
+                          scenario.assumptions)
