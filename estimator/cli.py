@@ -1,10 +1,15 @@
-"""The `ullage` command line."""
+"""The `ullage` command line.
+
+Results go to standard output, errors to standard error. Exit codes: 0 done,
+1 a limit or alarm exceeded (only with --signal-exceedance), 2 bad input.
+"""
 
 from __future__ import annotations
 
 import argparse
 import sys
 import textwrap
+from pathlib import Path
 
 from . import CAUTIONS, __version__
 from .errors import UllageError
@@ -12,6 +17,9 @@ from .errors import UllageError
 EXIT_OK = 0
 EXIT_LIMIT = 1
 EXIT_BAD_INPUT = 2
+
+#: Where the demo scenarios live in a checkout.
+DEMO_DIR = Path(__file__).resolve().parents[1] / "scenarios"
 
 
 def _cautions_block() -> str:
@@ -22,8 +30,18 @@ def _cautions_block() -> str:
     return "\n".join(lines)
 
 
-def _fmt(value, digits=4) -> str:
-    return "-" if value is None else f"{value:.{digits}g}"
+class _BadInput(UllageError):
+    """A command-line argument that cannot be used."""
+
+
+def _out(text: str, output: str | None) -> None:
+    if output:
+        from .report import write_text_atomic
+
+        write_text_atomic(output, text)
+        print(f"wrote {output}", file=sys.stderr)
+    else:
+        sys.stdout.write(text if text.endswith("\n") else text + "\n")
 
 
 def _cmd_substances(args) -> int:
@@ -35,16 +53,17 @@ def _cmd_substances(args) -> int:
         except UllageError:
             hits = search_substances(args.text)
         if not hits:
-            print(f"nothing matches {args.text!r}", file=sys.stderr)
+            print(f"ullage: nothing matches {args.text!r}; run `ullage substances` to list "
+                  "all", file=sys.stderr)
             return EXIT_BAD_INPUT
+        if len(hits) == 1:
+            print(_describe(hits[0]))
+            return EXIT_OK
     else:
         hits = list(all_substances())
-    if len(hits) == 1 and args.text:
-        print(_describe(hits[0]))
-        return EXIT_OK
-    print(f"{'key':<28} {'CAS':<12} {'name':<34} {'Tb [degC]':>9}")
+    print(f"{'key':<26} {'CAS':<12} {'name':<32} {'Tb [degC]':>9}")
     for s in hits:
-        print(f"{s.key:<28} {s.cas:<12} {s.name[:34]:<34} {s.boiling_point - 273.15:9.1f}")
+        print(f"{s.key:<26} {s.cas:<12} {s.name[:32]:<32} {s.boiling_point - 273.15:9.1f}")
     print(f"\n{len(hits)} substance(s). `ullage substances NAME` shows one in full.")
     return EXIT_OK
 
@@ -66,7 +85,7 @@ def _describe(s) -> str:
         ("liquid density", "-" if s.liquid_density is None else f"{s.liquid_density:.0f} kg/m3"),
         ("LFL / UFL in air", f"{percent(s.lower_flammability_limit)} / "
                              f"{percent(s.upper_flammability_limit)}"),
-        ("flash point (closed cup)", celsius(s.flash_point)),
+        ("flash point", celsius(s.flash_point)),
         ("vapour-pressure methods", ", ".join(c.method for c in s.correlations)),
     ]
     out = [f"{label:<26} {value}" for label, value in rows]
@@ -75,45 +94,290 @@ def _describe(s) -> str:
     return "\n".join(out)
 
 
-DEMO_LIQUIDS = ("acetone", "toluene", "n-hexane", "methanol", "water")
-DEMO_TEMPERATURES_C = (0.0, 20.0, 35.0, 50.0)
+def _summary(result) -> str:
+    """A plain-text summary of a scenario run for the terminal."""
+    sc = result.scenario
+    lines = [f"ullage {result.version}: {sc.title}"]
+    site = sc.document.get("scenario", {}).get("site")
+    if site:
+        lines.append(site)
+    lines.append("")
+    lines.append("SCREENING ESTIMATE: measure with calibrated instruments before entry.")
+    for item, kind in [(t, "Tank") for t in result.tanks] + [(s, "Spill") for s in result.spills]:
+        where = f" ({item.where})" if kind == "Spill" else ""
+        lines += ["", f"{kind} {item.name}{where}, liquid {item.liquid}"]
+        for finding in item.findings:
+            lines.append(textwrap.fill(finding, width=78, initial_indent="  - ",
+                                       subsequent_indent="    "))
+        for warning in item.warnings:
+            lines.append(textwrap.fill("note: " + warning, width=78, initial_indent="  ! ",
+                                       subsequent_indent="    "))
+    for item, message in result.errors:
+        lines.append(f"\nNot computed: {item}: {message}")
+    if result.assumptions:
+        lines += ["", "Assumptions:"]
+        lines += [textwrap.fill(a, width=78, initial_indent="  - ", subsequent_indent="    ")
+                  for a in result.assumptions]
+    return "\n".join(lines) + "\n" + _cautions_block() + "\n"
 
 
-def _cmd_demo(args) -> int:
-    from .vapor import vapor_pressure_estimate
+def _load(path):
+    from .scenario import load_scenario
 
-    print("ullage demo: saturated vapour pressure of common liquids [kPa]\n")
-    header = f"{'liquid':<12}" + "".join(f"{t:>10.0f} C" for t in DEMO_TEMPERATURES_C)
-    print(header + "   method (stated uncertainty)")
-    for key in DEMO_LIQUIDS:
-        estimate = vapor_pressure_estimate(key, [t + 273.15 for t in DEMO_TEMPERATURES_C])
-        cells = "".join(f"{p / 1000:12.3g}" for p in estimate.pressure)
-        unc = ("not validated" if estimate.relative_uncertainty is None
-               else f"±{100 * estimate.relative_uncertainty:.1f} %")
-        print(f"{key:<12}{cells}   {estimate.method} ({unc})")
+    return load_scenario(path)
+
+
+def _render(result, fmt: str) -> str:
+    from . import report
+
+    if fmt == "text":
+        return _summary(result)
+    return {"markdown": report.markdown_report, "html": report.html_report,
+            "json": report.results_json, "csv": report.results_csv}[fmt](result)
+
+
+def _exit(result, args) -> int:
+    return EXIT_LIMIT if getattr(args, "signal_exceedance", False) and result.exceeded \
+        else EXIT_OK
+
+
+def _cmd_run(args) -> int:
+    from .screening import run_scenario
+
+    result = run_scenario(_load(args.scenario))
+    fmt = args.format or _format_from_path(args.output) or "text"
+    _out(_render(result, fmt), args.output)
+    return _exit(result, args)
+
+
+def _format_from_path(path):
+    if not path:
+        return None
+    suffix = Path(path).suffix.lower()
+    return {".md": "markdown", ".html": "html", ".htm": "html", ".json": "json",
+            ".csv": "csv", ".txt": "text"}.get(suffix)
+
+
+def _cmd_check(args) -> int:
+    scenario = _load(args.scenario)
+    print(f"{args.scenario}: valid scenario {scenario.title!r}: {len(scenario.tanks)} tank(s), "
+          f"{len(scenario.spills)} spill(s), {len(scenario.limits)} limit value(s)")
+    if scenario.assumptions:
+        print("Assumptions the run will make:")
+        for a in scenario.assumptions:
+            print(textwrap.fill(a, width=78, initial_indent="  - ", subsequent_indent="    "))
     return EXIT_OK
 
 
+def _cmd_sweep(args) -> int:
+    import numpy as np
+
+    from .headspace import headspace, water_headspace
+    from .inventory import parse_liquid
+    from .limits import format_ppm
+    from .units import parse_quantity, parse_temperature
+
+    low = parse_temperature(args.low, "--from")
+    high = parse_temperature(args.high, "--to")
+    if high <= low:
+        raise _BadInput("--to", "must be above --from")
+    step = parse_quantity(args.step, "temperature_difference", "--step", default_unit="K")
+    if step <= 0:
+        raise _BadInput("--step", "must be above zero")
+    if (high - low) / step > 2000:
+        raise _BadInput("--step", "gives more than 2000 rows; use a larger step")
+    pressure = parse_quantity(args.pressure, "pressure", "--pressure", default_unit="Pa")
+    grid = np.arange(low, high + step / 2, step)
+    if args.liquid:
+        hs = headspace(parse_liquid(args.liquid, args.basis, "liquid"), grid, pressure)
+    else:
+        if not args.scenario or not args.tank:
+            raise _BadInput("liquid", "give a liquid (\"toluene\", or \"toluene 60%, o-xylene "
+                            "40%\") or --scenario FILE --tank NAME")
+        sc = _load(args.scenario)
+        tank = {t["name"].lower(): t for t in sc.tanks}.get(args.tank.lower())
+        if tank is None:
+            raise _BadInput("--tank", f"no tank {args.tank!r} in the scenario; tanks: "
+                            f"{', '.join(t['name'] for t in sc.tanks) or 'none'}")
+        entry = sc.liquids[tank["liquid"]]
+        p = sc.pressure + tank.get("gauge_pressure", 0.0)
+        if entry["kind"] == "water":
+            hs = water_headspace({s.key: c for s, c in entry["spec"].items()}, grid, p)
+        else:
+            from .scenario import _build_liquid
+
+            hs = headspace(_build_liquid(entry), grid, p)
+    names = [c.key for c in hs.liquid.components]
+    header = ["T [degC]", "total ppm", "mg/m3", "% LFL", "O2 %", "state"] + \
+        [f"{n} ppm" for n in names]
+    if args.csv:
+        import csv
+        import io
+
+        buffer = io.StringIO()
+        writer = csv.writer(buffer, lineterminator="\n")
+        writer.writerow(header)
+        for i, t in enumerate(grid):
+            writer.writerow([f"{t - 273.15:.2f}", f"{hs.total_volume_fraction[i] * 1e6:.6g}",
+                             f"{hs.total_mg_per_m3[i]:.6g}", f"{hs.percent_lfl[i]:.4g}",
+                             f"{hs.oxygen_percent[i]:.4g}", str(hs.flammability[i])]
+                            + [f"{hs.ppm[j, i]:.6g}" for j in range(len(names))])
+        _out(buffer.getvalue(), args.output)
+        return EXIT_OK
+    lines = [f"Equilibrium headspace, {pressure / 1000:.2f} kPa: "
+             + ", ".join(f"{c.name} x={x:.3g}" for c, x in zip(hs.liquid.components,
+                                                               hs.liquid.mole_fractions)), ""]
+    lines.append("  ".join(f"{h:>12}" for h in header))
+    for i, t in enumerate(grid):
+        cells = [f"{t - 273.15:.1f}", format_ppm(hs.total_volume_fraction[i] * 1e6),
+                 format_ppm(hs.total_mg_per_m3[i]), f"{hs.percent_lfl[i]:.3g}",
+                 f"{hs.oxygen_percent[i]:.3g}", str(hs.flammability[i])]
+        cells += [format_ppm(hs.ppm[j, i]) for j in range(len(names))]
+        lines.append("  ".join(f"{c:>12}" for c in cells))
+    methods = sorted({f"{e.description} ({e.source})" for e in hs.vapor_pressure_methods})
+    lines += ["", "Vapour pressure: " + "; ".join(methods)]
+    lines += [f"note: {w}" for w in hs.warnings]
+    _out("\n".join(lines) + "\n" + _cautions_block() + "\n", args.output)
+    return EXIT_OK
+
+
+def _cmd_inventory(args) -> int:
+    from .inventory import screen_inventory, write_inventory_csv
+    from .units import parse_quantity
+
+    pressure = parse_quantity(args.pressure, "pressure", "--pressure", default_unit="Pa")
+    result = screen_inventory(args.file, pressure=pressure)
+    if args.output:
+        write_inventory_csv(result, args.output)
+        print(f"wrote {args.output}", file=sys.stderr)
+    else:
+        import io
+
+        buffer = io.StringIO()
+        table = result.table if hasattr(result, "table") else result.frame
+        table.to_string(buffer, max_rows=60, max_colwidth=40)
+        print(buffer.getvalue())
+    summary = result.summary
+    print(f"\n{summary}" if not isinstance(summary, dict) else
+          "\n" + ", ".join(f"{k}: {v}" for k, v in summary.items()))
+    print(_cautions_block())
+    return EXIT_OK
+
+
+def _cmd_demo(args) -> int:
+    from .screening import run_scenario
+
+    files = sorted(DEMO_DIR.glob("*.toml"))
+    if not files:
+        raise _BadInput("demo", f"no demo scenarios found in {DEMO_DIR.name}/; run from a "
+                        "checkout of ullage")
+    for path in files:
+        result = run_scenario(_load(path))
+        print(f"=== {path.name} ===")
+        sys.stdout.write(_summary(result))
+        print()
+    print("Run one with `ullage run scenarios/NAME.toml --output report.html` for the full "
+          "report with plots.")
+    return EXIT_OK
+
+
+def _cmd_app(args) -> int:
+    import subprocess
+
+    script = Path(__file__).resolve().parents[1] / "ui" / "app.py"
+    if not script.exists():
+        raise _BadInput("app", "the browser front end (ui/app.py) is not in this installation")
+    command = [sys.executable, "-m", "streamlit", "run", str(script),
+               "--server.address", args.address, "--server.port", str(args.port),
+               "--server.headless", "true", "--browser.gatherUsageStats", "false"]
+    print(f"ullage: serving on http://{args.address}:{args.port} (Ctrl-C to stop)",
+          file=sys.stderr)
+    try:
+        return subprocess.call(command)
+    except KeyboardInterrupt:
+        return EXIT_OK
+
+
+class _Parser(argparse.ArgumentParser):
+    def error(self, message):
+        self.print_usage(sys.stderr)
+        print(f"{self.prog}: error: {message}", file=sys.stderr)
+        raise SystemExit(EXIT_BAD_INPUT)
+
+
 def build_parser() -> argparse.ArgumentParser:
-    parser = argparse.ArgumentParser(
+    parser = _Parser(
         prog="ullage",
         description="Screening estimates of vapour hazards: vapour pressure, tank "
                     "headspace, spill evaporation and air concentration, compared "
-                    "with the limits you enter.",
-        epilog="Every result is a screening estimate; measure before entry.",
-    )
+                    "with the limits you enter. Every result is a screening "
+                    "estimate: measure before entry.",
+        epilog="Exit codes: 0 done, 1 a limit exceeded (with --signal-exceedance), "
+               "2 bad input.")
     parser.add_argument("--version", action="version", version=f"ullage {__version__}")
-    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+
+    p = sub.add_parser("run", help="run a scenario file and report the results",
+                       description="Run a scenario and print a readable summary, or write "
+                                   "the report as Markdown, HTML, JSON or CSV.")
+    p.add_argument("scenario", help="scenario file (.toml)")
+    p.add_argument("--format", choices=["text", "markdown", "html", "json", "csv"],
+                   help="output format (default: from --output's extension, else text)")
+    p.add_argument("--output", "-o", help="write to this file instead of standard output")
+    p.add_argument("--signal-exceedance", action="store_true",
+                   help="exit with 1 when any limit or alarm is exceeded")
+    p.set_defaults(func=_cmd_run)
+
+    p = sub.add_parser("check", help="check a scenario file without running it",
+                       description="Check a scenario file and list the assumptions a run "
+                                   "would make.")
+    p.add_argument("scenario", help="scenario file (.toml)")
+    p.set_defaults(func=_cmd_check)
+
+    p = sub.add_parser("sweep", help="headspace over a temperature range",
+                       description="Equilibrium headspace of a liquid over a temperature "
+                                   "range: a substance, a mixture such as \"toluene 60%, "
+                                   "o-xylene 40%\", or a tank of a scenario.")
+    p.add_argument("liquid", nargs="?", help="substance or mixture (quote it)")
+    p.add_argument("--from", dest="low", default="0 degC", help="lowest temperature")
+    p.add_argument("--to", dest="high", default="50 degC", help="highest temperature")
+    p.add_argument("--step", default="5 K", help="temperature step")
+    p.add_argument("--pressure", default="101325 Pa", help="absolute pressure")
+    p.add_argument("--basis", default="mass", choices=["mass", "mole", "volume"],
+                   help="basis of mixture percentages (default mass)")
+    p.add_argument("--scenario", help="take the liquid and pressure of a scenario's tank")
+    p.add_argument("--tank", help="tank name in --scenario")
+    p.add_argument("--csv", action="store_true", help="write CSV")
+    p.add_argument("--output", "-o", help="write to this file")
+    p.set_defaults(func=_cmd_sweep)
+
+    p = sub.add_parser("inventory", help="screen an inventory file of tanks and containers",
+                       description="Screen every row of an inventory (CSV or Excel): "
+                                   "headspace, %%LFL and ratio to each limit, sorted by "
+                                   "concern. Bad rows are reported, never dropped.")
+    p.add_argument("file", help="inventory .csv or .xlsx")
+    p.add_argument("--pressure", default="101325 Pa", help="absolute pressure for all rows")
+    p.add_argument("--output", "-o", help="write the screened table as CSV")
+    p.set_defaults(func=_cmd_inventory)
 
     p = sub.add_parser("substances", help="list the bundled substances or show one",
-                       description="List the bundled substances, or show one in full "
-                                   "by name, synonym or CAS number.")
+                       description="List the bundled substances, or show one in full by "
+                                   "name, synonym or CAS number.")
     p.add_argument("text", nargs="?", help="name, synonym, CAS number or part of one")
-    p.set_defaults(func=_cmd_substances, cautions=False)
+    p.set_defaults(func=_cmd_substances)
 
-    p = sub.add_parser("demo", help="run a built-in example",
-                       description="Run a built-in example and print its results.")
-    p.set_defaults(func=_cmd_demo, cautions=True)
+    p = sub.add_parser("demo", help="run the bundled demo scenarios",
+                       description="Run the demo scenarios in scenarios/ and print their "
+                                   "summaries.")
+    p.set_defaults(func=_cmd_demo)
+
+    p = sub.add_parser("app", help="start the browser front end",
+                       description="Start the browser front end. It listens on 127.0.0.1 "
+                                   "only; give --address 0.0.0.0 to share it on a network "
+                                   "deliberately.")
+    p.add_argument("--address", default="127.0.0.1", help="address to listen on")
+    p.add_argument("--port", type=int, default=8501, help="port")
+    p.set_defaults(func=_cmd_app)
     return parser
 
 
@@ -127,16 +391,16 @@ def main(argv=None) -> int:
         parser.print_help()
         return EXIT_OK
     try:
-        code = args.func(args)
+        return args.func(args)
     except UllageError as exc:
         print(f"ullage: error: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
-        print("ullage: interrupted", file=sys.stderr)
+        print("ullage: interrupted; no partial output was written", file=sys.stderr)
         return 130
-    if args.cautions:
-        print(_cautions_block())
-    return code
+    except (OSError, MemoryError) as exc:
+        print(f"ullage: error: {exc}", file=sys.stderr)
+        return EXIT_BAD_INPUT
 
 
 if __name__ == "__main__":

@@ -1,0 +1,170 @@
+"""Scenario files: validation messages, lossless round trips, and runs of the demos."""
+
+from pathlib import Path
+
+import pytest
+
+from estimator.scenario import (
+    ScenarioError,
+    dumps_scenario,
+    load_scenario,
+    loads_scenario,
+    save_scenario,
+)
+from estimator.screening import run_scenario
+
+DEMOS = sorted((Path(__file__).resolve().parents[1] / "scenarios").glob("*.toml"))
+
+MINIMAL = '''
+[scenario]
+title = "t"
+
+[[liquid]]
+name = "solvent"
+substance = "toluene"
+
+[[tank]]
+name = "A"
+liquid = "solvent"
+temperature = "25 degC"
+'''
+
+
+def test_there_are_three_demo_scenarios():
+    """At least three demo scenarios ship with the project."""
+    assert len(DEMOS) >= 3
+
+
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_demo_runs_end_to_end(path):
+    """Each demo loads, runs without item errors, and labels its limits illustrative."""
+    scenario = load_scenario(path)
+    result = run_scenario(scenario)
+    assert not result.errors
+    assert result.tanks or result.spills
+    assert all("illustrative" in lim.source for lim in scenario.limits)
+    assert result.cautions
+
+
+@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
+def test_round_trip_is_lossless(path, tmp_path):
+    """load -> save -> load gives the same scenario, and records the version."""
+    first = load_scenario(path)
+    target = tmp_path / "copy.toml"
+    save_scenario(first, target)
+    second = load_scenario(target)
+    assert second.document["scenario"]["ullage_version"]
+    doc1 = {k: v for k, v in first.document.items() if k != "scenario"}
+    doc2 = {k: v for k, v in second.document.items() if k != "scenario"}
+    assert doc1 == doc2
+    assert (first.tanks, first.spills, first.rooms, first.limits, first.pressure) == \
+        (second.tanks, second.spills, second.rooms, second.limits, second.pressure)
+    assert dumps_scenario(second) == dumps_scenario(load_scenario(target))
+
+
+def test_units_us_customary_equal_si():
+    """A tank in gallons and degF equals the same tank in m3 and degC (NIST SP 811)."""
+    si = loads_scenario(MINIMAL.replace('"25 degC"', '"35 degC"') + 'volume = "3.785411784 m3"\n')
+    us = loads_scenario(MINIMAL.replace('"25 degC"', '"95 degF"') + 'volume = "1000 gal"\n')
+    assert si.tanks[0]["temperature"] == pytest.approx(us.tanks[0]["temperature"])
+    assert si.tanks[0]["volume"] == pytest.approx(us.tanks[0]["volume"])
+
+
+@pytest.mark.parametrize(
+    "change, where, fragment",
+    [
+        (("temperature = \"25 degC\"", "temprature = \"25 degC\""), "temprature",
+         "did you mean 'temperature'"),
+        (("temperature = \"25 degC\"", "temperature = \"25 kg\""), "temperature",
+         "not a temperature"),
+        (("temperature = \"25 degC\"", "temperature = 25"), "temperature", "has no unit"),
+        (("substance = \"toluene\"", "substance = \"tolune\""), "substance",
+         "did you mean 'toluene'"),
+        (("liquid = \"solvent\"\ntemperature", "liquid = \"solvant\"\ntemperature"), "liquid",
+         "did you mean 'solvent'"),
+        (("[[tank]]", "[[tanks]]"), "[tanks]", "did you mean 'tank'"),
+        (("title = \"t\"", "title = \"t\"\n[conditions]\nelevation = \"-900 m\""), "elevation",
+         "-500 m"),
+        (("title = \"t\"", "title = 5"), "title", "expected text"),
+        (("title = \"t\"", "title = \"t"), "scenario file", "not valid TOML"),
+    ],
+)
+def test_errors_name_the_key_and_line(change, where, fragment):
+    """Bad keys and values raise ScenarioError naming the key (and line) and what to do."""
+    text = MINIMAL.replace(*change)
+    with pytest.raises(ScenarioError) as info:
+        loads_scenario(text)
+    assert where in info.value.field
+    assert fragment in str(info.value)
+
+
+def test_error_gives_line_number():
+    """The line of the offending key is reported."""
+    text = MINIMAL.replace("temperature = \"25 degC\"", "temperature = \"hot\"")
+    with pytest.raises(ScenarioError) as info:
+        loads_scenario(text)
+    line = next(i + 1 for i, t in enumerate(text.splitlines()) if t.startswith("temperature"))
+    assert f"line {line}" in info.value.field
+
+
+def test_defaults_show_in_assumptions():
+    """Nothing is defaulted silently: sea-level pressure and the OSHA alarms are listed."""
+    sc = loads_scenario(MINIMAL)
+    text = " ".join(sc.assumptions)
+    assert "101.325 kPa" in text and "1910.146" in text and "no exposure limits" in text
+
+
+def test_user_substance_from_sds_in_a_scenario():
+    """A [[substance]] from SDS values can be used in a liquid and a limit."""
+    text = MINIMAL.replace('substance = "toluene"', 'substance = "Thinner Q"') + '''
+[[substance]]
+name = "Thinner Q"
+molar_mass = "100 g/mol"
+boiling_point = "115 degC"
+vapor_pressure = [["20 degC", "2.5 kPa"]]
+lower_flammability_limit = "1.1 %"
+upper_flammability_limit = "7 %"
+
+[[limit]]
+substance = "Thinner Q"
+TWA = "50 ppm"
+source = "supplier SDS"
+'''
+    sc = loads_scenario(text)
+    result = run_scenario(sc)
+    assert result.tanks[0].comparisons[0].limit.source == "supplier SDS"
+    assert float(result.tanks[0].headspace.total_volume_fraction) > 0
+
+
+def test_limit_without_source_or_unit_is_refused():
+    """A limit needs a source label and a ppm or mg/m3 unit."""
+    base = MINIMAL + '[[limit]]\nsubstance = "toluene"\nTWA = "20 ppm"\n'
+    with pytest.raises(ScenarioError, match="missing required key 'source'"):
+        loads_scenario(base)
+    with pytest.raises(ScenarioError, match="ppm or mg/m3"):
+        loads_scenario(base.replace('"20 ppm"', '"20 kg"') + 'source = "x"\n')
+
+
+def test_oversized_and_non_utf8_files(tmp_path):
+    """Huge or non-UTF-8 scenario files are refused with a clear reason."""
+    big = tmp_path / "big.toml"
+    big.write_bytes(b"#" * 1_100_000)
+    with pytest.raises(ScenarioError, match="short text file"):
+        load_scenario(big)
+    latin = tmp_path / "latin.toml"
+    latin.write_bytes(MINIMAL.replace('"t"', '"caf\xe9"').encode("latin-1"))
+    with pytest.raises(ScenarioError, match="UTF-8"):
+        load_scenario(latin)
+
+
+def test_item_failure_keeps_the_rest():
+    """A tank that cannot be computed is reported; the others still run."""
+    text = MINIMAL + '''
+[[tank]]
+name = "B"
+liquid = "solvent"
+temperature = "700 degC"
+'''
+    result = run_scenario(loads_scenario(text))
+    assert [t.name for t in result.tanks] == ["A"]
+    assert result.errors[0][0] == "tank B" and "critical" in result.errors[0][1]
