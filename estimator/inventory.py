@@ -1,0 +1,1751 @@
+"""Whole-inventory screening: the equilibrium headspace of every tank and drum of a site.
+
+One row per container, all rows in one call. Rows are grouped by liquid (the same
+substance, or the same mixture composition) and each group's vapour pressures are
+evaluated for all its temperatures in one numpy call, so thousands of rows take a
+fraction of a second. A row with bad data is reported, with the line of the file it
+came from and the column at fault, and skipped; every other row is still computed.
+
+Input table
+-----------
+Column names are matched without regard to case; surrounding spaces are ignored,
+and inner spaces, hyphens and brackets count as underscores ("Temperature (C)" is
+``temperature_c``). Columns ullage does not know are kept and passed through; one
+that looks like a misspelling of a known column gets a warning with a suggestion.
+
+===========================  =========================================================
+column                       content
+===========================  =========================================================
+``container``  (required)    Identifier of the tank or drum (text, passed through).
+``liquid``     (required)    A substance name, synonym or CAS number ("toluene",
+                             "MEK", "108-88-3"), or a mixture written as names with
+                             percentages: "toluene 60%, o-xylene 40%" (components
+                             separated by commas, semicolons or "+"; "60% toluene,
+                             40% o-xylene" also works).
+``basis``                    Basis of a mixture's percentages: mole, mass or volume.
+                             Blank means mass, as safety data sheets give mass %.
+``temperature_<unit>``       Liquid temperature; the unit is in the header, one of
+                             ``_C``, ``_F``, ``_K`` (also ``_degC``, ``(°C)``...).
+                             Cells hold plain numbers; a cell may repeat the header's
+                             unit ("38 degC" under ``temperature_C``) but never
+                             another one.
+``temperature_low_<unit>``   Optional range instead of, or beside, the temperature.
+``temperature_high_<unit>``  The worst case uses the high end.
+``fill_percent``             Liquid level, 0-100 % (checked, passed through; the
+                             equilibrium concentration does not depend on it).
+``pressure_<unit>``          Absolute pressure of the vapour space for that row;
+                             ``_Pa``, ``_kPa``, ``_bar`` or ``_psia``.
+``elevation_<unit>``         Site elevation for that row (``_m`` or ``_ft``): the
+                             barometric pressure of the standard atmosphere.
+``twa_ppm``, ``stel_ppm``,   Exposure limits for that row, in ppm by volume. A limit
+``ceiling_ppm``              is only used with a ``limit_source`` saying where it
+``limit_source``             comes from; without one it is rejected for that row.
+===========================  =========================================================
+
+Per row, the liquid temperature is the ``temperature`` cell, or the low end of the
+range when only a range is given (the high end if only that is given). The worst
+case is the high end of the range, or the liquid temperature when there is none.
+A row's exposure limits apply to the total vapour of its liquid (for a mixture,
+enter the limit meant for the mixture, for instance its lowest component limit).
+A cell holding a formula (text beginning with "=") is never evaluated: in a column
+the screening reads it makes the row an error; elsewhere it is a caution. Files are
+CSV in UTF-8 (`read_inventory`) or .xlsx workbooks, at most `MAX_FILE_BYTES`.
+
+Output columns
+--------------
+All input columns come first, unchanged, then (names in `OUTPUT_COLUMNS`):
+
+- ``source_line``: the row's line in the file, the header being line 1 (for a
+  table passed in directly, its position + 2, as if it had been saved to a file).
+- ``status``: "ok", "warning" (computed, with cautions in ``reason``) or "error"
+  (not computed; ``reason`` says why).
+- ``reason``: every problem, as "line N, column 'name': what is wrong".
+- ``liquid_temperature_k``, ``worst_case_temperature_k``, ``vapor_space_pressure_pa``.
+- ``headspace_ppm``: total vapour at the liquid temperature [ppm by volume].
+- ``worst_case_ppm``, ``worst_case_mg_per_m3`` (at the worst-case temperature and the
+  vapour-space pressure), ``worst_case_percent_lfl`` (Le Chatelier for mixtures),
+  ``worst_case_flammability`` (none, lean, flammable, rich) and
+  ``worst_case_oxygen_percent`` (20.9 % air displaced by the vapour).
+- ``twa_ratio``, ``stel_ratio``, ``ceiling_ratio``: worst-case ppm over each limit.
+- ``vapor_hazard_ratio``: ppm at the liquid temperature over the lowest accepted
+  limit of the row (Popendorf 1984).
+- ``concern``: the largest of (a) worst-case ppm over the lowest accepted limit,
+  (b) worst-case %LFL over the LFL alarm level, (c) the oxygen the vapour displaces
+  (20.9 % minus the worst-case oxygen) over that at the low-oxygen alarm. Each term
+  is 1 at its limit or alarm, so a concern of 1 or more means that at least one
+  limit or alarm is reached in the worst case. ``concern_driver`` names the largest
+  term; ``concern_rank`` is 1 for the highest concern. Error rows have none.
+- ``vapor_pressure_method`` (per component for mixtures) and
+  ``vapor_pressure_uncertainty`` (the largest stated relative uncertainty, 95 %
+  coverage, of the methods used).
+
+The equilibrium headspace is the worst case for a closed space after long
+standing; it is a screening estimate, and the real atmosphere must be measured.
+
+References
+----------
+Raoult's law and Le Chatelier's rule as in `estimator.headspace`. Vapour hazard
+ratio: Popendorf, W. (1984), Am. Ind. Hyg. Assoc. J. 45(10), 719-726. Default
+alarm levels: US OSHA 29 CFR 1910.146(b), hazardous atmosphere.
+"""
+
+from __future__ import annotations
+
+import codecs
+import contextlib
+import csv
+import difflib
+import io
+import math
+import os
+import re
+import tempfile
+import warnings
+from collections import defaultdict
+from collections.abc import Mapping
+from dataclasses import dataclass
+from pathlib import Path
+from types import MappingProxyType
+
+import numpy as np
+import pandas as pd
+
+from . import CAUTIONS
+from .constants import (
+    BAR,
+    FOOT,
+    GAS_CONSTANT,
+    OXYGEN_IN_AIR,
+    POUND_MASS,
+    STANDARD_ATMOSPHERE,
+    STANDARD_GRAVITY,
+    ZERO_CELSIUS,
+)
+from .errors import InputError, UllageWarning
+from .headspace import _check_pressure, barometric_pressure, le_chatelier
+from .limits import FlammabilityAlarms
+from .mixtures import Liquid, liquid as make_liquid
+from .vapor import METHODS, method_uncertainty
+
+__all__ = [
+    "screen_inventory",
+    "read_inventory",
+    "write_inventory_csv",
+    "sorted_by_concern",
+    "headspace_arrays",
+    "parse_liquid",
+    "HeadspaceArrays",
+    "InventoryScreening",
+    "InventorySummary",
+    "OUTPUT_COLUMNS",
+    "MAX_FILE_BYTES",
+    "MAX_ROWS",
+    "PROBLEMS",
+    "FLAMMABILITY_CODES",
+]
+
+#: Largest inventory file read. [bytes] 20 MB holds some 300 000 typical rows.
+MAX_FILE_BYTES = 20_000_000
+
+#: Largest number of data rows read from a workbook (a guard against huge sheets).
+MAX_ROWS = 1_000_000
+
+#: Columns the screening adds after the input columns, in order.
+OUTPUT_COLUMNS = (
+    "source_line", "status", "reason",
+    "liquid_temperature_k", "worst_case_temperature_k", "vapor_space_pressure_pa",
+    "headspace_ppm", "worst_case_ppm", "worst_case_mg_per_m3", "worst_case_percent_lfl",
+    "worst_case_flammability", "worst_case_oxygen_percent",
+    "twa_ratio", "stel_ratio", "ceiling_ratio", "vapor_hazard_ratio",
+    "concern", "concern_driver", "concern_rank",
+    "vapor_pressure_method", "vapor_pressure_uncertainty",
+)
+
+#: Flammability states by integer code, as `HeadspaceArrays.flammability` holds them
+#: (the keys of `estimator.headspace.FLAMMABILITY_STATES`); -1 is an invalid row.
+FLAMMABILITY_CODES = ("none", "lean", "flammable", "rich")
+
+#: Why `headspace_arrays` could not compute a row, by integer code.
+PROBLEMS = {
+    0: "",
+    1: "the temperature is not a finite number",
+    2: "the temperature is at or below absolute zero",
+    3: "the temperature is above the critical temperature of a component",
+    4: "the temperature is below the melting point of a component",
+    5: "the liquid is not known or its composition cannot be used",
+    6: "the pressure is not an absolute pressure between 1 kPa and 10 MPa",
+}
+
+#: Absolute vapour-space pressures accepted per row, as `estimator.headspace.headspace`
+#: accepts them. [Pa]
+_PRESSURE_RANGE = (1e3, 1e7)
+#: Site elevations accepted, those of the standard troposphere. [m]
+_ELEVATION_RANGE = (-500.0, 11000.0)
+
+_TEMPERATURE_SCALES = {"c": "degC", "f": "degF", "k": "K"}
+_TEMPERATURE_WORDS = {
+    "c": "c", "degc": "c", "celsius": "c", "degreesc": "c", "degreescelsius": "c",
+    "f": "f", "degf": "f", "fahrenheit": "f", "degreesf": "f", "degreesfahrenheit": "f",
+    "k": "k", "kelvin": "k", "kelvins": "k",
+}
+#: Pound-force per square inch. [Pa] Derived from the exact pound, foot and standard
+#: gravity (NIST SP 811, Appendix B): 0.45359237 kg x 9.80665 m/s2 / (FOOT / 12)^2.
+_PSI = POUND_MASS * STANDARD_GRAVITY / (FOOT / 12.0) ** 2
+_PRESSURE_FACTORS = {"pa": 1.0, "kpa": 1e3, "bar": BAR, "psia": _PSI}
+_PRESSURE_LABELS = {"pa": "Pa", "kpa": "kPa", "bar": "bar", "psia": "psia"}
+_ELEVATION_FACTORS = {"m": 1.0, "ft": FOOT}
+_LIMIT_KINDS = ("twa", "stel", "ceiling")
+_LIMIT_LABELS = {"twa": "TWA", "stel": "STEL", "ceiling": "ceiling"}
+_BASIS_WORDS = {
+    "mole": "mole", "mol": "mole", "molar": "mole", "mol%": "mole", "mole%": "mole",
+    "mass": "mass", "weight": "mass", "wt": "mass", "wt%": "mass", "mass%": "mass",
+    "w/w": "mass", "volume": "volume", "vol": "volume", "vol%": "volume", "v/v": "volume",
+}
+_TEMPERATURE_BASES = ("temperature", "temperature_low", "temperature_high")
+
+
+def _known_columns() -> tuple[str, ...]:
+    names = ["container", "liquid", "basis", "fill_percent", "limit_source"]
+    names += [f"{base}_{s}" for base in _TEMPERATURE_BASES for s in _TEMPERATURE_SCALES]
+    names += [f"pressure_{u}" for u in _PRESSURE_FACTORS]
+    names += [f"elevation_{u}" for u in _ELEVATION_FACTORS]
+    names += [f"{k}_ppm" for k in _LIMIT_KINDS]
+    return tuple(names)
+
+
+KNOWN_COLUMNS = _known_columns()
+
+
+# --------------------------------------------------------------------------- liquids
+
+_NUMBER_TEXT = r"(?:\d+(?:[.,]\d+)?|[.,]\d+)"
+_NAME_FIRST = re.compile(
+    rf"\s*(?P<name>[^;+%]+?)\s+(?P<amount>{_NUMBER_TEXT})\s*%\s*(?:[,;+]|$)")
+_AMOUNT_FIRST = re.compile(
+    rf"\s*(?P<amount>{_NUMBER_TEXT})\s*%\s*(?P<name>[^;+%]+?)\s*"
+    rf"(?:[,;+](?=\s*{_NUMBER_TEXT}\s*%)|$)")
+
+
+def _mixture_parts(text: str) -> list[tuple[str, float]] | None:
+    """(name, fraction) pairs of a mixture text, or None if it cannot be read."""
+    stripped = text.strip()
+    for pattern in (_NAME_FIRST, _AMOUNT_FIRST):
+        parts: list[tuple[str, float]] = []
+        position = 0
+        while position < len(stripped):
+            match = pattern.match(stripped, position)
+            if match is None or match.end() == position:
+                parts = []
+                break
+            parts.append((match["name"].strip(),
+                          float(match["amount"].replace(",", ".")) / 100.0))
+            position = match.end()
+            while position < len(stripped) and stripped[position].isspace():
+                position += 1
+        if parts:
+            return parts
+    return None
+
+
+def parse_liquid(text: str, basis: str = "mass", field: str = "liquid") -> Liquid:
+    """A `Liquid` from inventory text: one substance, or names with percentages.
+
+    Parameters
+    ----------
+    text : str
+        A substance name, synonym or CAS number ("toluene", "108-88-3"), or a
+        mixture such as "toluene 60%, o-xylene 40%" (or "60% toluene; 40% o-xylene").
+    basis : str
+        Basis of a mixture's percentages: "mole", "mass" or "volume". Mass by
+        default, as safety data sheets give compositions by mass.
+    field : str
+        Name of the input, for messages.
+
+    Returns
+    -------
+    Liquid
+
+    Raises
+    ------
+    InputError
+        Unknown substance, unreadable mixture text, or a composition that does not
+        add up to 100 % (within 5 points; closer totals are scaled with a warning).
+
+    Examples
+    --------
+    >>> mix = parse_liquid("toluene 60%, o-xylene 40%")
+    >>> mix.names, [round(float(x), 3) for x in mix.mole_fractions]
+    (('Toluene', 'o-Xylene'), [0.633, 0.367])
+    """
+    if not isinstance(text, str) or not text.strip():
+        raise InputError(field, "no liquid given: enter a substance name, synonym or CAS "
+                         "number, or a mixture such as 'toluene 60%, o-xylene 40%'")
+    if "%" not in text:
+        return make_liquid(text.strip(), field=field)
+    parts = _mixture_parts(text)
+    if parts is None:
+        raise InputError(field, f"{text.strip()!r} cannot be read as a mixture: write each "
+                         "component as a name followed by its percentage, separated by "
+                         "commas, for example 'toluene 60%, o-xylene 40%'")
+    names = [name.lower() for name, _ in parts]
+    if len(set(names)) != len(names):
+        raise InputError(field, "a component is listed twice; give each component once")
+    return make_liquid(dict(parts), basis, field=field)
+
+
+def _liquid_key(liq: Liquid) -> tuple:
+    return (tuple(c.key for c in liq.components),
+            tuple(np.round(liq.mole_fractions, 12)),
+            tuple(np.round(liq.activity_coefficients, 12)))
+
+
+@dataclass(frozen=True)
+class _Bounds:
+    melting: float
+    melting_name: str
+    critical: float
+    critical_name: str
+
+
+def _bounds(liq: Liquid) -> _Bounds:
+    melting, melting_name = -math.inf, ""
+    critical, critical_name = math.inf, ""
+    for c in liq.components:
+        if c.melting_point is not None and c.melting_point > melting:
+            melting, melting_name = c.melting_point, c.name
+        if c.critical_temperature is not None and c.critical_temperature < critical:
+            critical, critical_name = c.critical_temperature, c.name
+    return _Bounds(melting, melting_name, critical, critical_name)
+
+
+def _temperature_problems(bounds: _Bounds, temperatures: np.ndarray) -> np.ndarray:
+    """Integer codes of `PROBLEMS` for each temperature (0 where usable)."""
+    t = temperatures
+    codes = np.zeros(t.shape, dtype=np.int8)
+    with np.errstate(invalid="ignore"):
+        codes[t < bounds.melting] = 4
+        codes[t > bounds.critical] = 3
+        codes[t <= 0.0] = 2
+    codes[~np.isfinite(t)] = 1
+    return codes
+
+
+# ------------------------------------------------------------------ the array core
+
+def _group_order(codes: np.ndarray, count: int) -> tuple[np.ndarray, np.ndarray]:
+    """A stable order of the rows by code and the edges of each code's block.
+
+    Codes are -1 (no group, first) to count-1; the rows of code k are
+    ``order[edges[k]:edges[k + 1]]``, ascending. Small integer codes sort by radix.
+    """
+    small = codes.astype(np.int16 if count < 2**15 - 1 else np.int64)
+    order = np.argsort(small, kind="stable")
+    edges = np.searchsorted(small[order], np.arange(count + 1))
+    return order, edges
+
+
+def _rows_by_code(codes: np.ndarray, count: int) -> list[np.ndarray]:
+    """Row positions of each code 0..count-1 (ascending within each), negatives dropped."""
+    order, edges = _group_order(codes, count)
+    return [order[edges[k]:edges[k + 1]] for k in range(count)]
+
+
+def _saturation_pressure(sub, t: np.ndarray):
+    """Vapour pressure of one substance at many temperatures, best method per value.
+
+    The first correlation is used directly when it covers every temperature (one
+    numpy call); otherwise each temperature gets the first correlation whose range
+    covers it, as `estimator.vapor.vapor_pressure_estimate` chooses for a single
+    temperature, and temperatures no correlation covers get the first one, flagged
+    as extrapolated.
+    """
+    correlations = sub.correlations
+    first = correlations[0]
+    lo = -math.inf if first.tmin is None else first.tmin
+    hi = math.inf if first.tmax is None else first.tmax
+    if t.size and lo <= t.min() and t.max() <= hi:
+        return (np.asarray(first(t), dtype=float), np.zeros(t.shape, dtype=np.int8),
+                np.zeros(t.shape, dtype=bool))
+    pressure = np.empty(t.shape)
+    which = np.zeros(t.shape, dtype=np.int8)
+    remaining = np.ones(t.shape, dtype=bool)
+    for index, correlation in enumerate(correlations):
+        lo = -math.inf if correlation.tmin is None else correlation.tmin
+        hi = math.inf if correlation.tmax is None else correlation.tmax
+        chosen = remaining & (t >= lo) & (t <= hi)
+        if chosen.any():
+            pressure[chosen] = correlation(t[chosen])
+            which[chosen] = index
+            remaining &= ~chosen
+        if not remaining.any():
+            break
+    if remaining.any():
+        pressure[remaining] = first(t[remaining])
+    return pressure, which, remaining
+
+
+@dataclass(frozen=True)
+class _LiquidArrays:
+    total_volume_fraction: np.ndarray
+    mg_per_m3: np.ndarray
+    percent_lfl: np.ndarray
+    oxygen_percent: np.ndarray
+    flammability: np.ndarray
+    boiling: np.ndarray
+    method_index: np.ndarray      # (n_components, m)
+    extrapolated: np.ndarray      # (n_components, m)
+    above_own_boiling: np.ndarray  # (n_components, m)
+
+
+def _evaluate_liquid(liq: Liquid, t: np.ndarray, pressure: np.ndarray) -> _LiquidArrays:
+    """Equilibrium headspace of one liquid at valid temperatures, as arrays.
+
+    The same equations as `estimator.headspace.headspace`: Raoult's law, vapour
+    fractions over max(total vapour pressure, space pressure), Le Chatelier's rule
+    and oxygen by displacement.
+    """
+    n = len(liq.components)
+    if n == 1:
+        return _evaluate_pure(liq, t, pressure)
+    p_sat = np.empty((n, t.size))
+    method_index = np.empty((n, t.size), dtype=np.int8)
+    extrapolated = np.empty((n, t.size), dtype=bool)
+    for i, component in enumerate(liq.components):
+        p_sat[i], method_index[i], extrapolated[i] = _saturation_pressure(component, t)
+    weights = (liq.mole_fractions * liq.activity_coefficients)[:, None]
+    p_i = weights * p_sat
+    p_sum = p_i.sum(axis=0)
+    boiling = p_sum >= pressure
+    y = p_i / np.maximum(p_sum, pressure)
+    y_total = y.sum(axis=0)
+    molar = liq.molar_masses[:, None]
+    mg = (y * molar).sum(axis=0) * (pressure / (GAS_CONSTANT * t)) * 1e6
+    lfl = np.array([c.lower_flammability_limit or np.nan for c in liq.components])
+    ufl = np.array([c.upper_flammability_limit or np.nan for c in liq.components])
+    has_lfl = np.isfinite(lfl)
+    state = np.zeros(t.size, dtype=np.int8)
+    if has_lfl.any():
+        lfl_mix = le_chatelier(y, lfl)
+        ufl_mix = le_chatelier(y, ufl)
+        fuel = y[has_lfl].sum(axis=0)
+        with np.errstate(invalid="ignore", divide="ignore"):
+            percent = np.where(np.isfinite(lfl_mix), 100.0 * fuel / lfl_mix, 0.0)
+            rich = np.isfinite(ufl_mix) & (fuel > ufl_mix)
+        state[:] = np.where(~np.isfinite(lfl_mix), 0,
+                            np.where(fuel < lfl_mix, 1, np.where(rich, 3, 2)))
+    else:
+        percent = np.zeros(t.size)
+    return _LiquidArrays(
+        total_volume_fraction=y_total,
+        mg_per_m3=mg,
+        percent_lfl=percent,
+        oxygen_percent=100.0 * OXYGEN_IN_AIR * (1.0 - y_total),
+        flammability=state,
+        boiling=boiling,
+        method_index=method_index,
+        extrapolated=extrapolated,
+        above_own_boiling=p_sat >= pressure,
+    )
+
+
+def _evaluate_pure(liq: Liquid, t: np.ndarray, pressure) -> _LiquidArrays:
+    """`_evaluate_liquid` for one component, with scalar limits (the common case)."""
+    component = liq.components[0]
+    p_sat, which, extrapolated = _saturation_pressure(component, t)
+    weight = float(liq.mole_fractions[0] * liq.activity_coefficients[0])
+    p_i = p_sat if weight == 1.0 else weight * p_sat
+    boiling = p_i >= pressure
+    y = p_i / np.maximum(p_i, pressure)
+    mg = y * (component.molar_mass * 1e6 / GAS_CONSTANT) * (pressure / t)
+    lfl = component.lower_flammability_limit
+    ufl = component.upper_flammability_limit
+    if lfl:
+        percent = y * (100.0 / lfl)
+        state = np.where(y < lfl, 1, 2).astype(np.int8)
+        if ufl:
+            state[y > ufl] = 3
+    else:
+        percent = np.zeros(t.size)
+        state = np.zeros(t.size, dtype=np.int8)
+    return _LiquidArrays(
+        total_volume_fraction=y,
+        mg_per_m3=mg,
+        percent_lfl=percent,
+        oxygen_percent=(100.0 * OXYGEN_IN_AIR) * (1.0 - y),
+        flammability=state,
+        boiling=boiling,
+        method_index=which[None, :],
+        extrapolated=extrapolated[None, :],
+        above_own_boiling=(p_sat >= pressure)[None, :],
+    )
+
+
+@dataclass(frozen=True)
+class HeadspaceArrays:
+    """Equilibrium headspace of many rows at once, NaN where a row is not valid.
+
+    Attributes
+    ----------
+    valid : numpy.ndarray of bool
+        Rows that were computed.
+    problem : numpy.ndarray of int
+        Why a row was not computed: a key of `PROBLEMS` (0 for valid rows).
+    total_volume_fraction : numpy.ndarray
+        All vapour. [volume fraction]
+    mg_per_m3 : numpy.ndarray
+        All vapour, at the row's temperature and pressure. [mg/m3]
+    percent_lfl : numpy.ndarray
+        Fuel over the (Le Chatelier) LFL; 0 without fuel. [% of LFL]
+    oxygen_percent : numpy.ndarray
+        Oxygen left after the vapour displaces air. [% by volume]
+    flammability : numpy.ndarray of int
+        Index into `FLAMMABILITY_CODES`, -1 for rows not computed.
+    boiling : numpy.ndarray of bool
+        Where the total vapour pressure reaches the pressure of the space.
+    extrapolated : numpy.ndarray of bool
+        Where a component's vapour pressure lies outside every correlation's range.
+    """
+
+    valid: np.ndarray
+    problem: np.ndarray
+    total_volume_fraction: np.ndarray
+    mg_per_m3: np.ndarray
+    percent_lfl: np.ndarray
+    oxygen_percent: np.ndarray
+    flammability: np.ndarray
+    boiling: np.ndarray
+    extrapolated: np.ndarray
+
+    @property
+    def ppm(self) -> np.ndarray:
+        """All vapour. [ppm by volume]"""
+        return self.total_volume_fraction * 1e6
+
+    @property
+    def flammability_states(self) -> np.ndarray:
+        """The flammability state of each row as text ("" for rows not computed)."""
+        words = np.array(FLAMMABILITY_CODES + ("",), dtype=object)
+        return words[self.flammability]
+
+
+def headspace_arrays(liquids, temperatures, pressure=STANDARD_ATMOSPHERE, *,
+                     basis: str = "mass") -> HeadspaceArrays:
+    """Equilibrium headspace for many (liquid, temperature) rows in grouped numpy calls.
+
+    The array core of `screen_inventory`: rows are grouped by liquid and each
+    group's vapour pressures are evaluated in one call per correlation. Rows that
+    cannot be computed (unknown liquid; temperature NaN, at or below 0 K, above a
+    component's critical temperature or below its melting point; pressure out of
+    range) are marked in `problem`, never raised.
+
+    Parameters
+    ----------
+    liquids : str or array_like of str
+        One liquid for every row, or one per row: substance names, synonyms or CAS
+        numbers, or mixtures as `parse_liquid` reads them.
+    temperatures : array_like
+        Liquid (and vapour-space) temperature of each row, 1-D. [K]
+    pressure : float or array_like
+        Absolute pressure of the vapour space, one value or one per row. [Pa]
+    basis : str
+        Basis of mixture percentages, "mass" by default.
+
+    Returns
+    -------
+    HeadspaceArrays
+
+    Examples
+    --------
+    >>> hs = headspace_arrays(["toluene", "acetone", "no-such-liquid"],
+    ...                       [298.15, 298.15, 298.15])
+    >>> [round(float(v), -3) for v in hs.ppm[:2]], hs.problem.tolist()
+    ([37000.0, 304000.0], [0, 0, 5])
+    """
+    t = np.asarray(temperatures, dtype=float)
+    if t.ndim != 1:
+        raise InputError("temperatures", "give a 1-D array, one temperature per row")
+    m = t.size
+    p = np.broadcast_to(np.asarray(pressure, dtype=float), t.shape)
+    if isinstance(liquids, str):
+        codes, uniques = np.zeros(m, dtype=np.intp), [liquids]
+    else:
+        keys = np.asarray(liquids, dtype=object)
+        if keys.shape != t.shape:
+            raise InputError("liquids", f"got {keys.size} liquids for {m} temperatures; "
+                             "give one liquid, or one per temperature")
+        codes, uniques = pd.factorize(keys)
+    order, edges = _group_order(codes, len(uniques))
+    t_sorted = t[order]
+    scalar_pressure = np.ndim(pressure) == 0
+    p_sorted = float(pressure) if scalar_pressure else p[order]
+    problem = np.zeros(m, dtype=np.int8)
+    with np.errstate(invalid="ignore"):
+        inside = ((np.asarray(p_sorted) >= _PRESSURE_RANGE[0])
+                  & (np.asarray(p_sorted) <= _PRESSURE_RANGE[1]))
+    problem[np.broadcast_to(~inside, t.shape)] = 6
+    problem[:edges[0]] = 5  # rows without a liquid (None) sort first
+    out = {name: np.full(m, np.nan) for name in
+           ("total_volume_fraction", "mg_per_m3", "percent_lfl", "oxygen_percent")}
+    flammability = np.full(m, -1, dtype=np.int8)
+    boiling = np.zeros(m, dtype=bool)
+    extrapolated = np.zeros(m, dtype=bool)
+    for k, text in enumerate(uniques):
+        rows = slice(edges[k], edges[k + 1])
+        try:
+            liq = parse_liquid(text, basis)
+        except InputError:
+            problem[rows] = 5
+            continue
+        block = problem[rows]
+        codes_t = _temperature_problems(_bounds(liq), t_sorted[rows])
+        np.copyto(block, codes_t, where=block == 0)
+        if not block.any():
+            good = rows
+        else:
+            good = edges[k] + np.flatnonzero(block == 0)
+            if good.size == 0:
+                continue
+        res = _evaluate_liquid(liq, t_sorted[good],
+                               p_sorted if scalar_pressure else p_sorted[good])
+        out["total_volume_fraction"][good] = res.total_volume_fraction
+        out["mg_per_m3"][good] = res.mg_per_m3
+        out["percent_lfl"][good] = res.percent_lfl
+        out["oxygen_percent"][good] = res.oxygen_percent
+        flammability[good] = res.flammability
+        boiling[good] = res.boiling
+        extrapolated[good] = res.extrapolated.any(axis=0)
+    unsorted = {}
+    for name, values in (("problem", problem), ("flammability", flammability),
+                         ("boiling", boiling), ("extrapolated", extrapolated), *out.items()):
+        back = np.empty_like(values)
+        back[order] = values
+        unsorted[name] = back
+    return HeadspaceArrays(valid=unsorted["problem"] == 0, **unsorted)
+
+
+# ------------------------------------------------------------------- reading files
+
+def _size_text(size: int) -> str:
+    return f"{size / 1e6:.1f} MB" if size >= 100_000 else f"{size} bytes"
+
+
+def _too_large(name: str, size: int) -> InputError:
+    return InputError("file", f"{name} is {_size_text(size)}, above the "
+                      f"{_size_text(MAX_FILE_BYTES)} limit for one inventory file; "
+                      "split the inventory into several files")
+
+
+def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
+    """Read an inventory table from a CSV file or an Excel workbook.
+
+    Cells are read as they are stored: an Excel formula is kept as its text
+    ("=B2*2"), never evaluated, so that the screening reports it. Row i of the
+    table is line i + 2 of the file (the header is line 1), as a spreadsheet
+    numbers its rows (a quoted CSV cell running over several physical lines counts
+    as one); empty rows at the end are dropped, empty rows in between are kept (and
+    reported by the screening).
+
+    Parameters
+    ----------
+    path : str or os.PathLike
+        A ``.csv`` file (UTF-8, with or without a byte-order mark; comma-, semicolon-
+        or tab-separated) or an ``.xlsx``/``.xlsm`` workbook (needs openpyxl).
+    sheet : str, optional
+        Worksheet name; the first sheet by default.
+
+    Returns
+    -------
+    pandas.DataFrame
+        CSV cells as text; workbook cells as stored (numbers, text, formula text).
+
+    Raises
+    ------
+    InputError
+        Missing, empty or oversized file (`MAX_FILE_BYTES`), a CSV that is not
+        UTF-8, an unreadable workbook, a header without data rows.
+    """
+    path = Path(path)
+    name = path.name
+    if not path.is_file():
+        raise InputError("file", f"{name}: no such file")
+    size = path.stat().st_size
+    if size > MAX_FILE_BYTES:
+        raise _too_large(name, size)
+    if size == 0:
+        raise InputError("file", f"{name} is empty: it needs a header line with the column "
+                         "names (at least container, liquid and a temperature) and one row "
+                         "per container")
+    suffix = path.suffix.lower()
+    if suffix in (".csv", ".txt", ".tsv"):
+        frame = _read_csv(path)
+    elif suffix in (".xlsx", ".xlsm"):
+        frame = _read_workbook(path, sheet)
+    elif suffix == ".xls":
+        raise InputError("file", f"{name} is an old-style .xls workbook; save it as .xlsx "
+                         "or as CSV UTF-8")
+    else:
+        raise InputError("file", f"{name}: {suffix or 'no extension'} is not a table ullage "
+                         "reads; give a .csv file or an .xlsx workbook")
+    if frame.shape[1] == 0:
+        raise InputError("file", f"{name} has no column names in its first line")
+    if len(frame) == 0:
+        raise InputError("file", f"{name} has a header line but no data rows")
+    return frame
+
+
+def _read_csv(path: Path) -> pd.DataFrame:
+    raw = path.read_bytes()
+    if raw.startswith(codecs.BOM_UTF8):
+        raw = raw[len(codecs.BOM_UTF8):]
+    try:
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError as exc:
+        line = raw[:exc.start].count(b"\n") + 1
+        raise InputError(
+            "file", f"{path.name} is not UTF-8 text: byte 0x{raw[exc.start]:02x} on line "
+            f"{line} is not valid UTF-8. The file is probably saved in a legacy encoding "
+            "such as Latin-1 or Windows-1252; save it again as 'CSV UTF-8' (in Excel: "
+            "Save As, CSV UTF-8) and screen it again") from None
+    if not text.strip():
+        raise InputError("file", f"{path.name} holds only blank lines: it needs a header "
+                         "line and one row per container")
+    first = text.splitlines()[0]
+    separator = max((",", ";", "\t"), key=first.count)
+    header = next(csv.reader([first], delimiter=separator))
+    _check_duplicate_headers(header)
+    try:
+        frame = pd.read_csv(io.StringIO(text), sep=separator, dtype=str,
+                            keep_default_na=False, skip_blank_lines=False)
+    except pd.errors.EmptyDataError:
+        raise InputError("file", f"{path.name} has no column names in its first line") from None
+    except pd.errors.ParserError as exc:
+        raise InputError("file", f"{path.name} cannot be read as CSV: {exc}; check that "
+                         "every row has as many fields as the header") from None
+    return _drop_trailing_blank_rows(frame)
+
+
+def _is_blank(value) -> bool:
+    if value is None:
+        return True
+    if isinstance(value, float):
+        return math.isnan(value)
+    if isinstance(value, str):
+        return not value.strip()
+    return False
+
+
+def _drop_trailing_blank_rows(frame: pd.DataFrame) -> pd.DataFrame:
+    if len(frame) == 0:
+        return frame
+    blank = frame.isna() | frame.apply(lambda col: col.astype(str).str.strip() == "")
+    filled = np.flatnonzero(~blank.all(axis=1).to_numpy())
+    last = filled[-1] + 1 if filled.size else 0
+    return frame.iloc[:last].reset_index(drop=True)
+
+
+def _read_workbook(path: Path, sheet: str | None) -> pd.DataFrame:
+    try:
+        import openpyxl
+        from openpyxl.utils import get_column_letter
+    except ImportError:
+        raise InputError("file", "reading Excel workbooks needs openpyxl (pip install "
+                         "'ullage[excel]'); or save the sheet as CSV UTF-8") from None
+    try:
+        book = openpyxl.load_workbook(path, read_only=True, data_only=False)
+    except Exception as exc:  # openpyxl raises zipfile, KeyError and its own errors
+        raise InputError("file", f"{path.name} cannot be opened as an Excel workbook "
+                         f"({type(exc).__name__}: {exc})") from None
+    try:
+        if sheet is None:
+            ws = book.worksheets[0]
+        elif sheet in book.sheetnames:
+            ws = book[sheet]
+        else:
+            raise InputError("sheet", f"{path.name} has no sheet {sheet!r}; it has "
+                             f"{', '.join(repr(s) for s in book.sheetnames)}")
+        rows = []
+        for index, row in enumerate(ws.iter_rows()):
+            if index > MAX_ROWS:
+                raise InputError("file", f"{path.name} has more than {MAX_ROWS} rows; "
+                                 "split the inventory into several files")
+            rows.append([_cell_value(cell) for cell in row])
+    finally:
+        book.close()
+    if not rows or all(_is_blank(v) for v in rows[0]):
+        raise InputError("file", f"row 1 of sheet {ws.title!r} in {path.name} is empty; "
+                         "put the column names in row 1")
+    width = max(len(r) for r in rows)
+    while width and all(len(r) < width or _is_blank(r[width - 1]) for r in rows):
+        width -= 1
+    header = []
+    for i in range(width):
+        value = rows[0][i] if i < len(rows[0]) else None
+        header.append(f"column {get_column_letter(i + 1)}" if _is_blank(value)
+                      else str(value).strip())
+    _check_duplicate_headers(header)
+    body = [list(r[:width]) + [None] * (width - len(r[:width])) for r in rows[1:]]
+    frame = pd.DataFrame(body, columns=header, dtype=object)
+    return _drop_trailing_blank_rows(frame)
+
+
+def _cell_value(cell):
+    value = cell.value
+    if getattr(cell, "data_type", None) == "f" and not isinstance(value, str):
+        text = getattr(value, "text", None)
+        value = text if isinstance(text, str) else "=(formula)"
+        if not value.startswith("="):
+            value = "=" + value
+    return value
+
+
+# -------------------------------------------------------------------- header roles
+
+def _normalise_header(header) -> str:
+    text = str(header).strip().lower()
+    text = text.replace("°", "deg").replace("º", "deg")
+    text = re.sub(r"[\s\-()\[\]{}]+", "_", text)
+    text = re.sub(r"_+", "_", text).strip("_")
+    match = re.fullmatch(r"(temperature(?:_low|_high)?)_?(?:deg_?)?([a-z]+)", text)
+    if match and match[2] in _TEMPERATURE_WORDS:
+        return f"{match[1]}_{_TEMPERATURE_WORDS[match[2]]}"
+    return text
+
+
+def _check_duplicate_headers(headers) -> None:
+    seen: dict[str, str] = {}
+    for h in headers:
+        key = _normalise_header(h)
+        if key in seen:
+            raise InputError("columns", f"the columns {seen[key]!r} and {str(h).strip()!r} "
+                             "are the same once case and spaces are ignored; keep one")
+        seen[key] = str(h).strip()
+
+
+@dataclass(frozen=True)
+class _Columns:
+    roles: Mapping[str, object]     # role -> original column label
+    units: Mapping[str, str]        # role -> unit suffix
+    unknown: tuple                  # original labels passed through
+    notes: tuple[str, ...]
+
+
+def _resolve_columns(frame: pd.DataFrame) -> _Columns:
+    labels = list(frame.columns)
+    _check_duplicate_headers(labels)
+    normalised = {label: _normalise_header(label) for label in labels}
+    clash = [str(label).strip() for label, key in normalised.items() if key in OUTPUT_COLUMNS]
+    if clash:
+        raise InputError("columns", f"{', '.join(repr(c) for c in clash)} is a column the "
+                         "screening writes; rename it in the input")
+    roles: dict[str, object] = {}
+    units: dict[str, str] = {}
+    unknown = []
+    unitless = []
+    for label, key in normalised.items():
+        if key in ("container", "liquid", "basis", "fill_percent", "limit_source"):
+            roles[key] = label
+            continue
+        base, _, unit = key.rpartition("_")
+        if base in _TEMPERATURE_BASES and unit in _TEMPERATURE_SCALES:
+            role = base
+        elif base == "pressure" and unit in _PRESSURE_FACTORS:
+            role = "pressure"
+        elif base == "elevation" and unit in _ELEVATION_FACTORS:
+            role = "elevation"
+        elif base in _LIMIT_KINDS and unit == "ppm":
+            role = base
+        else:
+            if key in _TEMPERATURE_BASES or key in ("pressure", "elevation"):
+                unitless.append(str(label).strip())
+            unknown.append(label)
+            continue
+        if role in roles:
+            raise InputError("columns", f"{str(roles[role]).strip()!r} and "
+                             f"{str(label).strip()!r} give the same quantity; keep one "
+                             "column, in one unit")
+        roles[role] = label
+        units[role] = unit
+    if unitless:
+        raise InputError("columns", f"the header {unitless[0]!r} does not say its unit; "
+                         "put the unit in the name: temperature_C, temperature_F or "
+                         "temperature_K; pressure_kPa (absolute), pressure_bar, pressure_psia "
+                         "or pressure_Pa; elevation_m or elevation_ft")
+    present = [str(label).strip() for label in labels]
+    missing = [r for r in ("container", "liquid") if r not in roles]
+    if missing:
+        shown_as = {normalised[label]: text for label, text in zip(labels, present)}
+        hints = []
+        for role in missing:
+            close = difflib.get_close_matches(role, list(shown_as), n=1, cutoff=0.6)
+            if close:
+                hints.append(f"is {shown_as[close[0]]!r} meant to be {role!r}?")
+        raise InputError("columns", f"missing required column(s) "
+                         f"{', '.join(repr(m) for m in missing)}; the file has "
+                         f"{', '.join(repr(p) for p in present)}"
+                         + (f" ({'; '.join(hints)})" if hints else ""))
+    if not any(base in roles for base in _TEMPERATURE_BASES):
+        close = difflib.get_close_matches("temperature_c", [normalised[l] for l in unknown],
+                                          n=1, cutoff=0.5)
+        hint = ""
+        if close:
+            shown = next(str(l).strip() for l in unknown if normalised[l] == close[0])
+            hint = f" (rename {shown!r} to temperature_C, temperature_F or temperature_K)"
+        raise InputError("columns", "no temperature column: add temperature_C, temperature_F "
+                         "or temperature_K (or a temperature_low_C / temperature_high_C "
+                         f"pair); the file has {', '.join(repr(p) for p in present)}{hint}")
+    notes = []
+    for label in unknown:
+        key = normalised[label]
+        close = difflib.get_close_matches(key, KNOWN_COLUMNS, n=1, cutoff=0.8)
+        if close:
+            notes.append(f"column {str(label).strip()!r} is not a column ullage reads and is "
+                         f"passed through unchanged; did you mean {close[0]!r}?")
+    if "limit_source" in roles and not any(k in roles for k in _LIMIT_KINDS):
+        notes.append("a limit_source column is given but no twa_ppm, stel_ppm or "
+                     "ceiling_ppm column; no limits are compared")
+    return _Columns(MappingProxyType(roles), MappingProxyType(units), tuple(unknown),
+                    tuple(notes))
+
+
+# --------------------------------------------------------------------- cell parsing
+
+_CELL_NUMBER = re.compile(
+    r"^\s*([-+]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
+
+
+def _is_text_column(column: pd.Series) -> bool:
+    """Whether a column can hold text (object or string dtype)."""
+    return (pd.api.types.is_object_dtype(column.dtype)
+            or pd.api.types.is_string_dtype(column.dtype))
+
+
+def _text_cells(column: pd.Series) -> tuple[np.ndarray, np.ndarray]:
+    """Stripped text of each cell (object array) and the blank mask."""
+    missing = column.isna().to_numpy()
+    text = column.where(~missing, "").astype(str).str.strip().to_numpy(dtype=object)
+    return text, text == ""
+
+
+def _is_formula(column: pd.Series) -> np.ndarray:
+    """Text cells beginning with "=": formulas (or text a spreadsheet would run).
+
+    Numbers never print with a leading "=", so every cell is looked at as text.
+    """
+    if not _is_text_column(column):
+        return np.zeros(len(column), dtype=bool)
+    text = column.where(column.notna(), "").astype(str)
+    return text.str.lstrip().str.startswith("=").to_numpy(dtype=bool)
+
+
+def _number_cells(column: pd.Series, unit_words: Mapping[str, str], unit: str,
+                  label: str) -> tuple[np.ndarray, np.ndarray, dict[int, str]]:
+    """Numbers of a column in its header unit.
+
+    Returns the values (NaN where blank or unusable), the blank mask and the
+    problem of each unusable cell by position. Only cells that are not plain
+    numbers are looked at one by one (once per distinct text).
+    """
+    if pd.api.types.is_bool_dtype(column):
+        values = np.full(len(column), np.nan)
+        return values, np.zeros(len(column), dtype=bool), {
+            i: f"{column.iat[i]!r} is not a number in {label}" for i in range(len(column))}
+    if pd.api.types.is_numeric_dtype(column):
+        values = column.to_numpy(dtype=float, na_value=np.nan).copy()
+        blank = np.isnan(values)
+        bad = np.isinf(values)
+        values[bad] = np.nan
+        return values, blank, {int(i): f"{column.iat[i]!r} is not a finite number"
+                               for i in np.flatnonzero(bad)}
+    raw = column.to_numpy(dtype=object)
+    values = pd.to_numeric(column, errors="coerce").to_numpy(dtype=float).copy()
+    blank = np.zeros(raw.size, dtype=bool)
+    problems: dict[int, str] = {}
+    booleans = np.flatnonzero(np.fromiter((isinstance(v, (bool, np.bool_)) for v in raw),
+                                          dtype=bool, count=raw.size))
+    values[booleans] = np.nan
+    cache: dict[str, tuple[float, str]] = {}
+    for i in np.flatnonzero(~np.isfinite(values)):
+        cell = raw[i]
+        if _is_blank(cell):
+            blank[i] = True
+            continue
+        key = repr(cell)
+        if key not in cache:
+            cache[key] = _parse_text_number(cell, unit_words, unit, label)
+        values[i], problem = cache[key]
+        if problem:
+            problems[int(i)] = problem
+    return values, blank, problems
+
+
+def _parse_text_number(cell, unit_words, unit: str, label: str) -> tuple[float, str]:
+    if isinstance(cell, bool) or not isinstance(cell, (str, int, float)):
+        return math.nan, f"{cell!r} is not a number in {label}"
+    text = str(cell).strip()
+    if text.startswith("="):
+        return math.nan, (f"holds a formula ({text[:40]!r}); formulas are not evaluated: "
+                          "enter the value itself")
+    match = _CELL_NUMBER.match(text)
+    if not match:
+        return math.nan, f"{text!r} is not a number in {label}"
+    number_text, unit_text = match.groups()
+    if "," in number_text:
+        if "." in number_text or number_text.count(",") > 1:
+            return math.nan, f"{text!r} is not a number in {label}"
+        number_text = number_text.replace(",", ".")
+    number = float(number_text)
+    if not math.isfinite(number):
+        return math.nan, f"{text!r} is not a finite number"
+    if unit_text:
+        word = re.sub(r"[\s°º.]", "", unit_text.lower())
+        if unit_words.get(word) != unit:
+            return math.nan, (f"{text!r} is not a number in {label}, the unit of the "
+                              "column header; give plain numbers in that unit")
+    return number, ""
+
+
+# --------------------------------------------------------------------- the screening
+
+@dataclass(frozen=True)
+class InventorySummary:
+    """Counts and the worst rows of a screening.
+
+    Attributes
+    ----------
+    rows : int
+        Rows screened (every input row).
+    counts : mapping
+        "ok", "warning" and "error" -> number of rows.
+    at_or_above_alarm : int
+        Computed rows with a concern of 1 or more (a limit or alarm reached).
+    liquids : int
+        Distinct liquids (substance or composition) evaluated.
+    worst : pandas.DataFrame
+        The rows of highest concern, highest first (see `sorted_by_concern`).
+    """
+
+    rows: int
+    counts: Mapping[str, int]
+    at_or_above_alarm: int
+    liquids: int
+    worst: pd.DataFrame
+
+
+@dataclass(frozen=True)
+class InventoryScreening:
+    """The result of `screen_inventory`.
+
+    Attributes
+    ----------
+    table : pandas.DataFrame
+        One row per input row, in input order: the input columns, then
+        `OUTPUT_COLUMNS`.
+    summary : InventorySummary
+    cautions : tuple of str
+        `estimator.CAUTIONS`, shown with every result.
+    warnings : tuple of str
+        Notes on the table as a whole (columns not read, duplicate containers).
+    pressure : float
+        Vapour-space pressure used for rows without their own. [Pa]
+    alarms : FlammabilityAlarms
+        The LFL and oxygen alarm levels the concern uses.
+    source : str
+        The file name, or "table" for a DataFrame.
+    """
+
+    table: pd.DataFrame
+    summary: InventorySummary
+    cautions: tuple[str, ...]
+    warnings: tuple[str, ...]
+    pressure: float
+    alarms: FlammabilityAlarms
+    source: str
+
+
+def sorted_by_concern(table) -> pd.DataFrame:
+    """The screened rows, highest concern first, without losing any row.
+
+    Rows of equal concern keep their input order; rows not computed (errors)
+    come last, in input order.
+
+    Parameters
+    ----------
+    table : pandas.DataFrame or InventoryScreening
+        A screening table (or result).
+
+    Returns
+    -------
+    pandas.DataFrame
+        The same rows and columns, reordered.
+    """
+    frame = table.table if isinstance(table, InventoryScreening) else table
+    if "concern" not in frame.columns or "source_line" not in frame.columns:
+        raise InputError("table", "this is not a screening table (no concern column); "
+                         "pass the result of screen_inventory")
+    return frame.sort_values(["concern", "source_line"], ascending=[False, True],
+                             na_position="last", kind="stable")
+
+
+class _Issues:
+    """Errors and cautions per row, as 'line N, column 'x': text'."""
+
+    def __init__(self, lines: np.ndarray):
+        self.lines = lines
+        self.errors: dict[int, list[str]] = defaultdict(list)
+        self.cautions: dict[int, list[str]] = defaultdict(list)
+
+    def _text(self, row: int, column, text: str) -> str:
+        where = f"line {self.lines[row]}"
+        if column is not None:
+            where += f", column {str(column).strip()!r}"
+        return f"{where}: {text}"
+
+    def error(self, row, column, text: str) -> None:
+        self.errors[int(row)].append(self._text(int(row), column, text))
+
+    def caution(self, row, column, text: str) -> None:
+        self.cautions[int(row)].append(self._text(int(row), column, text))
+
+    def error_mask(self, n: int) -> np.ndarray:
+        mask = np.zeros(n, dtype=bool)
+        if self.errors:
+            mask[list(self.errors)] = True
+        return mask
+
+
+def _format_temperature(kelvin: float, unit: str) -> str:
+    if unit == "c":
+        return f"{kelvin - ZERO_CELSIUS:.1f} degC"
+    if unit == "f":
+        return f"{(kelvin - ZERO_CELSIUS) * 9 / 5 + 32:.1f} degF"
+    return f"{kelvin:.1f} K"
+
+
+def _to_kelvin(values: np.ndarray, unit: str) -> np.ndarray:
+    if unit == "c":
+        return values + ZERO_CELSIUS
+    if unit == "f":
+        return (values - 32.0) * (5.0 / 9.0) + ZERO_CELSIUS
+    return values.copy()
+
+
+def screen_inventory(source, pressure=STANDARD_ATMOSPHERE, alarms=FlammabilityAlarms(), *,
+                     elevation=None, sheet: str | None = None,
+                     worst_count: int = 10) -> InventoryScreening:
+    """Screen the equilibrium headspace of every container of an inventory.
+
+    The columns read and written are described in the module documentation of
+    `estimator.inventory`. Bad rows are reported in ``status`` and ``reason`` and
+    skipped; all other rows are computed.
+
+    Parameters
+    ----------
+    source : pandas.DataFrame, str or os.PathLike
+        The inventory, or the path of a CSV file or an Excel workbook
+        (`read_inventory`).
+    pressure : float
+        Absolute vapour-space pressure for rows without their own pressure or
+        elevation; 1 atm by default. [Pa]
+    alarms : FlammabilityAlarms
+        %LFL and oxygen alarm levels for the concern; US OSHA 29 CFR 1910.146(b)
+        levels by default.
+    elevation : float, optional
+        Site elevation for the whole file, instead of `pressure`: the barometric
+        pressure of the standard atmosphere there. [m]
+    sheet : str, optional
+        Worksheet of a workbook; the first by default.
+    worst_count : int
+        Rows listed in ``summary.worst``.
+
+    Returns
+    -------
+    InventoryScreening
+
+    Raises
+    ------
+    InputError
+        For problems with the table as a whole: unreadable file, missing required
+        columns, no data rows, ambiguous headers, a bad `pressure` or `elevation`.
+    """
+    if isinstance(source, pd.DataFrame):
+        frame, name = source, "table"
+        if frame.shape[1] == 0:
+            raise InputError("table", "has no columns")
+        if len(frame) == 0:
+            raise InputError("table", "has no rows")
+    elif isinstance(source, (str, os.PathLike)):
+        frame, name = read_inventory(source, sheet), Path(source).name
+    else:
+        raise InputError("source", "give a pandas DataFrame or the path of a CSV or .xlsx "
+                         f"file, not {type(source).__name__}")
+    if not isinstance(alarms, FlammabilityAlarms):
+        raise InputError("alarms", "give a FlammabilityAlarms")
+    if elevation is not None:
+        if pressure != STANDARD_ATMOSPHERE:
+            raise InputError("elevation", "give either the pressure or the site elevation, "
+                             "not both")
+        file_pressure = float(barometric_pressure(float(elevation)))
+    else:
+        file_pressure = _check_pressure(pressure)
+    columns = _resolve_columns(frame)
+    table, n_liquids, row_notes = _screen(frame, columns, file_pressure, alarms)
+    notes = list(columns.notes) + row_notes
+    for note in notes:
+        warnings.warn(note, UllageWarning, stacklevel=2)
+    status = table["status"]
+    counts = {s: int((status == s).sum()) for s in ("ok", "warning", "error")}
+    worst_columns = ["source_line", columns.roles["container"], columns.roles["liquid"],
+                     "status", "worst_case_ppm", "worst_case_percent_lfl", "concern",
+                     "concern_driver"]
+    concern = table["concern"].to_numpy(dtype=float)
+    order = np.argsort(np.where(np.isnan(concern), np.inf, -concern), kind="stable")
+    shown = order[:int(worst_count)]
+    shown = shown[np.isfinite(concern[shown])]
+    worst = table.iloc[shown][worst_columns]
+    summary = InventorySummary(
+        rows=len(table), counts=MappingProxyType(counts),
+        at_or_above_alarm=int((table["concern"] >= 1.0).sum()), liquids=n_liquids,
+        worst=worst)
+    return InventoryScreening(table=table, summary=summary, cautions=tuple(CAUTIONS),
+                              warnings=tuple(notes), pressure=file_pressure, alarms=alarms,
+                              source=name)
+
+
+@dataclass(frozen=True)
+class _TemperatureColumn:
+    label: object
+    unit: str
+    values: np.ndarray   # as entered, in the header's unit
+    kelvin: np.ndarray
+    blank: np.ndarray
+
+
+def _read_formulas(frame: pd.DataFrame, roles: Mapping[str, object], issues: _Issues) -> None:
+    """Formulas in text columns: errors where ullage reads them, cautions elsewhere.
+
+    Formulas in numeric columns are reported by the number parser.
+    """
+    text_roles = {roles.get(r) for r in ("container", "liquid", "basis", "limit_source")}
+    read = set(roles.values())
+    for label in frame.columns:
+        if label in read and label not in text_roles:
+            continue
+        column = frame[label]
+        for i in np.flatnonzero(_is_formula(column)):
+            shown = str(column.iat[i])[:40]
+            if label in read:
+                issues.error(i, label, f"holds a formula ({shown!r}); formulas are not "
+                             "evaluated: enter the value itself")
+            else:
+                issues.caution(i, label, f"holds a formula ({shown!r}), passed through as "
+                               "text, not evaluated")
+
+
+def _read_containers(column: pd.Series, label, skip: np.ndarray, issues: _Issues,
+                     notes: list[str]) -> None:
+    text, blank = _text_cells(column)
+    for i in np.flatnonzero(blank & ~skip):
+        issues.caution(i, label, "no container identifier")
+    repeated = pd.Series(text, dtype=object).duplicated(keep=False).to_numpy() & ~blank
+    if repeated.any():
+        names = pd.unique(text[repeated])
+        notes.append(f"{len(names)} container identifier(s) appear on more than one row "
+                     f"(for example {names[0]!r}); each row is screened on its own")
+
+
+def _empty_rows(frame: pd.DataFrame, candidates: np.ndarray) -> np.ndarray:
+    """Rows whose every cell is blank, looked for among `candidates` only."""
+    empty = np.zeros(len(frame), dtype=bool)
+    for i in np.flatnonzero(candidates):
+        empty[i] = all(_is_blank(v) for v in frame.iloc[i].tolist())
+    return empty
+
+
+def _read_temperatures(frame, roles, units, issues: _Issues, skip: np.ndarray):
+    """Liquid and worst-case temperatures [K], and which column each came from."""
+    n = len(frame)
+    columns: dict[str, _TemperatureColumn] = {}
+    unreadable = np.zeros(n, dtype=bool)
+    for base in _TEMPERATURE_BASES:
+        if base not in roles:
+            continue
+        label, unit = roles[base], units[base]
+        values, blank, problems = _number_cells(frame[label], _TEMPERATURE_WORDS, unit,
+                                                _TEMPERATURE_SCALES[unit])
+        for i, text in problems.items():
+            issues.error(i, label, text)
+            unreadable[i] = True
+        columns[base] = _TemperatureColumn(label, unit, values, _to_kelvin(values, unit),
+                                           blank)
+    nominal = np.full(n, np.nan)
+    nominal_from = np.full(n, -1, dtype=np.int8)
+    for index, base in enumerate(_TEMPERATURE_BASES):
+        if base in columns:
+            take = (nominal_from < 0) & ~columns[base].blank
+            nominal[take] = columns[base].kelvin[take]
+            nominal_from[take] = index
+    worst, worst_from = nominal.copy(), nominal_from.copy()
+    if "temperature_high" in columns:
+        high = columns["temperature_high"]
+        worst[~high.blank] = high.kelvin[~high.blank]
+        worst_from[~high.blank] = 2
+    first_label = next(c.label for c in columns.values())
+    for i in np.flatnonzero((nominal_from < 0) & ~unreadable & ~skip):
+        issues.error(i, first_label, "no temperature given")
+    for a, b in (("temperature_low", "temperature"), ("temperature", "temperature_high"),
+                 ("temperature_low", "temperature_high")):
+        if a in columns and b in columns:
+            low, high = columns[a], columns[b]
+            with np.errstate(invalid="ignore"):
+                wrong = ~low.blank & ~high.blank & (low.kelvin > high.kelvin)
+            for i in np.flatnonzero(wrong):
+                issues.error(i, high.label, f"{high.values[i]:g} "
+                             f"{_TEMPERATURE_SCALES[high.unit]} is below the "
+                             f"{low.values[i]:g} {_TEMPERATURE_SCALES[low.unit]} in "
+                             f"{str(low.label).strip()!r}; a range runs from low to high")
+    return columns, nominal, nominal_from, worst, worst_from
+
+
+def _read_fill(frame, roles, issues: _Issues) -> None:
+    if "fill_percent" not in roles:
+        return
+    label = roles["fill_percent"]
+    values, _, problems = _number_cells(frame[label], {"%": "%", "percent": "%"}, "%", "%")
+    for i, text in problems.items():
+        issues.error(i, label, text)
+    with np.errstate(invalid="ignore"):
+        for i in np.flatnonzero(values < 0):
+            issues.error(i, label, f"{values[i]:g} %: a fill level cannot be negative")
+        for i in np.flatnonzero(values > 100):
+            issues.error(i, label, f"{values[i]:g} %: a fill level cannot exceed 100 %")
+        for i in np.flatnonzero(values == 100):
+            issues.caution(i, label, "the container is full: it has no vapour space now; "
+                           "the headspace shown forms as soon as liquid is drawn off")
+
+
+def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) -> np.ndarray:
+    """Absolute vapour-space pressure of each row. [Pa]"""
+    n = len(frame)
+    row_pressure = np.full(n, file_pressure)
+    given = np.zeros(n, dtype=bool)
+    if "pressure" in roles:
+        label, unit = roles["pressure"], units["pressure"]
+        words = {u: u for u in _PRESSURE_FACTORS} | {"psi": "psia"}
+        values, blank, problems = _number_cells(frame[label], words, unit,
+                                                _PRESSURE_LABELS[unit])
+        for i, text in problems.items():
+            issues.error(i, label, text)
+        pascal = values * _PRESSURE_FACTORS[unit]
+        with np.errstate(invalid="ignore"):
+            inside = (pascal >= _PRESSURE_RANGE[0]) & (pascal <= _PRESSURE_RANGE[1])
+        for i in np.flatnonzero(np.isfinite(pascal) & ~inside):
+            issues.error(i, label, f"{values[i]:g} {_PRESSURE_LABELS[unit]} is not an "
+                         "absolute pressure between 1 kPa and 10 MPa (101.325 kPa is 1 atm; "
+                         "add the barometric pressure to a gauge reading)")
+        row_pressure[inside] = pascal[inside]
+        given = ~blank
+    if "elevation" in roles:
+        label, unit = roles["elevation"], units["elevation"]
+        values, blank, problems = _number_cells(frame[label], {unit: unit}, unit, unit)
+        for i, text in problems.items():
+            issues.error(i, label, text)
+        metres = values * _ELEVATION_FACTORS[unit]
+        with np.errstate(invalid="ignore"):
+            inside = (metres >= _ELEVATION_RANGE[0]) & (metres <= _ELEVATION_RANGE[1])
+        for i in np.flatnonzero(np.isfinite(metres) & ~inside):
+            issues.error(i, label, f"{values[i]:g} {unit} is outside -500 to 11000 m above "
+                         "sea level")
+        for i in np.flatnonzero(~blank & given):
+            issues.error(i, label, f"give either {str(roles['pressure']).strip()!r} or the "
+                         "elevation for a row, not both")
+        use = inside & ~given
+        if use.any():
+            row_pressure[use] = barometric_pressure(metres[use])
+    return row_pressure
+
+
+def _read_limits(frame, roles, issues: _Issues) -> dict[str, np.ndarray]:
+    """Accepted limits per row [ppm], NaN where none or rejected."""
+    n = len(frame)
+    if "limit_source" in roles:
+        _, no_source = _text_cells(frame[roles["limit_source"]])
+    else:
+        no_source = np.ones(n, dtype=bool)
+    limits = {}
+    for kind in _LIMIT_KINDS:
+        if kind not in roles:
+            limits[kind] = np.full(n, np.nan)
+            continue
+        label = roles[kind]
+        values, blank, problems = _number_cells(frame[label], {"ppm": "ppm"}, "ppm", "ppm")
+        for i, text in problems.items():
+            issues.caution(i, label, f"{text}; this limit is not used")
+        with np.errstate(invalid="ignore"):
+            bad = np.isfinite(values) & ((values <= 0) | (values >= 1e6))
+        for i in np.flatnonzero(bad):
+            issues.caution(i, label, f"{values[i]:g} ppm is not a limit (it must be above 0 "
+                           "and below 1e6 ppm); this limit is not used")
+        unsourced = np.isfinite(values) & ~bad & no_source
+        for i in np.flatnonzero(unsourced):
+            issues.caution(i, label, f"the {_LIMIT_LABELS[kind]} of {values[i]:g} ppm has no "
+                           "limit_source and is not used; say where it comes from "
+                           "(regulation, standard, company value)")
+        limits[kind] = np.where(bad | unsourced, np.nan, values)
+    return limits
+
+
+def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
+    """Resolve each distinct (liquid, basis) once; group rows of equal composition.
+
+    Returns the liquids and the group of each row (-1 where unusable).
+    """
+    n = len(frame)
+    liquid_label = roles["liquid"]
+    liquid_text, _ = _text_cells(frame[liquid_label])
+    if "basis" in roles:
+        basis_text, _ = _text_cells(frame[roles["basis"]])
+        basis_key = pd.Series(basis_text).str.lower().str.replace(" ", "").to_numpy(object)
+    else:
+        basis_key = np.full(n, "", dtype=object)
+    liquid_codes, liquid_uniques = pd.factorize(liquid_text)
+    basis_codes, basis_uniques = pd.factorize(basis_key)
+    width = len(basis_uniques) + 1
+    pair_codes, pair_uniques = pd.factorize(liquid_codes * width + basis_codes)
+    rows_of_pair = _rows_by_code(pair_codes, len(pair_uniques))
+    group_of_pair = np.full(len(pair_uniques), -1, dtype=np.intp)
+    groups: list[Liquid] = []
+    index: dict[tuple, int] = {}
+    for k, code in enumerate(pair_uniques):
+        text = liquid_uniques[code // width]
+        basis_word = basis_uniques[code % width]
+        rows = rows_of_pair[k]
+        if text.startswith("=") or basis_word.startswith("="):
+            continue  # reported as a formula
+        problem, label = None, liquid_label
+        basis = _BASIS_WORDS.get(basis_word) if basis_word else "mass"
+        if not text:
+            problem = ("no liquid given: enter a substance name, synonym or CAS number, or "
+                       "a mixture such as 'toluene 60%, o-xylene 40%'")
+        elif basis is None:
+            problem, label = (f"{basis_word!r} is not a basis; use mole, mass or volume "
+                              "(blank means mass)"), roles["basis"]
+        else:
+            try:
+                liq = parse_liquid(text, basis)
+            except InputError as exc:
+                problem = exc.reason
+        if problem is not None:
+            for i in rows[~skip[rows]]:
+                issues.error(i, label, problem)
+            continue
+        key = _liquid_key(liq)
+        if key not in index:
+            index[key] = len(groups)
+            groups.append(liq)
+        group_of_pair[k] = index[key]
+        for note in liq.warnings:
+            for i in rows:
+                issues.caution(i, liquid_label, note)
+    return groups, group_of_pair[pair_codes]
+
+
+def _method_labels(liq: Liquid, method_nominal: np.ndarray, method_worst: np.ndarray,
+                   uncertainty_of: Mapping[str, tuple]) -> tuple[np.ndarray, np.ndarray]:
+    """Per row: the vapour-pressure methods used and their largest stated uncertainty."""
+    m = method_nominal.shape[1]
+    used = np.zeros((m, len(liq.components)), dtype=np.int64)
+    for c in range(len(liq.components)):
+        used[:, c] = ((1 << method_nominal[c].astype(np.int64))
+                      | (1 << method_worst[c].astype(np.int64)))
+    if (used == used[:1]).all():
+        combos, inverse = used[:1], np.zeros(m, dtype=np.intp)
+    else:
+        combos, inverse = np.unique(used, axis=0, return_inverse=True)
+    order = list(METHODS)
+    labels, spreads = [], []
+    for combo in combos:
+        parts, largest = [], np.nan
+        for c, component in enumerate(liq.components):
+            names = sorted({component.correlations[k].method
+                            for k in range(len(component.correlations)) if combo[c] >> k & 1},
+                           key=order.index)
+            for name in names:
+                u = uncertainty_of.get(name, (None, ""))[0]
+                if u is not None:
+                    largest = u if np.isnan(largest) else max(largest, u)
+            text = "+".join(names)
+            parts.append(text if liq.is_pure else f"{component.name}: {text}")
+        labels.append("; ".join(parts))
+        spreads.append(largest)
+    inverse = np.asarray(inverse).ravel()
+    return np.array(labels, dtype=object)[inverse], np.array(spreads)[inverse]
+
+
+def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
+            alarms: FlammabilityAlarms):
+    n = len(frame)
+    roles, units = columns.roles, columns.units
+    lines = np.arange(n) + 2
+    issues = _Issues(lines)
+    notes: list[str] = []
+
+    _, liquid_blank = _text_cells(frame[roles["liquid"]])
+    empty = _empty_rows(frame, liquid_blank)
+    for i in np.flatnonzero(empty):
+        issues.error(i, None, "the row is empty")
+    _read_formulas(frame, roles, issues)
+    _read_containers(frame[roles["container"]], roles["container"], empty, issues, notes)
+    temperatures, nominal, nominal_from, worst, worst_from = _read_temperatures(
+        frame, roles, units, issues, empty)
+    _read_fill(frame, roles, issues)
+    row_pressure = _read_pressures(frame, roles, units, file_pressure, issues)
+    limits = _read_limits(frame, roles, issues)
+    groups, row_group = _read_liquids(frame, roles, empty, issues)
+
+    # Temperature limits of each liquid (melting point, critical point), per group.
+    row_group = np.where(issues.error_mask(n), -1, row_group)
+    for g, rows in enumerate(_rows_by_code(row_group, len(groups))):
+        if rows.size == 0:
+            continue
+        bounds = _bounds(groups[g])
+        for column in temperatures.values():
+            codes = _temperature_problems(bounds, column.kelvin[rows])
+            codes[column.blank[rows]] = 0
+            for r, code in zip(rows[codes > 0], codes[codes > 0]):
+                issues.error(r, column.label, _temperature_message(
+                    int(code), column.values[r], column.unit, bounds, groups[g]))
+
+    # Each group in one evaluation, at the liquid and the worst-case temperatures.
+    row_group = np.where(issues.error_mask(n), -1, row_group)
+    computed = row_group >= 0
+    result = {name: np.full(n, np.nan) for name in
+              ("headspace_ppm", "worst_case_ppm", "worst_case_mg_per_m3",
+               "worst_case_percent_lfl", "worst_case_oxygen_percent",
+               "vapor_pressure_uncertainty")}
+    flammability = np.full(n, -1, dtype=np.int8)
+    has_fuel = np.zeros(n, dtype=bool)
+    method_text = np.full(n, None, dtype=object)
+    uncertainty_of = method_uncertainty()
+    temperature_label = {i: roles.get(b) for i, b in enumerate(_TEMPERATURE_BASES)}
+    evaluated = 0
+    for g, rows in enumerate(_rows_by_code(row_group, len(groups))):
+        if rows.size == 0:
+            continue
+        liq = groups[g]
+        evaluated += 1
+        m = rows.size
+        differ = np.flatnonzero(worst[rows] != nominal[rows])
+        t_all = np.concatenate([nominal[rows], worst[rows[differ]]])
+        p_all = np.concatenate([row_pressure[rows], row_pressure[rows[differ]]])
+        res = _evaluate_liquid(liq, t_all, p_all)
+        at = np.arange(m)
+        at_worst = at.copy()
+        at_worst[differ] = m + np.arange(differ.size)
+        result["headspace_ppm"][rows] = res.total_volume_fraction[at] * 1e6
+        result["worst_case_ppm"][rows] = res.total_volume_fraction[at_worst] * 1e6
+        result["worst_case_mg_per_m3"][rows] = res.mg_per_m3[at_worst]
+        result["worst_case_percent_lfl"][rows] = res.percent_lfl[at_worst]
+        result["worst_case_oxygen_percent"][rows] = res.oxygen_percent[at_worst]
+        flammability[rows] = res.flammability[at_worst]
+        has_fuel[rows] = any(c.lower_flammability_limit for c in liq.components)
+        method_text[rows], result["vapor_pressure_uncertainty"][rows] = _method_labels(
+            liq, res.method_index[:, at], res.method_index[:, at_worst], uncertainty_of)
+        for positions, source in ((at, nominal_from), (at_worst, worst_from)):
+            _group_cautions(liq, res, rows, positions, t_all, p_all, source[rows],
+                            temperature_label, issues)
+        if any(c.lower_flammability_limit and not c.upper_flammability_limit
+               for c in liq.components):
+            for r in rows:
+                issues.caution(r, roles["liquid"], "an upper flammability limit is missing "
+                               "for a flammable component; the too-rich state cannot be "
+                               "judged for it")
+
+    # Limits, vapour hazard ratio and concern.
+    with np.errstate(invalid="ignore", divide="ignore"):
+        ratios = {kind: result["worst_case_ppm"] / limits[kind] for kind in _LIMIT_KINDS}
+        stacked = np.vstack([limits[k] for k in _LIMIT_KINDS])
+        lowest = np.min(np.where(np.isfinite(stacked), stacked, np.inf), axis=0)
+        lowest[~np.isfinite(lowest)] = np.nan
+        vapor_hazard = result["headspace_ppm"] / lowest
+        limit_term = result["worst_case_ppm"] / lowest
+        lfl_term = np.where(has_fuel, result["worst_case_percent_lfl"] / alarms.percent_lfl,
+                            np.nan)
+    fresh = 100.0 * OXYGEN_IN_AIR
+    if alarms.oxygen_low < fresh:
+        oxygen_term = (fresh - result["worst_case_oxygen_percent"]) / (fresh - alarms.oxygen_low)
+    else:
+        oxygen_term = np.full(n, np.nan)
+        notes.append(f"the low-oxygen alarm of {alarms.oxygen_low:g} % is not below the "
+                     f"{fresh:g} % of fresh air; oxygen is left out of the concern")
+    terms = np.vstack([limit_term, lfl_term, oxygen_term])
+    finite = np.isfinite(terms)
+    filled = np.where(finite, terms, -np.inf)
+    concern = np.where(computed & finite.any(axis=0), filled.max(axis=0), np.nan)
+    driver_names = np.array(["exposure limit", "LFL alarm", "oxygen"], dtype=object)
+    driver = np.where(np.isfinite(concern), driver_names[filled.argmax(axis=0)], None)
+    rank = pd.Series(concern).rank(ascending=False, method="min").astype("Int64")
+
+    # Status and reason: errors first, then cautions.
+    status = np.full(n, "ok", dtype=object)
+    reason = np.full(n, "", dtype=object)
+    for i, texts in issues.cautions.items():
+        status[i] = "warning"
+        reason[i] = "; ".join(dict.fromkeys(texts))
+    for i, texts in issues.errors.items():
+        status[i] = "error"
+        reason[i] = "; ".join(dict.fromkeys(texts + issues.cautions.get(i, [])))
+
+    # Rows left without a result always say why (a guard; every path above reports).
+    for i in np.flatnonzero(~computed & (status != "error")):
+        status[i] = "error"
+        reason[i] = f"line {lines[i]}: the row could not be computed"
+
+    def text(values):
+        return pd.Series(values, index=frame.index, dtype=object)
+
+    states = np.array(FLAMMABILITY_CODES + (None,), dtype=object)
+    added = pd.DataFrame({
+        "source_line": lines,
+        "status": text(status),
+        "reason": text(reason),
+        "liquid_temperature_k": np.where(computed, nominal, np.nan),
+        "worst_case_temperature_k": np.where(computed, worst, np.nan),
+        "vapor_space_pressure_pa": np.where(computed, row_pressure, np.nan),
+        "headspace_ppm": result["headspace_ppm"],
+        "worst_case_ppm": result["worst_case_ppm"],
+        "worst_case_mg_per_m3": result["worst_case_mg_per_m3"],
+        "worst_case_percent_lfl": result["worst_case_percent_lfl"],
+        "worst_case_flammability": text(states[flammability]),
+        "worst_case_oxygen_percent": result["worst_case_oxygen_percent"],
+        "twa_ratio": ratios["twa"],
+        "stel_ratio": ratios["stel"],
+        "ceiling_ratio": ratios["ceiling"],
+        "vapor_hazard_ratio": vapor_hazard,
+        "concern": concern,
+        "concern_driver": text(driver),
+        "concern_rank": pd.Series(rank.to_numpy(), index=frame.index, dtype="Int64"),
+        "vapor_pressure_method": text(method_text),
+        "vapor_pressure_uncertainty": result["vapor_pressure_uncertainty"],
+    }, index=frame.index)
+    return pd.concat([frame, added], axis=1), evaluated, notes
+
+
+def _group_cautions(liq: Liquid, res: _LiquidArrays, rows: np.ndarray, positions: np.ndarray,
+                    t_all: np.ndarray, p_all: np.ndarray, sources: np.ndarray,
+                    source_labels: Mapping[int, object], issues: _Issues):
+    """Extrapolation and boiling cautions of one group at one of its temperatures.
+
+    `sources` says which temperature column each row's value came from.
+    """
+    extrapolated = res.extrapolated[:, positions]
+    for j in np.flatnonzero(extrapolated.any(axis=0)):
+        for c in np.flatnonzero(extrapolated[:, j]):
+            component = liq.components[c]
+            first = component.correlations[0]
+            issues.caution(rows[j], source_labels[int(sources[j])],
+                           f"{component.name}: {t_all[positions[j]]:.1f} K lies outside the "
+                           f"{first.tmin:.1f}-{first.tmax:.1f} K range of the "
+                           f"{METHODS[first.method]}; the value is an extrapolation")
+    for j in np.flatnonzero(res.boiling[positions]):
+        issues.caution(rows[j], source_labels[int(sources[j])],
+                       f"the liquid boils at this temperature and "
+                       f"{p_all[positions[j]] / 1000:.1f} kPa: the vapour pressure reaches the "
+                       "pressure of the space, which then holds essentially pure vapour "
+                       "(air displaced)")
+    if not liq.is_pure:
+        above = res.above_own_boiling[:, positions]
+        for j in np.flatnonzero(above.any(axis=0) & ~res.boiling[positions]):
+            names = ", ".join(liq.components[c].name for c in np.flatnonzero(above[:, j]))
+            issues.caution(rows[j], source_labels[int(sources[j])],
+                           f"{names} is above its own boiling point at this pressure; in an "
+                           "open vessel it would boil off")
+
+
+def _temperature_message(code: int, value: float, unit: str, bounds: _Bounds,
+                         liq: Liquid) -> str:
+    shown = f"{value:g} {_TEMPERATURE_SCALES[unit]}"
+    if code == 1:
+        return f"{shown} is not a finite number"
+    if code == 2:
+        return f"{shown} is at or below absolute zero; check the unit in the header"
+    whose = "" if liq.is_pure else ", a component"
+    if code == 3:
+        return (f"{shown} is above the critical temperature of {bounds.critical_name}{whose} "
+                f"({_format_temperature(bounds.critical, unit)}): no liquid can exist there")
+    return (f"{shown} is below the melting point of {bounds.melting_name}{whose} "
+            f"({_format_temperature(bounds.melting, unit)}): it would be solid; ullage does "
+            "not model sublimation")
+
+
+# ------------------------------------------------------------------------- writing
+
+_INJECTION_STARTS = ("=", "+", "-", "@", "\t", "\r")
+_PLAIN_NUMBER = re.compile(r"[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?")
+
+
+def _neutralise(value):
+    if (isinstance(value, str) and value.startswith(_INJECTION_STARTS)
+            and not _PLAIN_NUMBER.fullmatch(value)):
+        return "'" + value
+    return value
+
+
+def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
+    """Write a screening table to CSV, safe to open in a spreadsheet.
+
+    Text cells (and headers) beginning with =, +, -, @, a tab or a carriage return
+    are prefixed with a single quote so that a spreadsheet shows them as text
+    instead of running them as formulas; numbers, and text that is a plain number
+    such as "-5", are left alone. The file is written to a temporary file in the
+    same directory and then moved into place, so a reader never sees half a file.
+    UTF-8 with a byte-order mark, which spreadsheet programs recognise, and CRLF
+    line ends (RFC 4180).
+
+    Parameters
+    ----------
+    result : InventoryScreening or pandas.DataFrame
+        A screening result, or its table.
+    path : str or os.PathLike
+        Where to write.
+    cautions : bool
+        Write `estimator.CAUTIONS` first, one per line, each starting with "# ".
+
+    Returns
+    -------
+    pathlib.Path
+        The path written.
+    """
+    frame = result.table if isinstance(result, InventoryScreening) else result
+    if not isinstance(frame, pd.DataFrame):
+        raise InputError("result", "give a screening result or its table")
+    target = Path(path)
+    directory = target.parent if str(target.parent) else Path(".")
+    if not directory.is_dir():
+        raise InputError("path", f"the folder for {target.name} does not exist")
+    safe = frame.copy()
+    safe.columns = [_neutralise(str(c)) for c in safe.columns]
+    for position in range(safe.shape[1]):
+        column = safe.iloc[:, position]
+        if _is_text_column(column):
+            safe.isetitem(position, column.astype(object).map(_neutralise))
+    descriptor, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp",
+                                             dir=directory)
+    try:
+        with os.fdopen(descriptor, "w", encoding="utf-8-sig", newline="") as handle:
+            if cautions:
+                writer = csv.writer(handle, lineterminator="\r\n")
+                for caution in CAUTIONS:
+                    writer.writerow([f"# {caution}"])
+            # CRLF line ends (RFC 4180) also make the writer quote cells holding a lone
+            # carriage return, which would otherwise split the row when read back.
+            safe.to_csv(handle, index=False, lineterminator="\r\n")
+            handle.flush()
+            os.fsync(handle.fileno())
+        mode = target.stat().st_mode & 0o777 if target.exists() else 0o644
+        os.chmod(temporary, mode)
+        os.replace(temporary, target)
+    except BaseException:
+        with contextlib.suppress(FileNotFoundError):
+            os.unlink(temporary)
+        raise
+    return target
