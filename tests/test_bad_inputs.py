@@ -1,0 +1,262 @@
+"""The bad-input catalogue: every entry gives a clear error naming the field and what to do.
+
+One table-driven test across the Python API, scenario files, inventory files and
+the command line (the browser front end's own cases are in test_ui_pages.py).
+Each case: what is fed in, the exact error class (or exit code 2), and a message
+fragment that names the field and says what is wrong.
+"""
+
+import io
+import math
+
+import pandas as pd
+import pytest
+
+import estimator
+from estimator.cli import main as cli_main
+from estimator.errors import InputError, OutOfRangeError, UnknownSubstanceError
+from estimator.evaporation import evaporation_rate
+from estimator.headspace import headspace, site_pressure, temperature_for_concentration
+from estimator.indoor import purge_time, well_mixed_room
+from estimator.inventory import screen_inventory
+from estimator.limits import exposure_limit
+from estimator.outdoor import briggs_sigmas, ground_level_centerline
+from estimator.scenario import ScenarioError, loads_scenario
+from estimator.spill import indoor_spill
+from estimator.tank import vapor_space_volume
+from estimator.units import parse_quantity, parse_temperature
+
+NAN = math.nan
+INF = math.inf
+
+API = [
+    ("temperature wrong unit", lambda: parse_temperature("20 kg", "liquid temperature"),
+     InputError, "liquid temperature", "not a temperature"),
+    ("temperature missing unit", lambda: parse_quantity("20", "temperature", "T"),
+     InputError, "T", "has no unit"),
+    ("volume as a length", lambda: parse_quantity("3 m", "volume", "tank volume"),
+     InputError, "tank volume", "is not a volume"),
+    ("unknown unit", lambda: parse_quantity("3 blorps", "length", "depth"),
+     InputError, "depth", "not a unit"),
+    ("NaN text", lambda: parse_quantity("nan m", "length", "depth"), InputError, "depth", "NaN"),
+    ("infinite text", lambda: parse_quantity("inf m3", "volume", "V"), InputError, "V",
+     "infinite"),
+    ("empty text", lambda: parse_quantity("  ", "volume", "V"), InputError, "V", "empty"),
+    ("below absolute zero", lambda: parse_temperature("-300 degC", "T"), InputError, "T",
+     "absolute zero"),
+    ("vapour pressure at 0 K", lambda: estimator.vapor_pressure("water", 0.0),
+     OutOfRangeError, "temperature", "absolute zero"),
+    ("vapour pressure NaN", lambda: estimator.vapor_pressure("water", NAN), InputError,
+     "temperature", "NaN"),
+    ("vapour pressure infinite", lambda: estimator.vapor_pressure("water", INF), InputError,
+     "temperature", "infinite"),
+    ("above critical point", lambda: estimator.vapor_pressure("acetone", 600.0),
+     OutOfRangeError, "temperature", "critical temperature"),
+    ("below melting point", lambda: estimator.vapor_pressure("benzene", 260.0),
+     OutOfRangeError, "temperature", "melting point"),
+    ("unknown substance", lambda: estimator.substance("xylenol-9"), UnknownSubstanceError,
+     "substance", "no substance is known"),
+    ("typo substance", lambda: estimator.substance("acetnoe"), UnknownSubstanceError,
+     "substance", "did you mean"),
+    ("empty substance", lambda: estimator.substance(""), InputError, "substance",
+     "give a substance"),
+    ("fractions short of 100 %", lambda: headspace({"toluene": 0.5, "acetone": 0.3}, 298.0),
+     InputError, "liquid", "short of 100 %"),
+    ("negative fraction", lambda: headspace({"toluene": 1.2, "acetone": -0.2}, 298.0),
+     InputError, "liquid", "negative"),
+    ("fraction over 100 %", lambda: headspace({"toluene": 1.3}, 298.0), InputError, "liquid",
+     "above 100 %"),
+    ("unknown component", lambda: headspace({"toluene": 0.5, "unobtainium": 0.5}, 298.0),
+     UnknownSubstanceError, "liquid component", "no substance"),
+    ("bad basis", lambda: headspace({"toluene": 1.0}, 298.0, basis="weight"), InputError,
+     "basis", "mole, mass, volume"),
+    ("zero pressure", lambda: headspace("toluene", 298.0, 0.0), InputError, "pressure",
+     "above zero"),
+    ("negative pressure", lambda: headspace("toluene", 298.0, -1e5), InputError, "pressure",
+     "above zero"),
+    ("pressure in bar by mistake", lambda: headspace("toluene", 298.0, 1.01), InputError,
+     "pressure", "pascals"),
+    ("gauge below vacuum", lambda: site_pressure(gauge=-2e5), InputError, "gauge",
+     "below minus the barometric"),
+    ("target above 1", lambda: temperature_for_concentration("toluene", 2.0), InputError,
+     "volume_fraction", "below 1"),
+    ("negative activity coefficient",
+     lambda: headspace({"toluene": 0.5, "methanol": 0.5}, 298.0,
+                       activity_coefficients={"methanol": -1.0}),
+     InputError, "activity coefficients", "positive"),
+    ("limit in kg", lambda: exposure_limit("toluene", "TWA", 20, "kg", "x"), InputError,
+     "unit", "ppm or mg/m3"),
+    ("limit no source", lambda: exposure_limit("toluene", "TWA", 20, "ppm", " "), InputError,
+     "source", "where the limit"),
+    ("limit negative", lambda: exposure_limit("toluene", "TWA", -1, "ppm", "x"), InputError,
+     "TWA", "positive"),
+    ("evaporation zero area", lambda: evaporation_rate("toluene", 298.0, 0.0, 1.0),
+     InputError, "area", ""),
+    ("evaporation negative wind", lambda: evaporation_rate("toluene", 298.0, 1.0, -1.0),
+     InputError, "wind_speed", ""),
+    ("pool hotter than boiling", lambda: evaporation_rate("n-pentane", 320.0, 1.0, 1.0),
+     OutOfRangeError, "temperature", "boil"),
+    ("unknown evaporation model", lambda: evaporation_rate("toluene", 298.0, 1.0, 1.0,
+                                                           model="magic"),
+     ValueError, "", "mackay-matsugu"),
+    ("room zero volume", lambda: well_mixed_room(1e-4, 0.0, 0.1, [0, 60]), InputError,
+     "volume", ""),
+    ("mixing factor below 1", lambda: well_mixed_room(1e-4, 100.0, 0.1, [0, 60],
+                                                      mixing_factor=0.5),
+     InputError, "mixing_factor", "divides"),
+    ("times run backwards", lambda: well_mixed_room(1e-4, 100.0, 0.1, [0, 60, 30]),
+     InputError, "times", ""),
+    ("negative ventilation", lambda: purge_time(100.0, -1.0, 10.0, 1.0), InputError,
+     "ventilation_rate", ""),
+    ("spill bigger than room", lambda: indoor_spill("toluene", 298.0, room_volume=10.0,
+                                                    ventilation_rate=0.1, spilled_volume=20.0),
+     InputError, "spilled volume", "not smaller than the room"),
+    ("full tank", lambda: vapor_space_volume(10.0, 1.0), InputError, "fill level",
+     "no vapour space"),
+    ("unknown stability class", lambda: briggs_sigmas(500.0, "G"), ValueError, "", "A"),
+    ("zero wind plume", lambda: ground_level_centerline(1.0, 0.0, 500.0, "D"), InputError,
+     "wind_speed", ""),
+    ("user substance molar mass in g/mol",
+     lambda: estimator.user_substance("X", 92.0, 383.0), InputError, "molar_mass", "kg/mol"),
+]
+
+SCENARIO_BASE = '''
+[scenario]
+title = "t"
+
+[[liquid]]
+name = "solvent"
+substance = "toluene"
+
+[[tank]]
+name = "A"
+liquid = "solvent"
+temperature = "25 degC"
+'''
+
+SCENARIO = [
+    ("toml syntax error", SCENARIO_BASE.replace('title = "t"', 'title = "t'), "scenario file",
+     "not valid TOML"),
+    ("unknown key", SCENARIO_BASE.replace("temperature", "temprature"), "temprature",
+     "did you mean"),
+    ("unknown section", SCENARIO_BASE.replace("[[tank]]", "[[tanker]]"), "[tanker]",
+     "unknown section"),
+    ("missing title", SCENARIO_BASE.replace('title = "t"', 'site = "x"'), "title",
+     "missing required key"),
+    ("temperature in kg", SCENARIO_BASE.replace('"25 degC"', '"25 kg"'), "temperature",
+     "not a temperature"),
+    ("temperature without unit", SCENARIO_BASE.replace('"25 degC"', "25"), "temperature",
+     "has no unit"),
+    ("unknown liquid reference", SCENARIO_BASE.replace('liquid = "solvent"', 'liquid = "x"'),
+     "liquid", "no [[liquid]] is named"),
+    ("unknown substance in liquid", SCENARIO_BASE.replace('"toluene"', '"toluen"'),
+     "substance", "did you mean"),
+    ("fill over 100 %", SCENARIO_BASE + 'fill = "120 %"\n', "fill", "below 100 %"),
+    ("negative volume", SCENARIO_BASE + 'volume = "-3 m3"\n', "volume", "above 0"),
+    ("both pressure and elevation", SCENARIO_BASE.replace(
+        'title = "t"', 'title = "t"\n[conditions]\nelevation = "100 m"\n'
+        'barometric_pressure = "99 kPa"'), "elevation", "not both"),
+    ("composition does not add up", SCENARIO_BASE.replace(
+        'substance = "toluene"', 'components = { toluene = "50 %", acetone = "20 %" }'),
+     "components", "short of 100 %"),
+    ("limit without source", SCENARIO_BASE + '[[limit]]\nsubstance = "toluene"\nTWA = "2 ppm"\n',
+     "source", "missing required key"),
+    ("limit without unit", SCENARIO_BASE + '[[limit]]\nsubstance = "toluene"\nTWA = 2\n'
+     'source = "x"\n', "TWA", "has no unit"),
+    ("room mixing factor below 1", SCENARIO_BASE + '[[room]]\nname = "r"\nvolume = "10 m3"\n'
+     'air_changes = "2 1/h"\nmixing_factor = 0.5\n', "mixing_factor", "1 or more"),
+    ("spill in unknown room", SCENARIO_BASE + '[[spill]]\nname = "s"\nliquid = "solvent"\n'
+     'volume = "1 L"\ntemperature = "20 degC"\nroom = "nowhere"\n', "room",
+     "no [[room]] is named"),
+    ("table written as array", SCENARIO_BASE + '[[conditions]]\nelevation = "1 m"\n',
+     "[conditions]", "single [conditions] table"),
+]
+
+INVENTORY_HEADER = "container,liquid,temperature_C\n"
+INVENTORY = [
+    ("empty file", "", "empty"),
+    ("header only", INVENTORY_HEADER, "no data rows"),
+    ("missing liquid column", "container,temperature_C\nT1,20\n", "liquid"),
+    ("temperature without unit in header", "container,liquid,temperature\nT1,toluene,20\n",
+     "temperature"),
+]
+
+INVENTORY_ROWS = [
+    ("unknown substance row", "T1,tolune,20\n", "did you mean"),
+    ("temperature text row", "T1,toluene,hot\n", "temperature"),
+    ("above critical row", "T1,acetone,400\n", "critical"),
+    ("formula cell row", "T1,=HYPERLINK(\"x\"),20\n", "formula"),
+    ("mixture not summing row", "T1,\"toluene 60%, o-xylene 10%\",20\n", "100 %"),
+]
+
+CLI = [
+    (["run", "no-such-file.toml"], "cannot read"),
+    (["sweep", "toluene", "--from", "20 kg"], "--from"),
+    (["sweep", "toluene", "--step", "0 K"], "--step"),
+    (["sweep", "toluene", "--pressure", "-5 kPa"], "pressure"),
+    (["sweep", "acetone 50%, water 20%"], "100 %"),
+    (["inventory", "no-such-file.csv"], "no such file"),
+    (["substances", "zzzzzz"], "nothing matches"),
+    (["run"], "required"),
+]
+
+
+@pytest.mark.parametrize("case", API, ids=[c[0] for c in API])
+def test_api(case):
+    """Python API: exact error class, the field named, what to do."""
+    _, call, exc, field, fragment = case
+    with pytest.raises(exc) as info:
+        call()
+    if isinstance(info.value, InputError):
+        assert field in info.value.field
+    assert fragment in str(info.value)
+
+
+@pytest.mark.parametrize("case", SCENARIO, ids=[c[0] for c in SCENARIO])
+def test_scenario_files(case):
+    """Scenario files: ScenarioError naming the key and saying what to do."""
+    _, text, field, fragment = case
+    with pytest.raises(ScenarioError) as info:
+        loads_scenario(text)
+    assert field in info.value.field
+    assert fragment in str(info.value)
+
+
+@pytest.mark.parametrize("case", INVENTORY, ids=[c[0] for c in INVENTORY])
+def test_inventory_files(case, tmp_path):
+    """Whole inventory files that cannot be screened are refused with the reason."""
+    _, text, fragment = case
+    path = tmp_path / "inv.csv"
+    path.write_text(text, encoding="utf-8")
+    with pytest.raises(InputError) as info:
+        screen_inventory(path)
+    assert fragment in str(info.value).lower()
+
+
+@pytest.mark.parametrize("case", INVENTORY_ROWS, ids=[c[0] for c in INVENTORY_ROWS])
+def test_inventory_rows(case):
+    """A bad row is explained and the good row beside it is still computed."""
+    _, row, fragment = case
+    frame = pd.read_csv(io.StringIO(INVENTORY_HEADER + row + "T2,toluene,20\n"),
+                        dtype=str, keep_default_na=False)
+    table = screen_inventory(frame).table
+    assert list(table["status"]) [0] == "error"
+    assert fragment.lower() in table["reason"].iloc[0].lower()
+    assert table["status"].iloc[1] in ("ok", "warning")
+
+
+@pytest.mark.parametrize("case", CLI, ids=[" ".join(c[0]) for c in CLI])
+def test_command_line(case, capsys):
+    """Command line: exit code 2, the message on stderr, never a traceback."""
+    argv, fragment = case
+    code = cli_main(argv)
+    out, err = capsys.readouterr()
+    assert code == 2
+    assert fragment in err
+    assert "Traceback" not in out + err
+
+
+def test_catalogue_size():
+    """The catalogue holds at least 60 distinct bad inputs."""
+    total = len(API) + len(SCENARIO) + len(INVENTORY) + len(INVENTORY_ROWS) + len(CLI)
+    assert total >= 60
