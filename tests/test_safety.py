@@ -1,0 +1,105 @@
+"""Faults and security: bounded solvers, atomic writes, capped uploads, no unsafe loaders."""
+
+import ast
+import os
+from pathlib import Path
+
+import pytest
+
+from estimator import cli
+from estimator.errors import UllageError
+from estimator.evaporation import EvaporationSolverError
+from estimator.inventory import MAX_FILE_BYTES, screen_inventory
+from estimator.scenario import MAX_SCENARIO_BYTES, SCHEMA, ScenarioError, load_scenario
+from estimator.spill import indoor_spill
+
+ROOT = Path(__file__).resolve().parents[1]
+SOURCES = sorted((ROOT / "estimator").rglob("*.py")) + sorted((ROOT / "ui").rglob("*.py"))
+UNSAFE_CALLS = {"eval", "exec", "compile", "__import__"}
+UNSAFE_MODULES = {"pickle", "marshal", "shelve", "dill", "yaml"}
+
+
+@pytest.mark.parametrize("path", SOURCES, ids=lambda p: str(p.relative_to(ROOT)))
+def test_no_unsafe_evaluation_or_deserialisation(path):
+    """No eval/exec/compile, and no pickle, marshal, shelve or YAML loaders anywhere."""
+    tree = ast.parse(path.read_text(encoding="utf-8"))
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Call) and isinstance(node.func, ast.Name):
+            assert node.func.id not in UNSAFE_CALLS, (path, node.lineno)
+        if isinstance(node, ast.Import):
+            assert not {a.name.split(".")[0] for a in node.names} & UNSAFE_MODULES
+        if isinstance(node, ast.ImportFrom) and node.module:
+            assert node.module.split(".")[0] not in UNSAFE_MODULES, (path, node.lineno)
+
+
+def test_solver_is_time_bound():
+    """A run that exceeds its time budget stops with a clear error, never hangs."""
+    with pytest.raises(EvaporationSolverError, match="longer than|evaluations"):
+        indoor_spill({"acetone": 0.5, "n-decane": 0.5}, 298.15, room_volume=50.0,
+                     ventilation_rate=0.01, spilled_volume=0.01, duration=30 * 24 * 3600.0,
+                     time_limit=1e-6)
+    assert issubclass(EvaporationSolverError, UllageError)
+
+
+def test_interrupt_leaves_no_partial_output(tmp_path, monkeypatch, capsys):
+    """Ctrl-C during a run writes no output file at all and exits 130."""
+    target = tmp_path / "report.html"
+
+    def interrupted(_scenario):
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr("estimator.screening.run_scenario", interrupted)
+    code = cli.main(["run", str(ROOT / "scenarios" / "coatings-day-tank.toml"), "-o",
+                     str(target)])
+    assert code == 130
+    assert not target.exists()
+    assert list(tmp_path.iterdir()) == []
+    assert "no partial output" in capsys.readouterr().err
+
+
+def test_atomic_write_keeps_old_file_when_interrupted(tmp_path, monkeypatch):
+    """An interruption while writing leaves the previous file intact and no temp file."""
+    from estimator.report import write_text_atomic
+
+    target = tmp_path / "out.csv"
+    target.write_text("old")
+    real_replace = os.replace
+
+    def boom(*args):
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr(os, "replace", boom)
+    with pytest.raises(KeyboardInterrupt):
+        write_text_atomic(target, "new")
+    monkeypatch.setattr(os, "replace", real_replace)
+    assert target.read_text() == "old"
+    assert [p.name for p in tmp_path.iterdir()] == ["out.csv"]
+
+
+def test_oversized_uploads_are_refused(tmp_path):
+    """Scenario and inventory files above their caps are refused before parsing."""
+    big = tmp_path / "big.csv"
+    with open(big, "wb") as handle:
+        handle.truncate(MAX_FILE_BYTES + 1)
+    with pytest.raises(UllageError, match="large|MB|bytes"):
+        screen_inventory(big)
+    scenario = tmp_path / "big.toml"
+    with open(scenario, "wb") as handle:
+        handle.truncate(MAX_SCENARIO_BYTES + 1)
+    with pytest.raises(ScenarioError, match="short text file"):
+        load_scenario(scenario)
+
+
+def test_scenario_files_name_no_paths():
+    """No scenario key is a file path, so a scenario cannot make ullage read or write
+    anywhere: paths come only from the command line or the browser's file dialogs."""
+    kinds = {kind for section in SCHEMA.values() for kind, _ in section.values()}
+    assert not {k for k in kinds if "path" in k or "file" in k}
+    for section in SCHEMA.values():
+        assert not [key for key in section if "path" in key or "file" in key]
+
+
+def test_browser_app_binds_to_loopback_by_default():
+    """`ullage app` listens on 127.0.0.1 unless told otherwise."""
+    args = cli.build_parser().parse_args(["app"])
+    assert args.address == "127.0.0.1"
