@@ -19,6 +19,11 @@ Sections (every key is listed in `SCHEMA`):
 - ``[[spill]]`` a pool indoors (in a room) or outdoors.
 - ``[outdoors]`` weather and receptors for outdoor spills.
 - ``[[limit]]`` exposure limits for one substance, with their source.
+- ``[[uncertain]]`` an input of a tank or spill given as a distribution instead of
+  a value (see `estimator.uncertainty.distribution_from_spec`), for example
+  ``item = "T-3"``, ``input = "temperature"``,
+  ``distribution = { triangular = ["30 degC", "34 degC", "42 degC"] }``.
+- ``[monte_carlo]`` samples (default 10000), seed, method_uncertainty (default true).
 """
 
 from __future__ import annotations
@@ -34,6 +39,7 @@ from types import MappingProxyType
 from . import __version__
 from .constants import STANDARD_ATMOSPHERE
 from .errors import InputError, UnknownSubstanceError
+from .substances import Substance
 from .units import parse_quantity, parse_temperature
 
 __all__ = [
@@ -62,6 +68,8 @@ _TABLES = {
     "alarms": {"percent_lfl": ("number", False), "oxygen_low": ("fraction", False),
                "oxygen_high": ("fraction", False), "source": ("text", False)},
     "shift": {"start": ("time", False), "duration": ("time", False)},
+    "monte_carlo": {"samples": ("number", False), "seed": ("number", False),
+                    "method_uncertainty": ("bool", False)},
     "outdoors": {"wind_speed": ("speed", True), "wind_height": ("length", False),
                  "daytime": ("bool", False), "insolation": ("text", False),
                  "cloud_cover": ("number", False), "stability": ("text", False),
@@ -99,6 +107,8 @@ _ARRAYS = {
               "room": ("text", False), "outdoors": ("bool", False),
               "duration": ("time", False), "cleanup_after": ("time", False),
               "model": ("text", False)},
+    "uncertain": {"item": ("text", True), "input": ("text", True),
+                  "distribution": ("distribution", True)},
     "limit": {"substance": ("text", True), "TWA": ("limit", False), "STEL": ("limit", False),
               "ceiling": ("limit", False), "emergency": ("limit", False),
               "source": ("text", True)},
@@ -107,7 +117,14 @@ _ARRAYS = {
 SCHEMA = MappingProxyType({**_TABLES, **_ARRAYS})
 
 _ORDER = ["scenario", "conditions", "alarms", "shift", "substance", "liquid", "tank", "room",
-          "spill", "outdoors", "limit"]
+          "spill", "outdoors", "limit", "uncertain", "monte_carlo"]
+
+#: Inputs that may be uncertain, per kind of item, with their unit kind.
+UNCERTAIN_INPUTS = {
+    "tank": {"temperature": "temperature"},
+    "spill": {"temperature": "temperature", "area": "area", "air_speed": "speed",
+              "ventilation_rate": "flow", "mixing_factor": "fraction", "mass": "mass"},
+}
 
 
 class ScenarioError(InputError):
@@ -140,6 +157,10 @@ class Scenario:
     assumptions : tuple of str
         Every default the run applies, said plainly.
     source_path : str
+    uncertain : tuple of dict
+        Inputs given as distributions: item, kind, input, distribution.
+    monte_carlo : dict
+        samples, seed (None: drawn and recorded), method_uncertainty.
     """
 
     document: MappingProxyType
@@ -157,6 +178,9 @@ class Scenario:
     shift: object
     assumptions: tuple[str, ...]
     source_path: str = ""
+    uncertain: tuple = ()
+    monte_carlo: dict = field(default_factory=lambda: {"samples": 10_000, "seed": None,
+                                                       "method_uncertainty": True})
 
     def resolve(self, name: str, field: str):
         """A substance by name: the scenario's own first, then the bundled table."""
@@ -250,7 +274,7 @@ def _convert(raw, kind, where):
             raise ScenarioError(where, f"{raw!r} has no unit; write it as text such as "
                                 f"'{raw} degC'")
         return parse_temperature(raw, where)
-    if kind == "limit":
+    if kind in ("limit", "distribution"):
         return raw
     if kind in ("composition", "concentrations"):
         if not isinstance(raw, dict) or not raw:
@@ -570,12 +594,59 @@ def loads_scenario(text: str, source_path: str = "") -> Scenario:
         r.assumptions.append("no exposure limits entered: only flammability and oxygen are "
                              "compared")
 
+    uncertain = []
+    items = {t["name"].lower(): ("tank", t) for t in tanks}
+    items.update({sp["name"].lower(): ("spill", sp) for sp in spills})
+    for i, item in enumerate(doc.get("uncertain", [])):
+        r.check_keys("uncertain", i, item)
+        name = r.value("uncertain", i, item, "item")
+        found = items.get(name.lower())
+        if found is None:
+            r.fail("uncertain", i, "item", f"no tank or spill is named {name!r}")
+        what, target = found
+        key = r.value("uncertain", i, item, "input")
+        allowed = UNCERTAIN_INPUTS[what]
+        if key not in allowed:
+            r.fail("uncertain", i, "input", f"{key!r} cannot be uncertain for a {what}; "
+                   f"use one of {', '.join(allowed)}")
+        if what == "spill":
+            if target.get("outdoors"):
+                r.fail("uncertain", i, "item", "probabilistic screening covers tanks and "
+                       "indoor spills")
+            entry = liquids[target["liquid"]]
+            if not isinstance(entry["spec"], Substance):
+                r.fail("uncertain", i, "item", "probabilistic spills cover pure liquids only")
+        from .uncertainty import distribution_from_spec
+
+        where = r.where("uncertain", i, "distribution")
+        try:
+            dist = distribution_from_spec(item["distribution"], allowed[key], where)
+        except InputError as exc:
+            part = exc.field[len(where):].strip() if exc.field.startswith(where) else ""
+            raise ScenarioError(where, f"{part}: {exc.reason}" if part else exc.reason) from None
+        uncertain.append({"item": target["name"], "kind": what, "input": key,
+                          "distribution": dist})
+    mc = doc.get("monte_carlo", {})
+    r.check_keys("monte_carlo", None, mc)
+    samples = r.value("monte_carlo", None, mc, "samples", 10_000.0)
+    if not (samples == int(samples) and 100 <= samples <= 1_000_000):
+        r.fail("monte_carlo", None, "samples", "must be a whole number from 100 to 1000000")
+    seed = r.value("monte_carlo", None, mc, "seed")
+    if seed is not None and (seed != int(seed) or seed < 0):
+        r.fail("monte_carlo", None, "seed", "must be a whole number, 0 or more")
+    monte_carlo = {"samples": int(samples), "seed": None if seed is None else int(seed),
+                   "method_uncertainty": mc.get("method_uncertainty", True)}
+    if uncertain and seed is None:
+        r.assumptions.append("Monte Carlo seed not given: a new one is drawn and recorded in "
+                             "the results")
+
     return Scenario(
         document=MappingProxyType(doc), title=title, pressure=float(pressure),
         air_temperature=air_t, substances=tuple(subs), liquids=MappingProxyType(liquids),
         tanks=tuple(tanks), rooms=tuple(rooms), spills=tuple(spills), outdoors=outdoors,
         limits=tuple(limits), alarms=alarms, shift=shift,
-        assumptions=tuple(dict.fromkeys(r.assumptions)), source_path=source_path)
+        assumptions=tuple(dict.fromkeys(r.assumptions)), source_path=source_path,
+        uncertain=tuple(uncertain), monte_carlo=monte_carlo)
 
 
 def _split_limit(raw, where):

@@ -83,6 +83,8 @@ class TankResult:
     findings : tuple of str
         Plain-language screening statements.
     warnings : tuple of str
+    monte_carlo : MonteCarloResult or None
+        Probabilistic screening, when the scenario gives uncertain inputs.
     """
 
     name: str
@@ -106,6 +108,7 @@ class TankResult:
     purge: object
     findings: tuple[str, ...]
     warnings: tuple[str, ...]
+    monte_carlo: object = None
 
     @property
     def exceeded(self) -> bool:
@@ -144,6 +147,8 @@ class SpillResult:
     outdoor : OutdoorSpill or None
     initial_rates : dict
         Model name -> total initial evaporation rate, both models side by side. [kg/s]
+    monte_carlo : MonteCarloResult or None
+        Probabilistic screening, when the scenario gives uncertain inputs.
     exposures : tuple of ZoneExposure
     distances : tuple of (limit label, distance [m] or None, note)
         Outdoors: how far the centreline stays above each limit.
@@ -160,6 +165,7 @@ class SpillResult:
     distances: tuple
     findings: tuple[str, ...]
     warnings: tuple[str, ...]
+    monte_carlo: object = None
 
     @property
     def exceeded(self) -> bool:
@@ -510,6 +516,74 @@ def _density(liq) -> float:
     return liquid_mixture_density(liq)
 
 
+def _monte_carlo_findings(mc) -> list[str]:
+    out = [f"Probabilistic screening, {mc.n:,} samples (seed {mc.seed}):"]
+    for name, table in mc.percentiles.items():
+        unit = mc.units.get(name, "")
+        unit = "" if unit in ("", "-") else " " + unit
+        out.append(f"  {name.replace('_', ' ')}: median {table[50]:.4g}{unit}, 95th "
+                   f"percentile {table[95]:.4g}{unit}")
+    for label, probability in mc.exceedance.items():
+        out.append(f"  probability of exceeding {label}: {100 * probability:.3g} %")
+    for output, ranks in list(mc.sensitivity.items())[:1]:
+        if ranks:
+            top, rho = next(iter(ranks.items()))
+            out.append(f"  the spread of {output} is driven most by {top} (rank "
+                       f"correlation {rho:.2f})")
+    return out
+
+
+def _uncertain_inputs(scenario, name):
+    return {u["input"]: u["distribution"] for u in scenario.uncertain if u["item"] == name}
+
+
+def _tank_monte_carlo(scenario, tank, result):
+    from .uncertainty import headspace_monte_carlo
+
+    inputs = _uncertain_inputs(scenario, tank["name"])
+    entry = scenario.liquids[tank["liquid"]]
+    if entry["kind"] == "water":
+        raise InputError("uncertain", "probabilistic screening of water with dissolved "
+                         "volatiles is not available")
+    mc = scenario.monte_carlo
+    return headspace_monte_carlo(
+        result.headspace.liquid, inputs.get("temperature", tank["temperature"]),
+        result.pressure, scenario.limits, n=mc["samples"], seed=mc["seed"],
+        include_method_uncertainty=mc["method_uncertainty"],
+        lfl_alarm=scenario.alarms.percent_lfl, oxygen_alarm=scenario.alarms.oxygen_low)
+
+
+def _spill_monte_carlo(scenario, spill, result):
+    from .uncertainty import indoor_spill_monte_carlo
+
+    inputs = _uncertain_inputs(scenario, spill["name"])
+    room = next(r for r in scenario.rooms if r["name"] == spill["room"])
+    run = result.indoor
+    mass = float(run.initial_mass.sum())
+    mc = scenario.monte_carlo
+    entry = scenario.liquids[spill["liquid"]]
+    notes = []
+    if room.get("near_field_radius"):
+        notes.append("the probabilistic chain uses the well-mixed room (no near field): "
+                     "compare its results with the deterministic far field")
+    return notes, indoor_spill_monte_carlo(
+        entry["spec"], inputs.get("temperature", spill["temperature"]),
+        inputs.get("area", run.pool_area), inputs.get("air_speed", room["air_speed"]),
+        room["volume"], inputs.get("ventilation_rate", room["ventilation_rate"]),
+        inputs.get("mixing_factor", room["mixing_factor"]), inputs.get("mass", mass),
+        scenario.limits, duration=spill["duration"], n=mc["samples"], seed=mc["seed"],
+        include_method_uncertainty=mc["method_uncertainty"], pressure=scenario.pressure,
+        source_removed_at=spill.get("cleanup_after"))
+
+
+def _with_monte_carlo(result, mc, notes=()):
+    from dataclasses import replace
+
+    return replace(result, monte_carlo=mc,
+                   findings=result.findings + tuple(_monte_carlo_findings(mc)),
+                   warnings=result.warnings + tuple(notes) + tuple(mc.warnings))
+
+
 def run_scenario(scenario: Scenario) -> ScenarioResult:
     """Run every tank and spill of a scenario.
 
@@ -517,15 +591,31 @@ def run_scenario(scenario: Scenario) -> ScenarioResult:
     others are still computed.
     """
     tanks, spills, errors = [], [], []
+    uncertain = {u["item"] for u in scenario.uncertain}
     for tank in scenario.tanks:
         try:
-            tanks.append(screen_tank(scenario, tank))
+            result = screen_tank(scenario, tank)
         except UllageError as exc:
             errors.append((f"tank {tank['name']}", str(exc)))
+            continue
+        if tank["name"] in uncertain:
+            try:
+                result = _with_monte_carlo(result, _tank_monte_carlo(scenario, tank, result))
+            except UllageError as exc:
+                errors.append((f"tank {tank['name']} (probabilistic)", str(exc)))
+        tanks.append(result)
     for spill in scenario.spills:
         try:
-            spills.append(_spill(scenario, spill))
+            result = _spill(scenario, spill)
         except UllageError as exc:
             errors.append((f"spill {spill['name']}", str(exc)))
+            continue
+        if spill["name"] in uncertain:
+            try:
+                notes, mc = _spill_monte_carlo(scenario, spill, result)
+                result = _with_monte_carlo(result, mc, notes)
+            except UllageError as exc:
+                errors.append((f"spill {spill['name']} (probabilistic)", str(exc)))
+        spills.append(result)
     return ScenarioResult(scenario, tuple(tanks), tuple(spills), tuple(errors),
                           scenario.assumptions)

@@ -1211,7 +1211,8 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
                              ventilation_rate, mixing_factor, spilled_mass, limits=(),
                              duration=EIGHT_HOUR_SHIFT, n=10_000, seed=None,
                              include_method_uncertainty=True, *,
-                             pressure=STANDARD_ATMOSPHERE) -> MonteCarloResult:
+                             pressure=STANDARD_ATMOSPHERE,
+                             source_removed_at=None) -> MonteCarloResult:
     r"""A spill of pure liquid in a well-mixed room with uncertain inputs, by Monte Carlo.
 
     Pure liquids only (a mixture's pool changes composition as it weathers; use
@@ -1277,6 +1278,9 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
         Multiply the vapour pressure by its method-uncertainty factor.
     pressure : float
         Ambient pressure, 101325 Pa by default. [Pa]
+    source_removed_at : float, optional
+        Time the pool is cleaned up, after which it no longer evaporates (the
+        source ends at the earlier of this and the dry time). [s]
 
     Returns
     -------
@@ -1383,8 +1387,10 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
 
     # well-mixed room, constant source until dry, capped at saturation
     saturation = np.minimum(p_sat, p_air) * sub.molar_mass / (GAS_CONSTANT * t)
-    room = _RoomHistory.build(rate / volume, flow / (mixing * volume), saturation, lifetime)
-    peak = room.concentration(np.minimum(lifetime, period))
+    source_end = lifetime if source_removed_at is None else np.minimum(
+        lifetime, float(source_removed_at))
+    room = _RoomHistory.build(rate / volume, flow / (mixing * volume), saturation, source_end)
+    peak = room.concentration(np.minimum(source_end, period))
     twa = room.integral(np.full(count, period)) / EIGHT_HOUR_SHIFT
     short_term = room.highest_window_average(period, SHORT_TERM_PERIOD)
     to_ppm = GAS_CONSTANT * t / (p_air * sub.molar_mass) * 1e6
@@ -1411,7 +1417,7 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
         units[f"ratio to {label}"] = "-"
         exceedance[label] = float(np.mean(ratio > 1.0))
 
-    capped = room.saturation_time < np.minimum(lifetime, period)
+    capped = room.saturation_time < np.minimum(source_end, period)
     if np.any(capped):
         notes.append(f"in {100 * np.mean(capped):.3g} % of samples the room air reaches the "
                      "saturated vapour concentration and is capped there; evaporation would "

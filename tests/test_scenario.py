@@ -168,3 +168,48 @@ temperature = "700 degC"
     result = run_scenario(loads_scenario(text))
     assert [t.name for t in result.tanks] == ["A"]
     assert result.errors[0][0] == "tank B" and "critical" in result.errors[0][1]
+
+
+def test_uncertain_inputs_run_monte_carlo():
+    """A distribution in the file gives percentiles and exceedance probabilities, seeded."""
+    text = MINIMAL + '''
+[[limit]]
+substance = "toluene"
+TWA = "20 ppm"
+source = "x"
+
+[[uncertain]]
+item = "A"
+input = "temperature"
+distribution = { uniform = ["15 degC", "35 degC"] }
+
+[monte_carlo]
+samples = 2000
+seed = 11
+'''
+    first = run_scenario(loads_scenario(text)).tanks[0].monte_carlo
+    again = run_scenario(loads_scenario(text)).tanks[0].monte_carlo
+    assert first.seed == 11 and first.n == 2000
+    assert first.percentiles["total_ppm"][95] == again.percentiles["total_ppm"][95]
+    assert 0 <= first.exceedance["TWA 20 ppm (x)"] <= 1
+
+
+@pytest.mark.parametrize(
+    "block, field, fragment",
+    [
+        ('item = "Z"\ninput = "temperature"\ndistribution = { uniform = ["1 degC", "2 degC"] }',
+         "item", "no tank or spill"),
+        ('item = "A"\ninput = "colour"\ndistribution = { uniform = ["1 degC", "2 degC"] }',
+         "input", "cannot be uncertain"),
+        ('item = "A"\ninput = "temperature"\ndistribution = { uniform = ["5 degC", "2 degC"] }',
+         "distribution", "high"),
+        ('item = "A"\ninput = "temperature"\ndistribution = { wobbly = ["5 degC"] }',
+         "distribution", "uniform"),
+    ],
+)
+def test_bad_uncertain_inputs(block, field, fragment):
+    """Bad uncertain-input tables name the key and what to do."""
+    with pytest.raises(ScenarioError) as info:
+        loads_scenario(MINIMAL + "\n[[uncertain]]\n" + block + "\n")
+    assert field in info.value.field
+    assert fragment in str(info.value)

@@ -671,3 +671,24 @@ def test_tidy_table_and_exceedance_probability():
     with pytest.raises(InputError) as caught:
         r.exceedance_probability("twa", 1.0)
     assert caught.value.field == "output"
+
+
+def test_indoor_chain_source_removal_matches_box_model():
+    """With all inputs fixed and the pool cleaned up at 30 min, the chain's TWA equals the
+    numerically integrated box model whose source stops at 30 min (within 1e-3)."""
+    import numpy as np
+
+    from estimator.evaporation import evaporation_rate
+    from estimator.indoor import well_mixed_room
+    from estimator.uncertainty import indoor_spill_monte_carlo
+
+    t = np.linspace(0.0, 8 * 3600.0, 28801)
+    g = evaporation_rate("acetone", 295.0, 4.0, 0.2)
+    source = np.where(t < 1800.0, g, 0.0)
+    c = well_mixed_room(source, 500.0, 0.2, t, mixing_factor=3.0)
+    to_ppm = 8.314462618 * 295.0 / (101325.0 * 0.05808) * 1e6
+    expected = np.trapezoid(c, t) / (8 * 3600.0) * to_ppm
+    mc = indoor_spill_monte_carlo("acetone", 295.0, 4.0, 0.2, 500.0, 0.2, 3.0, 50.0, n=200,
+                                  seed=1, include_method_uncertainty=False,
+                                  source_removed_at=1800.0)
+    assert mc.outputs["twa_ppm"][0] == pytest.approx(expected, rel=1e-3)
