@@ -1,0 +1,471 @@
+"""Line plots as plain SVG text, for reports that must stand alone.
+
+No plotting library is needed: `line_plot_svg` writes the axes, round-number
+ticks (linear or logarithmic concentration axis), a legend and labelled dashed
+limit lines itself. Every piece of text is escaped, so labels typed by a user
+cannot inject markup, and the same input always gives the same output, byte for
+byte.
+
+Series are told apart by colour and by dash pattern, so a plot still reads when
+printed in grey or seen with a colour-vision deficiency.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import html
+import math
+import re
+
+import numpy as np
+
+from .errors import InputError
+
+__all__ = ["SERIES_STYLES", "LIMIT_STYLE", "MAX_PLOT_POINTS", "line_plot_svg", "nice_ticks",
+           "log_ticks", "tick_label"]
+
+#: (stroke colour, dash pattern) of successive series. Hues spread around the
+#: wheel with clearly different lightness (blue, amber, green, plum, grey, ochre),
+#: each with its own dash pattern, so no two series depend on hue alone.
+SERIES_STYLES = (
+    ("#1f4f8f", ""),               # deep blue, solid
+    ("#c8661a", "9 4"),            # amber, long dashes
+    ("#23866b", "2 3"),            # green, dots
+    ("#7d3c87", "10 3 2 3"),       # plum, dash-dot
+    ("#505050", "5 2 1 2 1 2"),    # grey, dash-dot-dot
+    ("#967400", "14 4 4 4"),       # ochre, long-short
+)
+
+#: (stroke colour, dash pattern, width) of horizontal limit lines: thin, dark
+#: brick red, evenly dashed, labelled in place.
+LIMIT_STYLE = ("#8c2a22", "6 3", 1.3)
+
+#: Points drawn per series at most; longer series are thinned keeping each
+#: interval's lowest and highest value, so peaks survive.
+MAX_PLOT_POINTS = 1200
+
+#: Decades shown at most on a logarithmic axis, counted down from the top.
+MAX_LOG_DECADES = 7
+
+_FONT = "system-ui, -apple-system, 'Segoe UI', Helvetica, Arial, sans-serif"
+_CHAR_WIDTH = 0.56  # average glyph width over font size, for layout estimates
+_NOT_XML = re.compile("[\x00-\x08\x0b\x0c\x0e-\x1f\x7f\ufffe\uffff]")
+_SUPERSCRIPT = str.maketrans("-0123456789", "⁻⁰¹²³⁴⁵⁶⁷⁸⁹")
+
+
+def _text(value) -> str:
+    """User text made safe inside SVG/XML: escaped, control characters dropped."""
+    return html.escape(_NOT_XML.sub("", str(value)), quote=True)
+
+
+def _coordinate(value: float) -> str:
+    text = f"{value:.1f}"
+    return "0.0" if text == "-0.0" else text
+
+
+def nice_ticks(low: float, high: float, target: int = 6) -> list[float]:
+    """Round-number ticks covering [low, high]: steps of 1, 2 or 5 times a power of ten.
+
+    Parameters
+    ----------
+    low, high : float
+        Data range, low < high.
+    target : int
+        About how many intervals to aim for.
+
+    Returns
+    -------
+    list of float
+        Ticks from a multiple of the step at or below `low` to one at or above
+        `high`.
+
+    References
+    ----------
+    Heckbert, P. S. (1990), "Nice numbers for graph labels", in Graphics Gems,
+    Academic Press, pp. 61-63 (the 1-2-5 rule).
+
+    Examples
+    --------
+    >>> nice_ticks(0.0, 61116.0)
+    [0.0, 20000.0, 40000.0, 60000.0, 80000.0]
+    """
+    span = high - low
+    raw = span / max(target, 1)
+    magnitude = 10.0 ** math.floor(math.log10(raw))
+    step = next(m * magnitude for m in (1.0, 2.0, 5.0, 10.0) if m * magnitude >= raw * 0.999)
+    first = math.floor(low / step + 1e-9)
+    last = math.ceil(high / step - 1e-9)
+    digits = max(0, -math.floor(math.log10(step))) + 2
+    ticks = [round(k * step, digits) for k in range(first, last + 1)]
+    return [0.0 if t == 0 else t for t in ticks]
+
+
+def log_ticks(low: float, high: float) -> tuple[list[float], list[float]]:
+    """Labelled and minor ticks of a logarithmic axis covering [low, high] (both > 0).
+
+    Labels fall on powers of ten (every second or third one over many decades);
+    within a single decade 2 and 5 times the power are labelled as well.
+
+    Returns
+    -------
+    (list of float, list of float)
+        Labelled ticks, and unlabelled minor ticks.
+    """
+    first = math.floor(math.log10(low) + 1e-9)
+    last = math.ceil(math.log10(high) - 1e-9)
+    if last <= first:
+        last = first + 1
+    decades = last - first
+    every = 1 if decades <= 8 else math.ceil(decades / 8)
+    major = [10.0 ** k for k in range(first, last + 1) if (k - first) % every == 0]
+    minor = []
+    if decades <= 6:
+        minor = [m * 10.0 ** k for k in range(first, last) for m in range(2, 10)]
+    if decades == 1:
+        extra = [m * 10.0 ** first for m in (2.0, 5.0)]
+        major = sorted(major + extra)
+        minor = [m for m in minor if m not in extra]
+    return major, minor
+
+
+def tick_label(value: float, step: float | None = None) -> str:
+    """A tick value as people read it: 0.05, 250, 60,000, 2×10⁻⁷.
+
+    Parameters
+    ----------
+    value : float
+    step : float, optional
+        Distance between linear ticks, which sets the decimals shown.
+    """
+    if value == 0:
+        return "0"
+    size = abs(value)
+    if 1e-3 <= size < 1e6:
+        if step is not None:
+            decimals = max(0, -math.floor(math.log10(step) + 1e-9))
+            return f"{value:,.{decimals}f}"
+        text = f"{size:.6g}"
+        if "e" in text:
+            text = f"{size:.6f}".rstrip("0").rstrip(".")
+        whole, _, fraction = text.partition(".")
+        text = f"{int(whole):,}" + ("." + fraction if fraction else "")
+        return ("-" if value < 0 else "") + text
+    mantissa, exponent = f"{value:.2e}".split("e")
+    mantissa = mantissa.rstrip("0").rstrip(".")
+    power = "10" + str(int(exponent)).translate(_SUPERSCRIPT)
+    return power if mantissa == "1" else f"{mantissa}×{power}"
+
+
+def _thin(x: np.ndarray, ys: list[np.ndarray], cap: int) -> np.ndarray:
+    """Indices to draw: all of them, or each bucket's extremes over every series."""
+    n = x.size
+    if n <= cap:
+        return np.arange(n)
+    buckets = max(1, cap // 2 - 1)
+    edges = np.linspace(0, n, buckets + 1).astype(int)
+    keep = {0, n - 1}
+    for start, stop in zip(edges[:-1], edges[1:]):
+        if stop <= start:
+            continue
+        keep.add(int(start))
+        for y in ys:
+            part = y[start:stop]
+            finite = np.isfinite(part)
+            if finite.any():
+                where = np.flatnonzero(finite)
+                keep.add(int(start + where[np.argmin(part[finite])]))
+                keep.add(int(start + where[np.argmax(part[finite])]))
+    return np.array(sorted(keep))
+
+
+def _validate(x, series, hlines, width, height):
+    xs = np.asarray(x, dtype=float)
+    if xs.ndim != 1 or xs.size == 0:
+        raise InputError("x", "give a one-dimensional sequence of at least one number")
+    if not isinstance(series, dict) or not series:
+        raise InputError("series", "give a mapping of label -> y values with at least one series")
+    ys = {}
+    for label, values in series.items():
+        try:
+            y = np.asarray(values, dtype=float)
+        except (TypeError, ValueError):
+            raise InputError("series", f"the values of {str(label)!r} are not numbers") from None
+        if y.shape != xs.shape:
+            raise InputError("series", f"{str(label)!r} has {y.size} values for {xs.size} x "
+                             "values; give one y value per x value")
+        ys[str(label)] = y
+    lines = {}
+    for label, value in (hlines or {}).items():
+        try:
+            v = float(value)
+        except (TypeError, ValueError):
+            raise InputError("hlines", f"the level of {str(label)!r} is not a number") from None
+        if math.isfinite(v):
+            lines[str(label)] = v
+    if not (200 <= width <= 4000 and 150 <= height <= 4000):
+        raise InputError("width", "the plot must be 200-4000 px wide and 150-4000 px high")
+    return xs, ys, lines
+
+
+def _legend_rows(labels: list[str], usable: float, font: float) -> list[list[tuple[str, float]]]:
+    """Legend entries wrapped into rows that fit the width; (label, entry width)."""
+    rows: list[list[tuple[str, float]]] = [[]]
+    used = 0.0
+    for label in labels:
+        w = 34 + len(label) * font * _CHAR_WIDTH + 18
+        if rows[-1] and used + w > usable:
+            rows.append([])
+            used = 0.0
+        rows[-1].append((label, w))
+        used += w
+    return rows
+
+
+def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
+                  hlines: dict | None = None, log_y: bool = False, width: int = 720,
+                  height: int = 360) -> str:
+    """A line plot as a self-contained SVG document.
+
+    Parameters
+    ----------
+    x : array_like
+        Shared x values of every series, one-dimensional.
+    series : dict
+        Label -> y values, one per x value. NaN breaks a line; on a logarithmic
+        axis, values at or below zero (or below the lowest decade shown) run off
+        the bottom of the plot.
+    x_label, y_label, title : str
+        Axis labels with their units, and the plot title.
+    hlines : dict, optional
+        Label -> y value of horizontal dashed limit lines, labelled in place.
+        Their values are kept inside the y range.
+    log_y : bool
+        Logarithmic y axis (at most `MAX_LOG_DECADES` decades below the top), for
+        concentrations that span decades.
+    width, height : int
+        Size. [px]
+
+    Returns
+    -------
+    str
+        SVG markup (no XML declaration), the same for the same input.
+
+    Raises
+    ------
+    InputError
+        "x", "series", "hlines" or "width", saying what is wrong.
+
+    Examples
+    --------
+    >>> svg = line_plot_svg([0, 1, 2], {"room": [0, 5, 3]}, x_label="time [min]",
+    ...                     y_label="ppm", title="A & B", hlines={"TWA 4 ppm": 4})
+    >>> svg.startswith("<svg") and "A &amp; B" in svg
+    True
+    """
+    xs, ys, lines = _validate(x, series, hlines, width, height)
+    font = 12.0
+    labels = list(ys)
+    left, right, top = 84.0, 24.0, 42.0
+    rows = _legend_rows(labels, width - left - right, font)
+    bottom = 52.0 + 18.0 * len(rows)
+    plot_w = width - left - right
+    plot_h = height - top - bottom
+    if plot_h < 60:
+        raise InputError("height", f"{height} px leaves no room for the plot and a legend of "
+                         f"{len(labels)} series; make it taller")
+
+    # x range and scale
+    finite_x = xs[np.isfinite(xs)]
+    if finite_x.size == 0:
+        x_lo, x_hi = 0.0, 1.0
+    else:
+        x_lo, x_hi = float(finite_x.min()), float(finite_x.max())
+    if x_hi <= x_lo:
+        pad = abs(x_lo) * 0.5 or 1.0
+        x_lo, x_hi = x_lo - pad, x_hi + pad
+    x_ticks = nice_ticks(x_lo, x_hi, 7)
+    x_step = x_ticks[1] - x_ticks[0] if len(x_ticks) > 1 else 1.0
+    x_ticks = [t for t in x_ticks if x_lo - 1e-9 * abs(x_step) <= t <= x_hi + 1e-9 * abs(x_step)]
+
+    def px(value):
+        return left + (value - x_lo) / (x_hi - x_lo) * plot_w
+
+    # y range and scale
+    values = np.concatenate([y[np.isfinite(y) & np.isfinite(xs)] for y in ys.values()]
+                            + [np.array(list(lines.values()), dtype=float)])
+    note = ""
+    y_minor: list[float] = []
+    if log_y:
+        positive = values[values > 0]
+        if positive.size == 0:
+            y_lo, y_hi = 1.0, 10.0
+            note = "no value above zero to show on a logarithmic axis"
+        else:
+            y_hi = float(positive.max())
+            y_lo = max(float(positive.min()), y_hi / 10.0 ** MAX_LOG_DECADES)
+        y_ticks, y_minor = log_ticks(y_lo * 0.999, y_hi * 1.001)
+        y_lo = 10.0 ** math.floor(math.log10(y_ticks[0]) + 1e-9)
+        y_hi = 10.0 ** math.ceil(math.log10(y_ticks[-1]) - 1e-9)
+        span = math.log10(y_hi) - math.log10(y_lo)
+
+        def py(value):
+            if not value > 0:
+                return top + plot_h + 12.0
+            return top + plot_h - (math.log10(value) - math.log10(y_lo)) / span * plot_h
+        labelled = [(t, tick_label(t)) for t in y_ticks]
+    else:
+        if values.size == 0:
+            y_lo, y_hi = 0.0, 1.0
+            note = "no finite value to show"
+        else:
+            y_lo, y_hi = float(values.min()), float(values.max())
+            if y_lo > 0 and y_lo < 0.5 * y_hi:
+                y_lo = 0.0  # concentrations read best from zero
+        if y_hi <= y_lo:
+            pad = abs(y_lo) * 0.5 or 1.0
+            y_lo, y_hi = y_lo - pad, y_hi + pad
+        margin = 0.02 * (y_hi - y_lo)
+        y_ticks = nice_ticks(y_lo - (margin if y_lo != 0 else 0.0), y_hi + margin, 5)
+        y_lo, y_hi = y_ticks[0], y_ticks[-1]
+        y_step = y_ticks[1] - y_ticks[0]
+
+        def py(value):
+            return top + plot_h - (value - y_lo) / (y_hi - y_lo) * plot_h
+        labelled = [(t, tick_label(t, y_step)) for t in y_ticks]
+
+    digest = hashlib.sha1()
+    for part in (title, x_label, y_label, repr(sorted(lines.items())), repr(labels),
+                 str(log_y), f"{width}x{height}"):
+        digest.update(part.encode("utf-8", "replace"))
+    digest.update(xs.tobytes())
+    for y in ys.values():
+        digest.update(y.tobytes())
+    clip_id = "plotarea-" + digest.hexdigest()[:12]
+
+    out = [
+        f'<svg xmlns="http://www.w3.org/2000/svg" width="{width}" height="{height}" '
+        f'viewBox="0 0 {width} {height}" role="img" font-family="{_text(_FONT)}" '
+        f'font-size="{font:g}">',
+        f"<title>{_text(title)}</title>",
+        f"<desc>{_text(y_label)} against {_text(x_label)}"
+        + ("; logarithmic y axis" if log_y else "") + "</desc>",
+        f'<rect x="0" y="0" width="{width}" height="{height}" fill="#ffffff"/>',
+        f'<defs><clipPath id="{clip_id}"><rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
+        f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}"/></clipPath></defs>',
+        f'<text x="{_coordinate(left)}" y="24" font-size="14" font-weight="600" '
+        f'fill="#1a1a1a">{_text(title)}</text>',
+    ]
+    # grid and ticks
+    grid = ['<g stroke="#d9d9d9" stroke-width="1">']
+    ticks = ['<g fill="#333333">']
+    for t, text in labelled:
+        y = py(t)
+        grid.append(f'<line x1="{_coordinate(left)}" y1="{_coordinate(y)}" '
+                    f'x2="{_coordinate(left + plot_w)}" y2="{_coordinate(y)}"/>')
+        ticks.append(f'<text x="{_coordinate(left - 8)}" y="{_coordinate(y + 4)}" '
+                     f'text-anchor="end">{_text(text)}</text>')
+    for t in y_minor:
+        y = py(t)
+        if top - 0.5 <= y <= top + plot_h + 0.5:
+            grid.append(f'<line x1="{_coordinate(left - 3)}" y1="{_coordinate(y)}" '
+                        f'x2="{_coordinate(left)}" y2="{_coordinate(y)}" stroke="#555555"/>')
+    for t in x_ticks:
+        x_px = px(t)
+        grid.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top)}" '
+                    f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}"/>')
+        ticks.append(f'<text x="{_coordinate(x_px)}" y="{_coordinate(top + plot_h + 17)}" '
+                     f'text-anchor="middle">{_text(tick_label(t, x_step))}</text>')
+    grid.append("</g>")
+    ticks.append("</g>")
+    out += grid + ticks
+    out.append(f'<rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
+               f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}" fill="none" '
+               'stroke="#333333" stroke-width="1"/>')
+    out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
+               f'y="{_coordinate(top + plot_h + 36)}" text-anchor="middle" '
+               f'fill="#1a1a1a">{_text(x_label)}</text>')
+    out.append(f'<text transform="translate(18 {_coordinate(top + plot_h / 2)}) rotate(-90)" '
+               f'text-anchor="middle" fill="#1a1a1a">{_text(y_label)}</text>')
+
+    # limit lines, labels nudged apart so they stay legible
+    colour, dash, stroke = LIMIT_STYLE
+    placed = sorted(((py(v), label) for label, v in lines.items()), key=lambda item: -item[0])
+    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}" '
+               f'stroke-dasharray="{dash}">')
+    for y, _ in placed:
+        out.append(f'<line x1="{_coordinate(left)}" y1="{_coordinate(y)}" '
+                   f'x2="{_coordinate(left + plot_w)}" y2="{_coordinate(y)}"/>')
+    out.append("</g>")
+    out.append(f'<g fill="{colour}" font-size="11" text-anchor="end">')
+    boxes: list[tuple[float, float, float]] = []  # (left, right, baseline) of labels placed
+    for y, label in placed:
+        baseline = max(min(y - 4.0, top + plot_h - 4.0), top + 11.0)
+        wide = len(label) * 11.0 * _CHAR_WIDTH
+        end = left + plot_w - 4.0
+        for _ in range(len(boxes) + 1):
+            clash = [b for b in boxes if abs(b[2] - baseline) < 12.0 and b[0] < end
+                     and end - wide < b[1]]
+            if not clash:
+                break
+            end = min(b[0] for b in clash) - 10.0
+        if end - wide < left + 4.0:  # no room beside the others: stack it above them
+            end = left + plot_w - 4.0
+            baseline = max(top + 11.0, min(b[2] for b in boxes) - 13.0)
+        boxes.append((end - wide, end, baseline))
+        out.append(f'<text x="{_coordinate(end)}" y="{_coordinate(baseline)}" '
+                   f'paint-order="stroke" stroke="#ffffff" stroke-width="3">'
+                   f"{_text(label)}</text>")
+    out.append("</g>")
+
+    # series
+    keep = _thin(xs, list(ys.values()), MAX_PLOT_POINTS)
+    out.append(f'<g clip-path="url(#{clip_id})" fill="none" stroke-width="2.2" '
+               'stroke-linejoin="round" stroke-linecap="round">')
+    for k, (label, y) in enumerate(ys.items()):
+        colour_k, dash_k = SERIES_STYLES[k % len(SERIES_STYLES)]
+        segments, current = [], []
+        for i in keep:
+            xv, yv = xs[i], y[i]
+            if not math.isfinite(xv) or math.isnan(yv) or (not log_y and not math.isfinite(yv)):
+                if current:
+                    segments.append(current)
+                current = []
+                continue
+            yp = py(yv) if not (log_y and yv == math.inf) else top - 12.0
+            yp = min(yp, top + plot_h + 12.0)
+            current.append(f"{_coordinate(px(xv))},{_coordinate(yp)}")
+        if current:
+            segments.append(current)
+        if not segments:
+            continue
+        d = " ".join("M" + " L".join(seg) if len(seg) > 1 else f"M{seg[0]} l0.01,0"
+                     for seg in segments)
+        dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
+        out.append(f'<path d="{d}" stroke="{colour_k}"{dash_attr}>'
+                   f"<title>{_text(label)}</title></path>")
+    out.append("</g>")
+
+    # legend
+    out.append(f'<g font-size="{font:g}" fill="#1a1a1a">')
+    legend_top = top + plot_h + 52.0
+    index = 0
+    for r, row in enumerate(rows):
+        x0 = left
+        y0 = legend_top + 18.0 * r
+        for label, w in row:
+            colour_k, dash_k = SERIES_STYLES[index % len(SERIES_STYLES)]
+            dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
+            out.append(f'<line x1="{_coordinate(x0)}" y1="{_coordinate(y0 - 4)}" '
+                       f'x2="{_coordinate(x0 + 28)}" y2="{_coordinate(y0 - 4)}" '
+                       f'stroke="{colour_k}" stroke-width="2.2"{dash_attr}/>')
+            out.append(f'<text x="{_coordinate(x0 + 34)}" y="{_coordinate(y0)}">'
+                       f"{_text(label)}</text>")
+            x0 += w
+            index += 1
+    out.append("</g>")
+    if note:
+        out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
+                   f'y="{_coordinate(top + plot_h / 2)}" text-anchor="middle" '
+                   f'fill="#555555">{_text(note)}</text>')
+    out.append("</svg>")
+    return "\n".join(out) + "\n"
