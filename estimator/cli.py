@@ -146,7 +146,13 @@ def _cmd_run(args) -> int:
 
     result = run_scenario(_load(args.scenario))
     fmt = args.format or _format_from_path(args.output) or "text"
-    _out(_render(result, fmt), args.output)
+    if args.output and fmt != "text":
+        from .report import write_report
+
+        write_report(result, args.output, fmt)
+        print(f"wrote {args.output}", file=sys.stderr)
+    else:
+        _out(_render(result, fmt), args.output)
     return _exit(result, args)
 
 
