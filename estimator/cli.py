@@ -248,7 +248,8 @@ def _cmd_sweep(args) -> int:
 
 
 def _cmd_inventory(args) -> int:
-    from .inventory import screen_inventory, write_inventory_csv
+    from .inventory import screen_inventory, sorted_by_concern, write_inventory_csv
+    from .limits import format_ppm
     from .units import parse_quantity
 
     pressure = parse_quantity(args.pressure, "pressure", "--pressure", default_unit="Pa")
@@ -256,16 +257,34 @@ def _cmd_inventory(args) -> int:
     if args.output:
         write_inventory_csv(result, args.output)
         print(f"wrote {args.output}", file=sys.stderr)
-    else:
-        import io
+    table = sorted_by_concern(result.table)
+    lines = [f"{'rank':>4}  {'line':>4}  {'container':<22} {'liquid':<26} {'worst ppm':>10} "
+             f"{'% LFL':>7} {'O2 %':>5} {'concern':>8}  status"]
 
-        buffer = io.StringIO()
-        table = result.table if hasattr(result, "table") else result.frame
-        table.to_string(buffer, max_rows=60, max_colwidth=40)
-        print(buffer.getvalue())
-    summary = result.summary
-    print(f"\n{summary}" if not isinstance(summary, dict) else
-          "\n" + ", ".join(f"{k}: {v}" for k, v in summary.items()))
+    def cell(value, fmt):
+        try:
+            number = float(value)
+        except (TypeError, ValueError):
+            return "-"
+        return "-" if number != number else fmt(number)
+
+    for _, row in table.iterrows():
+        rank = cell(row.get("concern_rank"), lambda v: f"{v:.0f}")
+        lines.append(
+            f"{rank:>4}  {row['source_line']:>4}  {str(row.get('container', ''))[:22]:<22} "
+            f"{str(row.get('liquid', ''))[:26]:<26} "
+            f"{cell(row['worst_case_ppm'], format_ppm):>10} "
+            f"{cell(row['worst_case_percent_lfl'], lambda v: f'{v:.3g}'):>7} "
+            f"{cell(row['worst_case_oxygen_percent'], lambda v: f'{v:.3g}'):>5} "
+            f"{cell(row['concern'], lambda v: f'{v:.3g}'):>8}  {row['status']}")
+        if row["status"] != "ok" and row.get("reason"):
+            lines.append(textwrap.fill(str(row["reason"]), width=78, initial_indent="        ",
+                                       subsequent_indent="        "))
+    counts = ", ".join(f"{v} {k}" for k, v in result.summary.counts.items())
+    lines += ["", f"{result.summary.rows} row(s): {counts}; {result.summary.at_or_above_alarm} "
+              "at or above a limit or alarm in the worst case (concern >= 1)."]
+    lines += [f"note: {w}" for w in result.warnings]
+    print("\n".join(lines))
     print(_cautions_block())
     return EXIT_OK
 

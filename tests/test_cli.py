@@ -109,3 +109,13 @@ def test_console_script_module_entry():
     done = subprocess.run([sys.executable, "-m", "estimator", "sweep", "toluene", "--from",
                            "nan degC"], capture_output=True, text=True, timeout=120)
     assert done.returncode == 2 and "NaN" in done.stderr and "Traceback" not in done.stderr
+
+
+def test_inventory_screen_and_export(capsys, tmp_path):
+    """inventory prints rows by concern with bad rows explained, and exports CSV."""
+    source = ROOT / "tests" / "data" / "inventory_example.csv"
+    target = tmp_path / "screened.csv"
+    code, out, _ = run(capsys, "inventory", str(source), "-o", str(target))
+    assert code == 0
+    assert "did you mean 'toluene'" in out and "row(s):" in out and CAUTIONS[0] in out
+    assert target.exists() and "Quarry Lane T-101" in target.read_text(encoding="utf-8-sig")
