@@ -546,7 +546,7 @@ def _tank_monte_carlo(scenario, tank, result):
         raise InputError("uncertain", "probabilistic screening of water with dissolved "
                          "volatiles is not available")
     mc = scenario.monte_carlo
-    return headspace_monte_carlo(
+    return (), headspace_monte_carlo(
         result.headspace.liquid, inputs.get("temperature", tank["temperature"]),
         result.pressure, scenario.limits, n=mc["samples"], seed=mc["seed"],
         include_method_uncertainty=mc["method_uncertainty"],
@@ -590,32 +590,26 @@ def run_scenario(scenario: Scenario) -> ScenarioResult:
     An item that cannot be computed is reported in `errors` with the reason; the
     others are still computed.
     """
-    tanks, spills, errors = [], [], []
+    errors = []
     uncertain = {u["item"] for u in scenario.uncertain}
-    for tank in scenario.tanks:
+
+    def screen(kind, item, deterministic, probabilistic):
         try:
-            result = screen_tank(scenario, tank)
+            result = deterministic(scenario, item)
         except UllageError as exc:
-            errors.append((f"tank {tank['name']}", str(exc)))
-            continue
-        if tank["name"] in uncertain:
+            errors.append((f"{kind} {item['name']}", str(exc)))
+            return None
+        if item["name"] in uncertain:
             try:
-                result = _with_monte_carlo(result, _tank_monte_carlo(scenario, tank, result))
-            except UllageError as exc:
-                errors.append((f"tank {tank['name']} (probabilistic)", str(exc)))
-        tanks.append(result)
-    for spill in scenario.spills:
-        try:
-            result = _spill(scenario, spill)
-        except UllageError as exc:
-            errors.append((f"spill {spill['name']}", str(exc)))
-            continue
-        if spill["name"] in uncertain:
-            try:
-                notes, mc = _spill_monte_carlo(scenario, spill, result)
+                notes, mc = probabilistic(scenario, item, result)
                 result = _with_monte_carlo(result, mc, notes)
             except UllageError as exc:
-                errors.append((f"spill {spill['name']} (probabilistic)", str(exc)))
-        spills.append(result)
+                errors.append((f"{kind} {item['name']} (probabilistic)", str(exc)))
+        return result
+
+    tanks = [r for r in (screen("tank", t, screen_tank, _tank_monte_carlo)
+                         for t in scenario.tanks) if r is not None]
+    spills = [r for r in (screen("spill", sp, _spill, _spill_monte_carlo)
+                          for sp in scenario.spills) if r is not None]
     return ScenarioResult(scenario, tuple(tanks), tuple(spills), tuple(errors),
                           scenario.assumptions)
