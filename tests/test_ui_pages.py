@@ -1,0 +1,430 @@
+"""Browser pages, run headless with Streamlit's AppTest: numbers shown equal the core's,
+bad input shows an error and never a traceback, the cautions are on every page.
+
+These are wrapper tests: the physics is checked against outside sources in the core's
+own test files; here the check is that a page shows what the core computes for the
+same inputs, and behaves on bad input.
+"""
+
+import sys
+from pathlib import Path
+
+import pytest
+
+pytest.importorskip("streamlit")
+
+ROOT = Path(__file__).resolve().parents[1]
+if str(ROOT) not in sys.path:
+    sys.path.insert(0, str(ROOT))
+
+from streamlit import config  # noqa: E402
+from streamlit.testing.v1 import AppTest  # noqa: E402
+
+from estimator import CAUTIONS  # noqa: E402
+from estimator.headspace import barometric_pressure, headspace  # noqa: E402
+from estimator.inventory import screen_inventory  # noqa: E402
+from estimator.limits import format_ppm  # noqa: E402
+from estimator.scenario import dumps_scenario, load_scenario, loads_scenario  # noqa: E402
+from estimator.screening import run_scenario  # noqa: E402
+
+SCREENS = ROOT / "ui" / "screens"
+DEMOS = sorted((ROOT / "scenarios").glob("*.toml"))
+WAREHOUSE = ROOT / "scenarios" / "warehouse-drum-spill.toml"
+PAGES = ["tank.py", "spill_indoors.py", "spill_outdoors.py", "inventory.py", "compare.py",
+         "limits.py"]
+#: The first demo's thinner, as its file gives it (mass fractions).
+THINNER = {"toluene": 0.45, "o-xylene": 0.25, "n-butyl acetate": 0.20, "MEK": 0.10}
+#: The first demo's site elevation. [m]
+DEMO_ELEVATION = 210.0
+
+config.set_option("browser.gatherUsageStats", False)
+
+
+def page(name: str) -> AppTest:
+    at = AppTest.from_file(str(SCREENS / name), default_timeout=30)
+    return at.run()
+
+
+def metric(at: AppTest, label: str) -> str:
+    for m in at.metric:
+        if m.label == label:
+            return m.value
+    raise AssertionError(f"no metric {label!r} among {[m.label for m in at.metric]}")
+
+
+def errors(at: AppTest) -> str:
+    return "\n".join(e.value for e in at.error)
+
+
+def button(at: AppTest, label: str):
+    return next(b for b in at.button if b.label == label)
+
+
+def load_demo(at: AppTest, path: Path) -> AppTest:
+    at.selectbox(key="w:demo").select(path.name)
+    button(at, "Load this demo").click()
+    return at.run()
+
+
+def test_first_demo_is_on_screen_at_start():
+    """The tank page opens with the first demo scenario's tank and its result."""
+    at = page("tank.py")
+    assert not at.exception
+    first = load_scenario(DEMOS[0])
+    assert at.number_input(key="w:tank.temperature").value == pytest.approx(
+        first.tanks[0]["temperature"] - 273.15)
+    assert metric(at, "Headspace, all vapour").endswith("ppm")
+
+
+def test_tank_headspace_shown_equals_core():
+    """After a temperature change the headspace total shown is the core's, formatted alike."""
+    at = page("tank.py")
+    at.number_input(key="w:tank.temperature").set_value(40.0)
+    at.run()
+    assert not at.exception
+    core = headspace(THINNER, 313.15, barometric_pressure(DEMO_ELEVATION), basis="mass")
+    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Flammable vapour [% of LFL]") == f"{float(core.percent_lfl):.3g} %"
+    assert metric(at, "Oxygen left") == f"{float(core.oxygen_percent):.3g} %"
+
+
+def test_units_switch_converts_inputs_and_keeps_the_result():
+    """US customary units show the temperature in degF; the result stays the same."""
+    at = page("tank.py")
+    before = metric(at, "Headspace, all vapour")
+    at.toggle(key="w:units").set_value(True)
+    at.run()
+    assert not at.exception
+    assert at.number_input(key="w:tank.temperature").value == pytest.approx(93.2)
+    assert "[°F]" in at.number_input(key="w:tank.temperature").label
+    assert metric(at, "Headspace, all vapour") == before
+
+
+def test_substance_search_by_synonym_selects_it():
+    """Typing a synonym in the search box selects the substance, and the result is its own."""
+    at = page("tank.py")
+    at.radio(key="w:tank.kind").set_value("table")
+    at.run()
+    at.text_input(key="w:tank.find").input("MEK")
+    at.run()
+    assert not at.exception
+    assert at.selectbox(key="w:tank.substance").value == "methyl-ethyl-ketone"
+    core = headspace("MEK", 307.15, barometric_pressure(DEMO_ELEVATION))
+    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+
+
+def test_close_matches_are_offered():
+    """A misspelt name offers close matches as buttons."""
+    at = page("tank.py")
+    at.radio(key="w:tank.kind").set_value("table")
+    at.run()
+    at.text_input(key="w:tank.find").input("tolulene")
+    at.run()
+    assert not at.exception
+    assert any("Toluene" in b.label for b in at.button)
+
+
+def test_unknown_substance_shows_an_error():
+    """A name that matches nothing shows an error, not an exception."""
+    at = page("tank.py")
+    at.radio(key="w:tank.kind").set_value("table")
+    at.run()
+    at.text_input(key="w:tank.find").input("qqzzxv")
+    at.run()
+    assert not at.exception
+    assert "no substance is known as 'qqzzxv'" in errors(at)
+
+
+def test_temperature_above_critical_shows_an_error():
+    """A liquid temperature above the critical point is refused with what to do."""
+    at = page("tank.py")
+    at.radio(key="w:tank.kind").set_value("table")
+    at.run()
+    at.selectbox(key="w:tank.substance").select("acetone")
+    at.number_input(key="w:tank.temperature").set_value(300.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "critical temperature" in text and "Temperature" in text
+    assert not at.metric
+
+
+def test_own_substance_from_sds_values():
+    """A substance defined from SDS values gives the core's headspace for it."""
+    from estimator.substances import user_substance
+
+    at = page("tank.py")
+    at.radio(key="w:tank.kind").set_value("own")
+    at.run()
+    at.text_input(key="w:sds.name").input("Solvent X")
+    at.number_input(key="w:sds.molar_mass").set_value(100.0)
+    at.number_input(key="w:sds.boiling").set_value(110.0)
+    at.number_input(key="w:sds.vp").set_value(3.0)
+    at.number_input(key="w:sds.vp_temperature").set_value(20.0)
+    at.number_input(key="w:sds.lfl").set_value(1.1)
+    at.number_input(key="w:sds.ufl").set_value(7.0)
+    at.number_input(key="w:tank.temperature").set_value(30.0)
+    at.run()
+    assert not at.exception, at.exception
+    sub = user_substance("Solvent X", 0.100, 383.15, [(293.15, 3000.0)],
+                         lower_flammability_limit=0.011, upper_flammability_limit=0.07)
+    core = headspace(sub, 303.15, barometric_pressure(DEMO_ELEVATION))
+    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+
+
+def test_limit_without_source_shows_an_error():
+    """A limit row with no source is refused, with an error naming the row."""
+    at = page("limits.py")
+    editor = at.data_editor[0]
+    at.session_state[editor.key] = {"edited_rows": {"0": {"source": ""}}, "added_rows": [],
+                                    "deleted_rows": []}
+    at.run()
+    assert not at.exception
+    assert "say where the limit comes from" in errors(at)
+    assert "row 1" in errors(at)
+
+
+def test_alarm_levels_default_to_osha_and_refuse_nonsense():
+    """The alarm levels show the OSHA 29 CFR 1910.146 defaults; a low above high is refused."""
+    at = page("limits.py")
+    assert at.number_input(key="w:alarm.percent_lfl").value == 10.0
+    assert at.number_input(key="w:alarm.oxygen_low").value == 19.5
+    assert at.number_input(key="w:alarm.oxygen_high").value == 23.5
+    assert any("1910.146" in c.value for c in at.caption)
+    at.number_input(key="w:alarm.oxygen_low").set_value(25.0)
+    at.run()
+    assert not at.exception
+    assert "oxygen" in errors(at).lower()
+
+
+def test_malformed_scenario_upload_shows_an_error():
+    """A scenario file that is not TOML is refused with the reason; the case is kept."""
+    at = page("tank.py")
+    before = metric(at, "Headspace, all vapour")
+    at.file_uploader(key="up:scenario").set_value(
+        ("broken.toml", b"[scenario\ntitle = 'x'\n", "application/toml"))
+    at.run()
+    assert not at.exception
+    assert "broken.toml was not loaded" in errors(at)
+    assert "not valid TOML" in errors(at)
+    assert metric(at, "Headspace, all vapour") == before
+
+
+def test_oversized_scenario_upload_is_refused():
+    """A scenario upload above 1 MB is refused before it is parsed."""
+    at = page("tank.py")
+    at.file_uploader(key="up:scenario").set_value(
+        ("huge.toml", b"#" * 1_100_000, "application/toml"))
+    at.run()
+    assert not at.exception
+    assert "at most 1,000,000 bytes" in errors(at)
+
+
+def test_scenario_upload_is_loaded():
+    """A good scenario file puts its indoor spill on the indoor page."""
+    at = page("spill_indoors.py")
+    at.file_uploader(key="up:scenario").set_value(
+        (WAREHOUSE.name, WAREHOUSE.read_bytes(), "application/toml"))
+    at.run()
+    assert not at.exception
+    assert at.text_input(key="w:indoor.name").value == "punctured drum"
+
+
+def test_indoor_spill_shown_equals_core():
+    """The indoor page shows the peak and 8-h TWA the core computes for the demo spill."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    assert not at.exception
+    spill = next(s for s in run_scenario(load_scenario(WAREHOUSE)).spills if s.indoor)
+    near = next(e for e in spill.exposures if e.zone == "near field")
+    assert metric(at, "Peak, near field") == f"{format_ppm(near.peak)} ppm"
+    assert metric(at, "8-h TWA") == f"{format_ppm(near.twa)} ppm"
+
+
+def test_fan_failure_changes_the_indoor_result():
+    """No ventilation (fan off) is accepted and raises the 8-h TWA."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    before = metric(at, "8-h TWA")
+    at.number_input(key="w:room.air_changes").set_value(0.0)
+    at.run()
+    assert not at.exception
+    after = metric(at, "8-h TWA")
+    assert float(after.split()[0].replace(",", "")) > float(before.split()[0].replace(",", ""))
+
+
+def test_outdoor_spill_shown_equals_core():
+    """The outdoor page shows the source strength and stability the core computes."""
+    at = page("spill_outdoors.py")
+    load_demo(at, WAREHOUSE)
+    assert not at.exception
+    spill = next(s for s in run_scenario(load_scenario(WAREHOUSE)).spills if s.outdoor)
+    rate = 1000.0 * float(spill.outdoor.emission_rate.sum())
+    assert metric(at, "Source strength") == f"{rate:.3g} g/s"
+    assert metric(at, "Stability class") == spill.outdoor.stability
+
+
+def test_bad_receptor_list_shows_an_error():
+    """Downwind distances that are not numbers are refused next to the box."""
+    at = page("spill_outdoors.py")
+    at.text_input(key="w:weather.receptors").input("100, far")
+    at.run()
+    assert not at.exception
+    assert "not a list of numbers" in errors(at)
+
+
+def test_inventory_example_shown_equals_core():
+    """The example inventory's counts are those of the core's screening of the file."""
+    from ui.case import EXAMPLE_INVENTORY
+
+    at = page("inventory.py")
+    at.toggle(key="w:inv.example").set_value(True)
+    at.run()
+    assert not at.exception
+    core = screen_inventory(EXAMPLE_INVENTORY)
+    assert metric(at, "Rows screened") == f"{core.summary.rows:,}"
+    assert metric(at, "At or above a limit or alarm") == f"{core.summary.at_or_above_alarm:,}"
+    assert metric(at, "Not computed (errors)") == f"{core.summary.counts['error']:,}"
+    assert "unknown solvent" in errors(at)
+
+
+def test_inventory_upload_without_required_columns_shows_an_error():
+    """An inventory file without the required columns is refused with the reason."""
+    at = page("inventory.py")
+    at.file_uploader(key="up:inventory").set_value(
+        ("plant.csv", b"tank,stuff\nA,toluene\n", "text/csv"))
+    at.run()
+    assert not at.exception
+    assert errors(at)
+
+
+def test_compare_page_shows_both_cases_and_the_difference():
+    """Case B starts 10 degrees hotter; both numbers are the core's, the change is in words."""
+    at = page("compare.py")
+    assert not at.exception
+    shown = [m.value for m in at.metric if m.label == "Headspace, all vapour"]
+    pressure = barometric_pressure(DEMO_ELEVATION)
+    a = headspace(THINNER, 307.15, pressure, basis="mass")
+    b = headspace(THINNER, 317.15, pressure, basis="mass")
+    assert shown == [f"{format_ppm(a.total_ppm)} ppm", f"{format_ppm(b.total_ppm)} ppm"]
+    text = "\n".join(m.value for m in at.markdown)
+    assert "tank temperature" in text and "44.0 degC" in text
+
+
+def test_compare_page_other_solvent():
+    """Choosing another solvent for case B names the change and runs it."""
+    at = page("compare.py")
+    at.selectbox(key="w:cmp.substance").select("acetone")
+    at.run()
+    assert not at.exception
+    text = "\n".join(m.value for m in at.markdown)
+    assert "Acetone (case B)" in text
+
+
+@pytest.mark.parametrize("name", PAGES)
+def test_cautions_on_every_page(name):
+    """Every page shows every caution, unfolded, and runs without an exception."""
+    at = page(name)
+    assert not at.exception
+    shown = "\n".join(m.value for m in at.markdown)
+    for caution in CAUTIONS:
+        assert caution in shown
+    assert not at.expander or all(caution not in "\n".join(
+        m.value for e in at.expander for m in e.markdown) for caution in CAUTIONS)
+
+
+def test_app_navigates_every_page():
+    """The entry script's navigation reaches every page without an exception."""
+    at = AppTest.from_file(str(ROOT / "ui" / "app.py"), default_timeout=30).run()
+    assert not at.exception
+    titles = []
+    for name in PAGES:
+        at.switch_page(f"screens/{name}").run()
+        assert not at.exception, name
+        titles.append(at.title[0].value)
+    assert titles == ["Tank headspace", "Spill indoors", "Spill outdoors", "Site inventory",
+                      "Two cases side by side", "Limits, alarms and site"]
+
+
+def test_inputs_survive_a_page_switch():
+    """A value typed on one page is still there after visiting another page."""
+    at = AppTest.from_file(str(ROOT / "ui" / "app.py"), default_timeout=30).run()
+    at.number_input(key="w:tank.temperature").set_value(41.0)
+    at.run()
+    at.switch_page("screens/spill_indoors.py").run()
+    at.switch_page("screens/tank.py").run()
+    assert at.number_input(key="w:tank.temperature").value == 41.0
+
+
+def test_units_choice_survives_a_page_switch():
+    """US customary units stay chosen on every page, and the numbers keep their meaning."""
+    at = AppTest.from_file(str(ROOT / "ui" / "app.py"), default_timeout=30).run()
+    before = metric(at, "Headspace, all vapour")
+    at.toggle(key="w:units").set_value(True)
+    at.run()
+    at.switch_page("screens/spill_outdoors.py").run()
+    assert at.toggle(key="w:units").value is True
+    assert "[°F]" in at.number_input(key="w:outdoor.temperature").label
+    at.switch_page("screens/tank.py").run()
+    assert not at.exception
+    assert metric(at, "Headspace, all vapour") == before
+
+
+def test_saved_scenario_reloads_to_the_same_case():
+    """The scenario text saved from the inputs loads back to the same tank and limits."""
+    from ui import case
+
+    state = {}
+    case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
+    again = loads_scenario(dumps_scenario(case.full_document(state)))
+    first = load_scenario(DEMOS[0])
+    assert again.tanks[0]["temperature"] == pytest.approx(first.tanks[0]["temperature"])
+    assert again.tanks[0]["volume"] == pytest.approx(first.tanks[0]["volume"], rel=1e-6)
+    assert [(x.substance, x.kind, x.ppm) for x in again.limits] == [
+        (x.substance, x.kind, pytest.approx(x.ppm)) for x in first.limits]
+    assert again.pressure == pytest.approx(first.pressure)
+
+
+def test_us_units_save_in_us_units():
+    """Inputs in US customary units are saved with their units and mean the same in SI."""
+    from ui import case
+
+    state = {}
+    case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
+    case.switch_units(state, "SI", "US")
+    state[case.key("units")] = True
+    text = dumps_scenario(case.full_document(state))
+    assert "degF" in text and "gal" in text
+    again = loads_scenario(text)
+    assert again.tanks[0]["temperature"] == pytest.approx(307.15, abs=1e-6)
+
+
+def test_reports_carry_the_cautions():
+    """The HTML report and CSV results of a case on screen carry every caution."""
+    import html
+
+    from ui import case, views
+
+    state = {}
+    case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
+    doc, problems = case.study_document(state, "tank")
+    assert not problems
+    text = dumps_scenario(doc)
+    report = html.unescape(views.report_text(text, "html"))
+    results = views.report_text(text, "csv")
+    for caution in CAUTIONS:
+        assert caution in report
+        assert caution in results
+
+
+def test_launcher_binds_to_this_machine_by_default():
+    """The launcher binds to 127.0.0.1, runs headless and sends no usage statistics."""
+    from ui.launch import command
+
+    args = command()
+    assert args[args.index("--server.address") + 1] == "127.0.0.1"
+    assert args[args.index("--server.headless") + 1] == "true"
+    assert args[args.index("--browser.gatherUsageStats") + 1] == "false"
+    exposed = command(["--server.address", "0.0.0.0"])
+    assert exposed.count("--server.address") == 1
+    assert exposed[exposed.index("--server.address") + 1] == "0.0.0.0"

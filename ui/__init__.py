@@ -1,0 +1,1 @@
+"""Browser front end of ullage: Streamlit pages that gather inputs, call the core and show results."""

@@ -1,0 +1,808 @@
+"""The case on screen: input defaults, a loaded scenario turned into inputs, inputs
+turned back into a scenario document.
+
+Everything here reads and writes a plain mapping of input values (the page's
+``st.session_state``), so it can be used and tested without a running page. Input
+values are held in the unit system chosen on screen; the scenario documents built
+from them carry those units as text ("34.0 degC", "2500.0 gal"), so that
+`estimator.scenario.loads_scenario` converts them at the edge. No physics here.
+"""
+
+from __future__ import annotations
+
+import math
+from pathlib import Path
+
+import pandas as pd
+
+from estimator.units import convert
+
+ROOT = Path(__file__).resolve().parents[1]
+SCENARIO_FOLDER = ROOT / "scenarios"
+EXAMPLE_INVENTORY = Path(__file__).resolve().with_name("example_inventory.csv")
+
+#: Largest scenario upload read. [bytes]
+MAX_SCENARIO_UPLOAD = 1_000_000
+#: Largest inventory upload read. [bytes]
+MAX_INVENTORY_UPLOAD = 20 * 1024 * 1024
+
+SYSTEMS = ("SI", "US")
+
+#: kind -> {system: (label shown, unit written in scenario text, pint expression)}
+#: and the pint expression of the SI value the core returns.
+UNITS = {
+    "temperature": {"SI": ("°C", "degC", "degC"), "US": ("°F", "degF", "degF"), "core": "K"},
+    "tank_volume": {"SI": ("m³", "m3", "m**3"), "US": ("gal", "gal", "gallon"), "core": "m**3"},
+    "spill_volume": {"SI": ("L", "L", "liter"), "US": ("gal", "gal", "gallon"), "core": "m**3"},
+    "room_volume": {"SI": ("m³", "m3", "m**3"), "US": ("ft³", "ft3", "ft**3"), "core": "m**3"},
+    "area": {"SI": ("m²", "m2", "m**2"), "US": ("ft²", "ft2", "ft**2"), "core": "m**2"},
+    "length": {"SI": ("m", "m", "m"), "US": ("ft", "ft", "ft"), "core": "m"},
+    "pressure": {"SI": ("kPa", "kPa", "kPa"), "US": ("psi", "psi", "psi"), "core": "Pa"},
+    "barometric": {"SI": ("kPa", "kPa", "kPa"), "US": ("inHg", "inHg", "inHg"), "core": "Pa"},
+    "vapour_pressure": {"SI": ("kPa", "kPa", "kPa"), "US": ("mmHg", "mmHg", "mmHg"),
+                        "core": "Pa"},
+    "wind": {"SI": ("m/s", "m/s", "m/s"), "US": ("mph", "mph", "mph"), "core": "m/s"},
+    "air_speed": {"SI": ("m/s", "m/s", "m/s"), "US": ("ft/min", "ft/min", "ft/min"),
+                  "core": "m/s"},
+    "flow": {"SI": ("m³/h", "m3/h", "m**3/hour"), "US": ("ft³/min", "ft3/min", "ft**3/min"),
+             "core": "m**3/s"},
+    "density": {"SI": ("kg/m³", "kg/m3", "kg/m**3"), "US": ("lb/gal", "lb/gal", "lb/gallon"),
+                "core": "kg/m**3"},
+    "mass": {"SI": ("kg", "kg", "kg"), "US": ("lb", "lb", "lb"), "core": "kg"},
+    "minutes": {"SI": ("min", "min", "min"), "US": ("min", "min", "min"), "core": "s"},
+    "percent": {"SI": ("%", "%", "percent"), "US": ("%", "%", "percent"),
+                "core": "dimensionless"},
+    "ppm": {"SI": ("ppm", "ppm", "ppm"), "US": ("ppm", "ppm", "ppm"), "core": "dimensionless"},
+    "per_hour": {"SI": ("1/h", "1/h", "1/hour"), "US": ("1/h", "1/h", "1/hour"),
+                 "core": "1/s"},
+    "molar_mass": {"SI": ("g/mol", "g/mol", "g/mol"), "US": ("g/mol", "g/mol", "g/mol"),
+                   "core": "kg/mol"},
+}
+
+#: Every numeric input with a unit: input name -> (kind, default in SI display units).
+#: None as a default leaves the box empty (an optional input).
+QUANTITIES = {
+    "site.elevation": ("length", 0.0),
+    "site.barometric": ("barometric", 101.325),
+    "tank.temperature": ("temperature", 25.0),
+    "tank.worst": ("temperature", None),
+    "tank.volume": ("tank_volume", None),
+    "tank.fill": ("percent", 50.0),
+    "tank.gauge": ("pressure", 0.0),
+    "tank.daily_low": ("temperature", None),
+    "tank.daily_high": ("temperature", None),
+    "tank.pumped": ("tank_volume", None),
+    "tank.purge_rate": ("flow", None),
+    "tank.purge_target": ("ppm", None),
+    "sds.boiling": ("temperature", 120.0),
+    "sds.vp": ("vapour_pressure", 2.0),
+    "sds.vp_temperature": ("temperature", 20.0),
+    "sds.density": ("density", None),
+    "sds.flash": ("temperature", None),
+    "indoor.temperature": ("temperature", 20.0),
+    "indoor.volume": ("spill_volume", 60.0),
+    "indoor.mass": ("mass", 47.0),
+    "indoor.area": ("area", None),
+    "indoor.dike": ("area", None),
+    "indoor.duration": ("minutes", 480.0),
+    "indoor.cleanup": ("minutes", None),
+    "room.volume": ("room_volume", 500.0),
+    "room.air_changes": ("per_hour", 2.0),
+    "room.air_speed": ("air_speed", 0.1),
+    "room.near_field_radius": ("length", None),
+    "room.random_air_speed": ("air_speed", None),
+    "outdoor.temperature": ("temperature", 20.0),
+    "outdoor.volume": ("spill_volume", 100.0),
+    "outdoor.area": ("area", None),
+    "outdoor.dike": ("area", None),
+    "weather.wind": ("wind", 3.0),
+    "weather.wind_height": ("length", 10.0),
+    "cmp.temperature": ("temperature", 35.0),
+    "cmp.air_changes": ("per_hour", 0.0),
+    "cmp.wind": ("wind", 1.5),
+}
+
+#: Inputs without a unit: name -> default.
+PLAIN = {
+    "units": False,
+    "title": "Untitled case",
+    "site.mode": "sea level",
+    "alarm.percent_lfl": 10.0,
+    "alarm.oxygen_low": 19.5,
+    "alarm.oxygen_high": 23.5,
+    "tank.name": "tank 1",
+    "tank.purge_mixing": 1.0,
+    "tank.details": False,
+    "sds.name": "my solvent",
+    "sds.molar_mass": 100.0,
+    "sds.lfl": None,
+    "sds.ufl": None,
+    "indoor.name": "spill indoors",
+    "indoor.amount_kind": "volume",
+    "indoor.model": "mackay-matsugu",
+    "room.name": "room 1",
+    "room.mixing": 3.0,
+    "outdoor.name": "spill outdoors",
+    "outdoor.model": "mackay-matsugu",
+    "weather.sky": "day",
+    "weather.insolation": "moderate",
+    "weather.cloud": 4.0,
+    "weather.stability": "D",
+    "weather.terrain": "open",
+    "weather.receptors": "100, 300, 1000, 3000",
+    "cmp.study": "tank",
+    "cmp.substance": "",
+    "cmp.mixing": 3.0,
+    "cmp.stability": "",
+    "inv.example": False,
+}
+
+LIQUID_PREFIXES = ("tank", "indoor", "outdoor")
+LIQUID_DEFAULTS = {"tank": "toluene", "indoor": "acetone", "outdoor": "toluene"}
+LIQUID_KINDS = {"table": "One substance from the table", "mixture": "A mixture",
+                "own": "My own substance (SDS values)",
+                "water": "Water with dissolved solvents"}
+
+LIMIT_COLUMNS = ["substance", "kind", "value", "unit", "source"]
+MIXTURE_COLUMNS = ["component", "percent"]
+DISSOLVED_COLUMNS = ["compound", "mg/L"]
+
+#: Sky states of the outdoor weather block.
+SKY = {"day": "Daytime (sun)", "night": "Night (cloud cover)",
+       "class": "Stability class given"}
+
+
+def key(name: str) -> str:
+    """Session key of an input."""
+    return f"in:{name}"
+
+
+def table_key(name: str) -> str:
+    """Session key holding the current rows of an editable table."""
+    return f"tbl:{name}:current"
+
+
+def system(state) -> str:
+    return "US" if state.get(key("units")) else "SI"
+
+
+def unit_label(kind: str, units: str) -> str:
+    return UNITS[kind][units][0]
+
+
+def to_display(value_si, kind: str, units: str):
+    """A core SI value in the display unit (None stays None), rounded for the box."""
+    if value_si is None:
+        return None
+    out = convert(float(value_si), UNITS[kind]["core"], UNITS[kind][units][2])
+    return _round(out)
+
+
+def _round(value: float, digits: int = 6) -> float:
+    if value == 0 or not math.isfinite(value):
+        return float(value)
+    return float(f"{value:.{digits}g}")
+
+
+def text(state, name: str) -> str | None:
+    """An input as scenario text with its unit ("34.0 degC"), None if empty."""
+    value = state.get(key(name))
+    if value is None:
+        return None
+    kind = QUANTITIES[name][0]
+    return f"{float(value)!r} {UNITS[kind][system(state)][1]}"
+
+
+def switch_units(state, old: str, new: str) -> None:
+    """Convert every quantity input from one unit system to the other."""
+    if old == new:
+        return
+    for name, (kind, _) in QUANTITIES.items():
+        value = state.get(key(name))
+        if value is None:
+            continue
+        state[key(name)] = _round(convert(float(value), UNITS[kind][old][2],
+                                          UNITS[kind][new][2]))
+    receptors = state.get(key("weather.receptors"), "")
+    try:
+        values = [float(v) for v in str(receptors).replace(";", ",").split(",") if v.strip()]
+    except ValueError:
+        return
+    state[key("weather.receptors")] = ", ".join(
+        f"{_round(convert(v, UNITS['length'][old][2], UNITS['length'][new][2]), 4):g}"
+        for v in values)
+
+
+# ----------------------------------------------------------------------- defaults
+
+def empty_limits() -> pd.DataFrame:
+    return pd.DataFrame({"substance": pd.Series(dtype="object"),
+                         "kind": pd.Series(dtype="object"),
+                         "value": pd.Series(dtype="float"),
+                         "unit": pd.Series(dtype="object"),
+                         "source": pd.Series(dtype="object")})
+
+
+def mixture_frame(rows=()) -> pd.DataFrame:
+    frame = pd.DataFrame(list(rows), columns=MIXTURE_COLUMNS)
+    return frame.astype({"component": "object", "percent": "float"})
+
+
+def dissolved_frame(rows=()) -> pd.DataFrame:
+    frame = pd.DataFrame(list(rows), columns=DISSOLVED_COLUMNS)
+    return frame.astype({"compound": "object", "mg/L": "float"})
+
+
+def reset_defaults(state) -> None:
+    """Every input at its default, in SI units (the tables empty)."""
+    units = system(state)
+    for name, (kind, default) in QUANTITIES.items():
+        state[key(name)] = None if default is None else to_display(
+            convert(default, UNITS[kind]["SI"][2], UNITS[kind]["core"]), kind, units)
+    for name, default in PLAIN.items():
+        if name == "units":
+            continue
+        state[key(name)] = default
+    from estimator.limits import FlammabilityAlarms
+    state[key("alarm.source")] = FlammabilityAlarms().source
+    for p in LIQUID_PREFIXES:
+        state[key(f"{p}.kind")] = "table"
+        state[key(f"{p}.substance")] = LIQUID_DEFAULTS[p]
+        state[key(f"{p}.find")] = ""
+        state[key(f"{p}.basis")] = "mass"
+        state[key(f"{p}.liquid_name")] = ""
+        state[table_key(f"{p}.mixture")] = mixture_frame()
+        state[table_key(f"{p}.dissolved")] = dissolved_frame()
+    state[table_key("limits")] = empty_limits()
+    state["case.base"] = {}
+    state["case.source"] = "defaults"
+    state["case.studies"] = {"tank": False, "indoor": False, "outdoor": False}
+    state["tbl.generation"] = state.get("tbl.generation", 0) + 1
+
+
+def demo_files() -> list[Path]:
+    return sorted(SCENARIO_FOLDER.glob("*.toml"))
+
+
+# ---------------------------------------------------------------- scenario -> inputs
+
+def _set(state, name: str, value_si) -> None:
+    kind = QUANTITIES[name][0]
+    state[key(name)] = to_display(value_si, kind, system(state))
+
+
+def _substance_label(sub) -> str:
+    return sub.name
+
+
+def _set_liquid(state, prefix: str, entry: dict, scenario) -> None:
+    kind = entry["kind"]
+    state[key(f"{prefix}.liquid_name")] = entry["name"]
+    state[key(f"{prefix}.find")] = ""
+    spec = entry["spec"]
+    if kind == "water":
+        state[key(f"{prefix}.kind")] = "water"
+        state[table_key(f"{prefix}.dissolved")] = dissolved_frame(
+            [(s.name, _round(convert(c, "kg/m**3", "mg/L"))) for s, c in spec.items()])
+        return
+    if isinstance(spec, dict):
+        state[key(f"{prefix}.kind")] = "mixture"
+        state[key(f"{prefix}.basis")] = entry.get("basis", "mass")
+        state[table_key(f"{prefix}.mixture")] = mixture_frame(
+            [(s.name, _round(100.0 * x)) for s, x in spec.items()])
+        for s in spec:
+            if s.origin == "user":
+                _set_own(state, s, scenario)
+        return
+    if spec.origin == "user":
+        state[key(f"{prefix}.kind")] = "own"
+        _set_own(state, spec, scenario)
+        return
+    state[key(f"{prefix}.kind")] = "table"
+    state[key(f"{prefix}.substance")] = spec.key
+
+
+def _set_own(state, sub, scenario) -> None:
+    from estimator.units import parse_quantity, parse_temperature
+
+    state[key("sds.name")] = sub.name
+    state[key("sds.molar_mass")] = _round(sub.molar_mass * 1000.0)
+    _set(state, "sds.boiling", sub.boiling_point)
+    state[key("sds.lfl")] = (None if sub.lower_flammability_limit is None
+                             else _round(100.0 * sub.lower_flammability_limit))
+    state[key("sds.ufl")] = (None if sub.upper_flammability_limit is None
+                             else _round(100.0 * sub.upper_flammability_limit))
+    _set(state, "sds.density", sub.liquid_density)
+    _set(state, "sds.flash", sub.flash_point)
+    state[key("sds.vp")] = state[key("sds.vp_temperature")] = None
+    for raw in scenario.document.get("substance", []):
+        if str(raw.get("name", "")).strip().lower() == sub.name.lower():
+            points = raw.get("vapor_pressure") or []
+            if points:
+                t, p = points[0]
+                _set(state, "sds.vp_temperature", parse_temperature(t, "vapour pressure"))
+                _set(state, "sds.vp", parse_quantity(p, "pressure", "vapour pressure"))
+
+
+def apply_scenario(state, scenario, source: str) -> list[str]:
+    """Put a loaded scenario's first tank, indoor spill and outdoor spill on screen.
+
+    Returns notes on what is shown and what only travels along in the saved file.
+    """
+    keep_units = state.get(key("units"), False)
+    reset_defaults(state)
+    state[key("units")] = keep_units
+    notes = []
+    doc = scenario.document
+    state["case.base"] = _plain(doc)
+    state["case.source"] = source
+    state[key("title")] = scenario.title
+    cond = doc.get("conditions", {})
+    if "barometric_pressure" in cond:
+        state[key("site.mode")] = "barometric"
+        _set(state, "site.barometric", scenario.pressure)
+    elif "elevation" in cond:
+        from estimator.units import parse_quantity
+
+        state[key("site.mode")] = "elevation"
+        _set(state, "site.elevation", parse_quantity(cond["elevation"], "length", "elevation"))
+    alarms = scenario.alarms
+    state[key("alarm.percent_lfl")] = float(alarms.percent_lfl)
+    state[key("alarm.oxygen_low")] = float(alarms.oxygen_low)
+    state[key("alarm.oxygen_high")] = float(alarms.oxygen_high)
+    state[key("alarm.source")] = alarms.source
+    studies = {"tank": False, "indoor": False, "outdoor": False}
+    if scenario.tanks:
+        tank = scenario.tanks[0]
+        studies["tank"] = True
+        state[key("tank.name")] = tank["name"]
+        _set_liquid(state, "tank", scenario.liquids[tank["liquid"]], scenario)
+        for name, field in (("tank.temperature", "temperature"), ("tank.worst", "worst_temperature"),
+                            ("tank.volume", "volume"), ("tank.gauge", "gauge_pressure"),
+                            ("tank.daily_low", "daily_low"), ("tank.daily_high", "daily_high"),
+                            ("tank.pumped", "pumped_volume"), ("tank.purge_rate", "purge_rate"),
+                            ("tank.purge_target", "purge_target")):
+            _set(state, name, tank.get(field))
+        if tank.get("fill") is not None:
+            _set(state, "tank.fill", tank["fill"])
+        state[key("tank.purge_mixing")] = float(tank.get("purge_mixing_factor", 1.0))
+        state[key("tank.details")] = any(tank.get(k) is not None for k in (
+            "daily_low", "pumped_volume", "purge_rate"))
+        if len(scenario.tanks) > 1:
+            notes.append(f"{len(scenario.tanks)} tanks in the file: the first is on the "
+                         "tank page; the others are kept in the saved file.")
+    indoor = [s for s in scenario.spills if s.get("room")]
+    if indoor:
+        spill = indoor[0]
+        studies["indoor"] = True
+        room = next(r for r in scenario.rooms if r["name"] == spill["room"])
+        _set_spill(state, "indoor", spill, scenario)
+        state[key("indoor.duration")] = to_display(spill["duration"], "minutes", "SI")
+        if spill.get("cleanup_after") is not None:
+            state[key("indoor.cleanup")] = to_display(spill["cleanup_after"], "minutes", "SI")
+        if spill.get("mass") is not None:
+            state[key("indoor.amount_kind")] = "mass"
+            _set(state, "indoor.mass", spill["mass"])
+        state[key("room.name")] = room["name"]
+        _set(state, "room.volume", room["volume"])
+        _set(state, "room.air_changes", room["ventilation_rate"] / room["volume"])
+        state[key("room.mixing")] = float(room["mixing_factor"])
+        _set(state, "room.air_speed", room["air_speed"])
+        _set(state, "room.near_field_radius", room.get("near_field_radius"))
+        _set(state, "room.random_air_speed", room.get("random_air_speed"))
+    outdoor = [s for s in scenario.spills if not s.get("room")]
+    if outdoor:
+        spill = outdoor[0]
+        studies["outdoor"] = True
+        _set_spill(state, "outdoor", spill, scenario)
+        od = scenario.outdoors
+        _set(state, "weather.wind", od["wind_speed"])
+        _set(state, "weather.wind_height", od.get("wind_height", 10.0))
+        if od.get("stability"):
+            state[key("weather.sky")] = "class"
+            state[key("weather.stability")] = od["stability"]
+        elif od.get("daytime", True):
+            state[key("weather.sky")] = "day"
+            state[key("weather.insolation")] = od.get("insolation") or "moderate"
+        else:
+            state[key("weather.sky")] = "night"
+            state[key("weather.cloud")] = float(od.get("cloud_cover", 4.0) or 0.0)
+        state[key("weather.terrain")] = od.get("terrain", "open")
+        units = system(state)
+        state[key("weather.receptors")] = ", ".join(
+            f"{to_display(x, 'length', units):g}" for x in od["receptors"])
+    state["case.studies"] = studies
+    rows = [(_limit_name(lim, scenario), lim.kind, float(lim.value), lim.unit, lim.source)
+            for lim in scenario.limits]
+    state[table_key("limits")] = pd.DataFrame(rows, columns=LIMIT_COLUMNS).astype(
+        {"value": "float"}) if rows else empty_limits()
+    spills = len(scenario.spills) - len(indoor[:1]) - len(outdoor[:1])
+    if spills > 0:
+        notes.append(f"{spills} further spill(s) in the file are kept in the saved file.")
+    return notes
+
+
+def _limit_name(limit, scenario) -> str:
+    for sub in scenario.substances:
+        if sub.key == limit.substance:
+            return sub.name
+    try:
+        from estimator.substances import substance
+
+        return substance(limit.substance).name
+    except Exception:  # a key that no longer resolves: show it as stored
+        return limit.substance
+
+
+def _set_spill(state, prefix: str, spill: dict, scenario) -> None:
+    state[key(f"{prefix}.name")] = spill["name"]
+    _set_liquid(state, prefix, scenario.liquids[spill["liquid"]], scenario)
+    _set(state, f"{prefix}.temperature", spill["temperature"])
+    if spill.get("volume") is not None:
+        _set(state, f"{prefix}.volume", spill["volume"])
+    _set(state, f"{prefix}.area", spill.get("area"))
+    _set(state, f"{prefix}.dike", spill.get("dike_area"))
+    state[key(f"{prefix}.model")] = spill.get("model", "mackay-matsugu")
+
+
+def _plain(value):
+    """A scenario document as plain dicts and lists (for copying and saving)."""
+    if isinstance(value, dict) or hasattr(value, "items"):
+        return {k: _plain(v) for k, v in value.items()}
+    if isinstance(value, list):
+        return [_plain(v) for v in value]
+    return value
+
+
+# ---------------------------------------------------------------- inputs -> scenario
+
+def _rows(frame) -> list[dict]:
+    """The non-empty rows of a table as dicts, blanks as None."""
+    if frame is None or len(frame) == 0:
+        return []
+    columns = list(frame.columns)
+    out = []
+    for values in frame.itertuples(index=False, name=None):
+        cleaned = {c: (None if _blank(v) else v) for c, v in zip(columns, values)}
+        if any(v is not None for v in cleaned.values()):
+            out.append(cleaned)
+    return out
+
+
+def _blank(value) -> bool:
+    if value is None:
+        return True
+    if isinstance(value, float) and math.isnan(value):
+        return True
+    return isinstance(value, str) and not value.strip()
+
+
+def own_substance(state) -> dict:
+    """The user's own substance as a [[substance]] table."""
+    item = {"name": str(state.get(key("sds.name")) or "").strip() or "my solvent",
+            "molar_mass": f"{float(state.get(key('sds.molar_mass')) or 0.0)!r} g/mol",
+            "boiling_point": text(state, "sds.boiling") or "",
+            "source": "user-entered (safety data sheet)"}
+    vp, vp_t = text(state, "sds.vp"), text(state, "sds.vp_temperature")
+    if vp is not None and vp_t is not None:
+        item["vapor_pressure"] = [[vp_t, vp]]
+    for field, name in (("lower_flammability_limit", "sds.lfl"),
+                        ("upper_flammability_limit", "sds.ufl")):
+        value = state.get(key(name))
+        if value is not None:
+            item[field] = f"{float(value)!r} %"
+    if text(state, "sds.density") is not None:
+        item["liquid_density"] = text(state, "sds.density")
+    if text(state, "sds.flash") is not None:
+        item["flash_point"] = text(state, "sds.flash")
+    return item
+
+
+def liquid_item(state, prefix: str) -> tuple[dict, list[str]]:
+    """The [[liquid]] table of one page, and problems found in its rows."""
+    from estimator.substances import substance
+
+    kind = state.get(key(f"{prefix}.kind"), "table")
+    named = str(state.get(key(f"{prefix}.liquid_name")) or "").strip()
+    problems = []
+    if kind == "own":
+        name = own_substance(state)["name"]
+        return {"name": named or name, "substance": name}, problems
+    if kind == "mixture":
+        components = {}
+        for i, row in enumerate(_rows(state.get(table_key(f"{prefix}.mixture"))), 1):
+            if row.get("component") is None:
+                problems.append(f"row {i}: choose the component")
+                continue
+            if row.get("percent") is None:
+                problems.append(f"row {i}: give the percentage of {row['component']}")
+                continue
+            components[str(row["component"])] = f"{float(row['percent'])!r} %"
+        if not components:
+            problems.append("enter at least one component and its percentage")
+        item = {"name": named or "mixture", "components": components,
+                "basis": state.get(key(f"{prefix}.basis"), "mass")}
+        return item, problems
+    if kind == "water":
+        dissolved = {}
+        for i, row in enumerate(_rows(state.get(table_key(f"{prefix}.dissolved"))), 1):
+            if row.get("compound") is None or row.get("mg/L") is None:
+                problems.append(f"row {i}: give the compound and its concentration in mg/L")
+                continue
+            dissolved[str(row["compound"])] = f"{float(row['mg/L'])!r} mg/L"
+        if not dissolved:
+            problems.append("enter at least one dissolved compound and its concentration")
+        return {"name": named or "water with dissolved solvents",
+                "dissolved_in_water": dissolved}, problems
+    chosen = state.get(key(f"{prefix}.substance")) or LIQUID_DEFAULTS.get(prefix, "toluene")
+    try:
+        name = substance(chosen).name
+    except Exception:  # shown by the substance chooser; keep the text for the message
+        name = str(chosen)
+    return {"name": name, "substance": chosen}, problems
+
+
+def uses_own_substance(state, prefixes) -> bool:
+    name = own_substance(state)["name"].lower()
+    for p in prefixes:
+        kind = state.get(key(f"{p}.kind"))
+        if kind == "own":
+            return True
+        if kind == "mixture" and any(str(r.get("component", "")).lower() == name
+                                     for r in _rows(state.get(table_key(f"{p}.mixture")))):
+            return True
+    return any(str(r.get("substance", "")).lower() == name
+               for r in _rows(state.get(table_key("limits"))))
+
+
+def conditions(state) -> dict:
+    mode = state.get(key("site.mode"), "sea level")
+    out = {}
+    if mode == "elevation" and text(state, "site.elevation"):
+        out["elevation"] = text(state, "site.elevation")
+    elif mode == "barometric" and text(state, "site.barometric"):
+        out["barometric_pressure"] = text(state, "site.barometric")
+    air = (state.get("case.base", {}) or {}).get("conditions", {}).get("air_temperature")
+    if air:
+        out["air_temperature"] = air
+    return out
+
+
+def alarms(state) -> dict:
+    from estimator.limits import FlammabilityAlarms
+
+    default = FlammabilityAlarms()
+    values = {"percent_lfl": state.get(key("alarm.percent_lfl")),
+              "oxygen_low": state.get(key("alarm.oxygen_low")),
+              "oxygen_high": state.get(key("alarm.oxygen_high"))}
+    source = str(state.get(key("alarm.source")) or "").strip()
+    if (values["percent_lfl"] == default.percent_lfl
+            and values["oxygen_low"] == default.oxygen_low
+            and values["oxygen_high"] == default.oxygen_high and source == default.source):
+        return {}
+    out = {}
+    if values["percent_lfl"] is not None:
+        out["percent_lfl"] = float(values["percent_lfl"])
+    for name in ("oxygen_low", "oxygen_high"):
+        if values[name] is not None:
+            out[name] = f"{float(values[name])!r} %"
+    out["source"] = source or "entered on screen"
+    return out
+
+
+def limit_rows(state) -> list[tuple[int, dict]]:
+    """(row number, [[limit]] table) for every non-empty row of the limits table."""
+    out = []
+    for i, row in enumerate(_rows(state.get(table_key("limits"))), 1):
+        item = {"substance": "" if row.get("substance") is None else str(row["substance"])}
+        kind = row.get("kind") or "TWA"
+        value = row.get("value")
+        unit = row.get("unit") or "ppm"
+        item[str(kind)] = "" if value is None else f"{float(value)!r} {unit}"
+        item["source"] = "" if row.get("source") is None else str(row["source"]).strip()
+        out.append((i, item))
+    return out
+
+
+def _head(state) -> dict:
+    title = str(state.get(key("title")) or "").strip() or "Untitled case"
+    head = {"title": title}
+    base = state.get("case.base", {}).get("scenario", {})
+    for field in ("site", "description"):
+        if base.get(field):
+            head[field] = base[field]
+    return head
+
+
+def tank_item(state, liquid_name: str) -> dict:
+    item = {"name": str(state.get(key("tank.name")) or "tank 1").strip() or "tank 1",
+            "liquid": liquid_name, "temperature": text(state, "tank.temperature")}
+    for field, name in (("worst_temperature", "tank.worst"), ("volume", "tank.volume"),
+                        ("fill", "tank.fill"), ("gauge_pressure", "tank.gauge")):
+        if text(state, name) is not None:
+            item[field] = text(state, name)
+    if state.get(key("tank.details")):
+        for field, name in (("daily_low", "tank.daily_low"), ("daily_high", "tank.daily_high"),
+                            ("pumped_volume", "tank.pumped"), ("purge_rate", "tank.purge_rate"),
+                            ("purge_target", "tank.purge_target")):
+            if text(state, name) is not None:
+                item[field] = text(state, name)
+        if item.get("purge_rate") and state.get(key("tank.purge_mixing")) not in (None, 1.0):
+            item["purge_mixing_factor"] = float(state[key("tank.purge_mixing")])
+    if item.get("fill") is not None and item.get("volume") is None:
+        item.pop("fill")
+    return item
+
+
+def room_item(state) -> dict:
+    item = {"name": str(state.get(key("room.name")) or "room 1").strip() or "room 1",
+            "volume": text(state, "room.volume"), "air_changes": text(state, "room.air_changes"),
+            "mixing_factor": float(state.get(key("room.mixing")) or 1.0),
+            "air_speed": text(state, "room.air_speed")}
+    for field, name in (("near_field_radius", "room.near_field_radius"),
+                        ("random_air_speed", "room.random_air_speed")):
+        if text(state, name) is not None:
+            item[field] = text(state, name)
+    return {k: v for k, v in item.items() if v is not None}
+
+
+def spill_item(state, prefix: str, liquid_name: str) -> dict:
+    item = {"name": str(state.get(key(f"{prefix}.name")) or prefix).strip() or prefix,
+            "liquid": liquid_name, "temperature": text(state, f"{prefix}.temperature")}
+    if prefix == "indoor" and state.get(key("indoor.amount_kind")) == "mass":
+        item["mass"] = text(state, "indoor.mass")
+    else:
+        item["volume"] = text(state, f"{prefix}.volume")
+    for field, name in (("area", f"{prefix}.area"), ("dike_area", f"{prefix}.dike")):
+        if text(state, name) is not None:
+            item[field] = text(state, name)
+    if prefix == "indoor":
+        item["room"] = room_item(state)["name"]
+        item["duration"] = text(state, "indoor.duration")
+        if text(state, "indoor.cleanup") is not None:
+            item["cleanup_after"] = text(state, "indoor.cleanup")
+    else:
+        item["outdoors"] = True
+        item["duration"] = "60.0 min"
+    item["model"] = state.get(key(f"{prefix}.model"), "mackay-matsugu")
+    return {k: v for k, v in item.items() if v is not None}
+
+
+def receptor_values(state) -> list[float]:
+    """Receptor distances as typed, in the display length unit."""
+    raw = str(state.get(key("weather.receptors")) or "")
+    values = []
+    for part in raw.replace(";", ",").split(","):
+        if part.strip():
+            values.append(float(part))
+    return values
+
+
+def outdoors_item(state, receptors=None) -> dict:
+    length = UNITS["length"][system(state)][1]
+    item = {"wind_speed": text(state, "weather.wind")}
+    if text(state, "weather.wind_height") is not None:
+        item["wind_height"] = text(state, "weather.wind_height")
+    sky = state.get(key("weather.sky"), "day")
+    if sky == "class":
+        item["stability"] = str(state.get(key("weather.stability")) or "D")
+    elif sky == "night":
+        item["daytime"] = False
+        item["cloud_cover"] = float(state.get(key("weather.cloud")) or 0.0)
+    else:
+        item["daytime"] = True
+        item["insolation"] = str(state.get(key("weather.insolation")) or "moderate")
+    item["terrain"] = str(state.get(key("weather.terrain")) or "open")
+    values = receptor_values(state) if receptors is None else receptors
+    if values:
+        item["receptors"] = [f"{float(v)!r} {length}" for v in values]
+    return item
+
+
+def study_document(state, study: str, *, receptors=None, limits=None) -> tuple[dict, list[str]]:
+    """A scenario document for one study ("tank", "indoor" or "outdoor") with the
+    inputs on screen, and the problems found while gathering them.
+
+    `limits` replaces the rows of the limits table (as (row, item) pairs).
+    """
+    problems = []
+    doc = {"scenario": _head(state)}
+    if conditions(state):
+        doc["conditions"] = conditions(state)
+    if alarms(state):
+        doc["alarms"] = alarms(state)
+    if study == "indoor" and state.get("case.base", {}).get("shift"):
+        doc["shift"] = dict(state["case.base"]["shift"])
+    if uses_own_substance(state, [study]):
+        doc["substance"] = [own_substance(state)]
+    liquid, liquid_problems = liquid_item(state, study)
+    problems += liquid_problems
+    doc["liquid"] = [liquid]
+    if study == "tank":
+        doc["tank"] = [tank_item(state, liquid["name"])]
+    elif study == "indoor":
+        doc["room"] = [room_item(state)]
+        doc["spill"] = [spill_item(state, "indoor", liquid["name"])]
+    else:
+        doc["spill"] = [spill_item(state, "outdoor", liquid["name"])]
+        doc["outdoors"] = outdoors_item(state, receptors)
+    rows = limit_rows(state) if limits is None else limits
+    if rows:
+        doc["limit"] = [item for _, item in rows]
+    return doc, problems
+
+
+def full_document(state, studies=None, limits=None) -> dict:
+    """The whole case as one scenario document, for saving.
+
+    Holds the studies on screen (those of the loaded file, and those the user has
+    opened), and carries along the items of a loaded file that are not on screen.
+    """
+    include = dict(state.get("case.studies", {}))
+    include.update(studies or {})
+    base = state.get("case.base", {}) or {}
+    doc = {"scenario": _head(state)}
+    if conditions(state):
+        doc["conditions"] = conditions(state)
+    if alarms(state):
+        doc["alarms"] = alarms(state)
+    if base.get("shift"):
+        doc["shift"] = dict(base["shift"])
+    chosen = [s for s in ("tank", "indoor", "outdoor") if include.get(s)]
+    liquids, names = [], {}
+    for s in chosen:
+        item, _ = liquid_item(state, s)
+        same = next((x for x in liquids if x == item), None)
+        if same is None:
+            taken = {x["name"].lower() for x in liquids}
+            if item["name"].lower() in taken:
+                item = dict(item, name=f"{item['name']} ({s})")
+            liquids.append(item)
+            same = item
+        names[s] = same["name"]
+    substances = [own_substance(state)] if uses_own_substance(state, chosen) else []
+    own = {x["name"].lower() for x in substances}
+    substances += [dict(x) for x in base.get("substance", []) if x["name"].lower() not in own]
+    tanks = [tank_item(state, names["tank"])] if "tank" in names else []
+    rooms = [room_item(state)] if "indoor" in names else []
+    spills = []
+    if "indoor" in names:
+        spills.append(spill_item(state, "indoor", names["indoor"]))
+    if "outdoor" in names:
+        spills.append(spill_item(state, "outdoor", names["outdoor"]))
+    # items of the loaded file beyond the first tank, indoor spill and outdoor spill
+    base_tanks = list(base.get("tank", []))[1:]
+    base_spills = list(base.get("spill", []))
+    first_indoor = next((i for i, s in enumerate(base_spills) if s.get("room")), None)
+    first_outdoor = next((i for i, s in enumerate(base_spills) if not s.get("room")), None)
+    extra_spills = [s for i, s in enumerate(base_spills) if i not in (first_indoor, first_outdoor)]
+    needed = {str(x.get("liquid", "")).lower() for x in base_tanks + extra_spills}
+    needed_rooms = {str(s.get("room", "")).lower() for s in extra_spills if s.get("room")}
+    used_names = {x["name"].lower() for x in liquids}
+    for item in base.get("liquid", []):
+        if item["name"].lower() in needed and item["name"].lower() not in used_names:
+            liquids.append(dict(item))
+    room_names = {r["name"].lower() for r in rooms}
+    for item in base.get("room", []):
+        if item["name"].lower() in needed_rooms and item["name"].lower() not in room_names:
+            rooms.append(dict(item))
+    tanks += [dict(x) for x in base_tanks]
+    spills += [dict(x) for x in extra_spills]
+    if substances:
+        doc["substance"] = substances
+    if liquids:
+        doc["liquid"] = liquids
+    if tanks:
+        doc["tank"] = tanks
+    if rooms:
+        doc["room"] = rooms
+    if spills:
+        doc["spill"] = spills
+    if "outdoor" in names:
+        doc["outdoors"] = outdoors_item(state)
+    elif base.get("outdoors") and any(s.get("outdoors") for s in extra_spills):
+        doc["outdoors"] = dict(base["outdoors"])
+    rows = limit_rows(state) if limits is None else limits
+    if rows:
+        doc["limit"] = [item for _, item in rows]
+    return doc

@@ -1,0 +1,107 @@
+"""Spill indoors: a pool evaporating into a room, and the air people breathe there."""
+
+import sys
+from pathlib import Path
+
+_ROOT = str(Path(__file__).resolve().parents[2])
+if _ROOT not in sys.path:
+    sys.path.insert(0, _ROOT)
+
+import streamlit as st  # noqa: E402
+
+from estimator.scenario import dumps_scenario  # noqa: E402
+from ui import case, shared, views  # noqa: E402
+from ui.case import system  # noqa: E402
+
+MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
+
+slots = shared.setup_page(
+    "Spill indoors", "indoor",
+    "A pool evaporating into a room, coupled to the room air: the concentration over time "
+    "in the room, or near the pool and in the rest of the room (two-zone model).")
+state = shared.store()
+units = system(state)
+inputs, results = st.columns([2, 3], gap="large")
+
+with inputs:
+    st.subheader("Spill and liquid")
+    shared.text_box("Spill", "indoor.name")
+    shared.liquid_block("indoor", slots)
+    shared.quantity("Liquid and air temperature", "indoor.temperature")
+    slots.add("temperature")
+    a, b = st.columns(2)
+    kind = shared.choice("Amount given as", "indoor.amount_kind", ["volume", "mass"],
+                         container=a, horizontal=True)
+    if kind == "mass":
+        shared.quantity("Spilled mass", "indoor.mass", container=b)
+    else:
+        shared.quantity("Spilled volume", "indoor.volume", container=b)
+    a, b = st.columns(2)
+    shared.quantity("Pool area", "indoor.area", optional=True, container=a,
+                    help="Empty: the liquid spreads to 1 cm depth (US EPA RMP guidance), "
+                         "or covers the dike floor.")
+    shared.quantity("Dike or bund floor", "indoor.dike", optional=True, container=b)
+    shared.choice("Evaporation model", "indoor.model", list(MODELS), format_func=MODELS.get,
+                  horizontal=True)
+    slots.add("amount")
+    st.subheader("Room")
+    a, b = st.columns(2)
+    shared.text_box("Room", "room.name", container=a)
+    shared.quantity("Room volume", "room.volume", container=b)
+    a, b, c = st.columns(3)
+    shared.quantity("Air changes", "room.air_changes", container=a,
+                    help="0 when the fan is off or fails.")
+    shared.number("Mixing factor", "room.mixing", container=b,
+                  help="1 for perfect mixing; real rooms are often 3-10.")
+    shared.quantity("Air speed over the pool", "room.air_speed", container=c)
+    a, b = st.columns(2)
+    shared.quantity("Near-field radius", "room.near_field_radius", optional=True, container=a,
+                    help="Give both near-field boxes for the two-zone model.")
+    shared.quantity("Air speed between zones", "room.random_air_speed", optional=True,
+                    container=b)
+    slots.add("room")
+    a, b = st.columns(2)
+    shared.quantity("Run length", "indoor.duration", container=a)
+    shared.quantity("Clean-up after", "indoor.cleanup", optional=True, container=b)
+    slots.add("time")
+    limit_rows = shared.limits_summary(slots)
+
+
+def show(view: dict) -> None:
+    st.subheader(f"{view['name']} in {view['where']}")
+    a, b, c = st.columns(3)
+    a.metric(f"Peak, {view['peak_zone']}", view["peak_text"],
+             help=f"at {view['peak_time_text']}")
+    b.metric("8-h TWA", view["twa_text"])
+    c.metric("Highest 15-min average", view["short_text"])
+    st.markdown(f"**Pool:** {view['pool_area_text']}, {view['pool_text']}.")
+    if len(view["comparisons"]):
+        st.markdown("**Against the exposure limits**")
+        shared.table(view["comparisons"].drop(columns=["ratio"]))
+    else:
+        st.info("No exposure limit entered for this liquid: the concentrations are shown "
+                "without comparison.")
+    shared.chart(view["series"], x="minutes", x_title="time after the spill [min]", y="ppm",
+                 y_title="concentration [ppm]", lines=view["limit_lines"])
+    shared.table(view["metrics"])
+    st.markdown(f"**Method.** {view['model']}; pool temperature held fixed. Initial "
+                f"evaporation rate by both models: {view['rates_text']} (their spread is a "
+                f"measure of the model uncertainty). Mass balance closes to "
+                f"{view['mass_balance_text']}.")
+    shared.show_notes(view)
+
+
+with results:
+    st.subheader("Result")
+    slots.add("general")
+    doc, problems = case.study_document(state, "indoor", limits=limit_rows)
+    if problems:
+        slots.problems("liquid", problems)
+    else:
+        text = dumps_scenario(doc)
+        view = views.indoor_view(text, units)
+        if view["error"]:
+            slots.show(view["error"])
+        else:
+            show(view)
+            shared.downloads(text, shared._slug(view["name"]))

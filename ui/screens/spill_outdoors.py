@@ -1,0 +1,117 @@
+"""Spill outdoors: a pool's vapour carried downwind, on the plume centreline."""
+
+import sys
+from pathlib import Path
+
+_ROOT = str(Path(__file__).resolve().parents[2])
+if _ROOT not in sys.path:
+    sys.path.insert(0, _ROOT)
+
+import numpy as np  # noqa: E402
+import streamlit as st  # noqa: E402
+
+from estimator.scenario import dumps_scenario  # noqa: E402
+from ui import case, shared, views  # noqa: E402
+from ui.case import system  # noqa: E402
+
+MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
+INSOLATION = ["strong", "moderate", "slight"]
+CLASSES = ["A", "B", "C", "D", "E", "F"]
+
+slots = shared.setup_page(
+    "Spill outdoors", "outdoor",
+    "A pool outdoors: its initial evaporation rate carried downwind by a ground-level "
+    "Gaussian plume, on the centreline.")
+state = shared.store()
+units = system(state)
+inputs, results = st.columns([2, 3], gap="large")
+
+with inputs:
+    st.subheader("Spill and liquid")
+    shared.text_box("Spill", "outdoor.name")
+    shared.liquid_block("outdoor", slots)
+    shared.quantity("Liquid and air temperature", "outdoor.temperature")
+    slots.add("temperature")
+    shared.quantity("Spilled volume", "outdoor.volume")
+    a, b = st.columns(2)
+    shared.quantity("Pool area", "outdoor.area", optional=True, container=a,
+                    help="Empty: the liquid spreads to 1 cm depth (US EPA RMP guidance), "
+                         "or covers the dike floor.")
+    shared.quantity("Dike or bund floor", "outdoor.dike", optional=True, container=b)
+    shared.choice("Evaporation model", "outdoor.model", list(MODELS), format_func=MODELS.get,
+                  horizontal=True)
+    slots.add("amount")
+    st.subheader("Weather")
+    a, b = st.columns(2)
+    shared.quantity("Wind speed", "weather.wind", container=a)
+    shared.quantity("measured at height", "weather.wind_height", container=b)
+    sky = shared.choice("Sky", "weather.sky", list(case.SKY), format_func=case.SKY.get,
+                        horizontal=True)
+    a, b = st.columns(2)
+    if sky == "day":
+        shared.choice("Sunshine", "weather.insolation", INSOLATION, container=a,
+                      horizontal=True)
+    elif sky == "night":
+        shared.number("Cloud cover [oktas, 0-8]", "weather.cloud", container=a)
+    else:
+        shared.bound(a.selectbox, "Pasquill stability class", "weather.stability",
+                     options=CLASSES)
+    shared.choice("Terrain", "weather.terrain", ["open", "urban"], container=b,
+                  horizontal=True)
+    slots.add("weather")
+    length = case.unit_label("length", units)
+    shared.text_box(f"Downwind distances [{length}], separated by commas", "weather.receptors")
+    slots.add("receptors")
+    limit_rows = shared.limits_summary(slots)
+
+
+def show(view: dict) -> None:
+    st.subheader(view["name"])
+    a, b, c = st.columns(3)
+    a.metric("Source strength", view["source_text"], help="initial evaporation rate")
+    b.metric("Stability class", view["stability"])
+    c.metric("Wind at 10 m", view["wind_text"])
+    if len(view["distances"]):
+        st.markdown("**How far the centreline stays above each limit**")
+        shared.table(view["distances"])
+    else:
+        st.info("No exposure limit entered for this liquid: no distance to a limit is "
+                "computed.")
+    st.markdown("**Centreline concentration at the distances asked for**")
+    shared.table(view["receptors"])
+    unit = view["distance_unit"]
+    shared.chart(view["series"], x="distance", x_title=f"downwind distance [{unit}]", y="ppm",
+                 y_title="centreline concentration [ppm]", log_x=True, log_y=True,
+                 lines=view["limit_lines"])
+    st.markdown(f"**Method.** Ground-level Gaussian plume (Briggs dispersion coefficients, "
+                f"{view['terrain']} terrain) from the pool's initial evaporation rate, a "
+                f"steady source: conservative for screening. Initial rate by both models: "
+                f"{view['rates_text']} (their spread is a measure of the model uncertainty).")
+    shared.show_notes(view)
+
+
+with results:
+    st.subheader("Result")
+    slots.add("general")
+    try:
+        asked = case.receptor_values(state)
+    except ValueError:
+        asked = None
+        slots.show({"field": "downwind distances", "area": "receptors",
+                    "reason": f"'{state.get(case.key('weather.receptors'))}' is not a list "
+                              "of numbers"})
+    if asked is not None:
+        grid = [case.to_display(x, "length", units) for x in np.geomspace(100.0, 10000.0, 33)]
+        everything = sorted(set(asked) | set(grid))
+        doc, problems = case.study_document(state, "outdoor", receptors=everything,
+                                            limits=limit_rows)
+        if problems:
+            slots.problems("liquid", problems)
+        else:
+            view = views.outdoor_view(dumps_scenario(doc), units, tuple(asked))
+            if view["error"]:
+                slots.show(view["error"])
+            else:
+                show(view)
+                mine, _ = case.study_document(state, "outdoor", limits=limit_rows)
+                shared.downloads(dumps_scenario(mine), shared._slug(view["name"]))

@@ -1,0 +1,130 @@
+"""Tank headspace: the equilibrium vapour space over a liquid in a closed tank."""
+
+import sys
+from pathlib import Path
+
+_ROOT = str(Path(__file__).resolve().parents[2])
+if _ROOT not in sys.path:
+    sys.path.insert(0, _ROOT)
+
+import streamlit as st  # noqa: E402
+
+from estimator.scenario import dumps_scenario  # noqa: E402
+from ui import case, shared, views  # noqa: E402
+from ui.case import system  # noqa: E402
+
+slots = shared.setup_page(
+    "Tank headspace", "tank",
+    "The equilibrium vapour space over the liquid in a closed tank: what the air in it "
+    "holds after long standing, the worst case for a closed space.")
+state = shared.store()
+units = system(state)
+inputs, results = st.columns([2, 3], gap="large")
+
+with inputs:
+    st.subheader("Tank and liquid")
+    shared.text_box("Tank", "tank.name")
+    shared.liquid_block("tank", slots, allow_water=True)
+    a, b = st.columns(2)
+    shared.quantity("Liquid temperature", "tank.temperature", container=a)
+    shared.quantity("Worst-case temperature", "tank.worst", optional=True, container=b,
+                    help="The hottest the liquid gets (sun, process heat); leave empty to "
+                         "screen only the stated temperature.")
+    slots.add("temperature")
+    a, b, c = st.columns(3)
+    shared.quantity("Tank volume", "tank.volume", optional=True, container=a)
+    shared.quantity("Liquid level", "tank.fill", container=b)
+    shared.quantity("Gauge pressure", "tank.gauge", container=c)
+    slots.add("tank")
+    if shared.bound(st.toggle, "Filling, daily breathing and purge before entry",
+                    "tank.details"):
+        a, b = st.columns(2)
+        shared.quantity("Daily low liquid temperature", "tank.daily_low", optional=True,
+                        container=a)
+        shared.quantity("Daily high liquid temperature", "tank.daily_high", optional=True,
+                        container=b)
+        a, b = st.columns(2)
+        shared.quantity("Volume pumped in", "tank.pumped", optional=True, container=a)
+        shared.quantity("Purge air flow", "tank.purge_rate", optional=True, container=b)
+        a, b = st.columns(2)
+        shared.number("Purge mixing factor", "tank.purge_mixing", container=a,
+                      help="1 for perfect mixing; 3-10 for real tanks.")
+        shared.quantity("Purge target", "tank.purge_target", optional=True, container=b,
+                        help="Empty: the % LFL alarm level.")
+    slots.add("details")
+    limit_rows = shared.limits_summary(slots)
+
+
+def show(view: dict) -> None:
+    now = view["now"]
+    st.subheader(f"{view['name']}: {view['liquid']} at {view['temperature_text']}")
+    a, b, c = st.columns(3)
+    a.metric("Headspace, all vapour", now["total_ppm_text"], help=now["total_mg_text"])
+    b.metric("Flammable vapour [% of LFL]", now["percent_lfl_text"],
+             help=f"Alarm level {view['alarm_percent']:g} % of the LFL ({view['alarm_source']})")
+    c.metric("Oxygen left", now["oxygen_text"])
+    st.markdown(f"**Flammability:** {now['flammability_words']}.  \n"
+                f"**Concentration:** {now['total_ppm_text']} = {now['total_mg_text']} at "
+                f"{now['pressure_text']}.")
+    worst = view["worst"]
+    if worst is not None:
+        st.markdown(f"**Worst case, {view['worst_temperature_text']}:** "
+                    f"{worst['total_ppm_text']}, {worst['percent_lfl_text']} of the LFL, oxygen "
+                    f"{worst['oxygen_text']}; {worst['flammability_words']}.")
+    if len(view["comparisons"]):
+        st.markdown("**Against the exposure limits** (at the liquid temperature"
+                    + (", then the worst case)" if len(view["worst_comparisons"]) else ")"))
+        table = view["comparisons"].drop(columns=["ratio"])
+        if len(view["worst_comparisons"]):
+            table["worst case"] = list(view["worst_comparisons"]["against the limit"])
+        shared.table(table)
+        if view["additive_index"] is not None:
+            st.caption(f"Mixture exposure index Σ C/TWA = {view['additive_index']:.3g} "
+                       "(above 1: the mixture exceeds; for substances acting on the same "
+                       "organs).")
+    else:
+        st.info("No exposure limit entered for these substances: only flammability and "
+                "oxygen are compared.")
+    extra = []
+    if view["flash_point_text"]:
+        extra.append(f"Flash point: {view['flash_point_text']}.")
+    if view["alarm_temperature_text"]:
+        extra.append(f"The headspace reaches the {view['alarm_percent']:g} % LFL alarm at "
+                     f"{view['alarm_temperature_text']}.")
+    extra += [f"{label}: {value}." for label, value in view["details"]]
+    if extra:
+        st.markdown(shared.bullet_list(extra))
+    if view["sweep"] is not None:
+        unit = view["temperature_unit"]
+        shared.chart(view["sweep"], x="temperature", x_title=f"liquid temperature [{unit}]",
+                     y="ppm", y_title="headspace [ppm]", log_y=True,
+                     lines=view["limit_lines"], marker=view["stated_temperature"])
+        lfl_lines = [{"percent_lfl": view["alarm_percent"],
+                      "limit": f"alarm {view['alarm_percent']:g} % LFL"},
+                     {"percent_lfl": 100.0, "limit": "LFL"}]
+        shared.chart(view["sweep_lfl"], x="temperature", x_title=f"liquid temperature [{unit}]",
+                     y="percent_lfl", y_title="flammable vapour [% of LFL]", color=None,
+                     lines=lfl_lines, line_field="percent_lfl",
+                     marker=view["stated_temperature"])
+    st.markdown(f"**Method.** Raoult's law with {now['activity']}; vapour pressure by the "
+                f"method below. Largest stated uncertainty of the vapour pressure: "
+                f"{now['uncertainty']}.")
+    shared.table(now["methods"])
+    shared.table(now["components"])
+    shared.show_notes(view)
+
+
+with results:
+    st.subheader("Result")
+    slots.add("general")
+    doc, problems = case.study_document(state, "tank", limits=limit_rows)
+    if problems:
+        slots.problems("liquid", problems)
+    else:
+        text = dumps_scenario(doc)
+        view = views.tank_view(text, units)
+        if view["error"]:
+            slots.show(view["error"])
+        else:
+            show(view)
+            shared.downloads(text, shared._slug(f"{view['name']}"))

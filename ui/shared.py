@@ -1,0 +1,618 @@
+"""What every page shares: the cautions, the sidebar, the input blocks and the charts.
+
+A page calls `setup_page` first: it keeps the inputs of the other pages alive,
+loads the first demo scenario on a first visit, draws the sidebar (units,
+scenario files) and puts the cautions at the top, always visible.
+"""
+
+from __future__ import annotations
+
+import re
+
+import pandas as pd
+import streamlit as st
+
+from estimator import CAUTIONS
+from estimator.errors import UllageError
+
+from ui import case, views
+from ui.case import key, system, unit_label
+
+#: What to do, by the block an error points at.
+ADVICE = {
+    "temperature": "Enter a liquid temperature at which every component is a liquid: above "
+                   "its melting point and below its critical temperature.",
+    "liquid": "Check the substance names (use the search box) and the composition.",
+    "limits": "Correct the row in the limits table; every limit needs a value, a unit and "
+              "its source.",
+    "alarms": "Give an LFL alarm above 0 and at most 100 %, and oxygen bounds with "
+              "low below high.",
+    "site": "Give a site elevation between -500 and 11000 m, or a barometric pressure "
+            "between 30 and 120 kPa.",
+    "tank": "Check the tank volume, fill level and gauge pressure.",
+    "details": "Check the tank details (daily temperatures, pumped volume, purge).",
+    "amount": "Check the spilled amount and the pool or dike area.",
+    "time": "Check the run duration and the clean-up time.",
+    "room": "Check the room volume, air changes, mixing factor and air speeds.",
+    "weather": "Check the wind speed, its height and the sky or stability class.",
+    "receptors": "List downwind distances as numbers separated by commas.",
+    "file": "Fix the file and load it again.",
+    "solver": "The calculation could not be finished for these inputs. A slightly different "
+              "amount, area or run length usually gets past it; the inputs themselves are "
+              "not wrong.",
+    "general": "Correct the input named above; the result is shown again once it can be "
+               "computed.",
+}
+
+AREA_NAMES = {"temperature": "Temperature", "liquid": "Liquid", "limits": "Exposure limits",
+              "alarms": "Alarm levels", "site": "Site pressure", "tank": "Tank",
+              "details": "Tank details", "amount": "Spilled amount", "time": "Times",
+              "room": "Room", "weather": "Weather", "receptors": "Downwind distances",
+              "file": "Scenario file", "solver": "Calculation", "general": "Input"}
+
+
+class Slots:
+    """Places on a page where an error about a block is shown, next to its inputs."""
+
+    def __init__(self):
+        self.places = {}
+        self.shown = set()
+
+    def add(self, area: str, container=None) -> None:
+        self.places[area] = (container or st).empty()
+
+    def show(self, error: dict) -> None:
+        area = error.get("area", "general")
+        place = self.places.get(area) or self.places.get("general")
+        field = re.sub(r"\s*\(line \d+\)", "", str(error.get("field") or ""))
+        words = AREA_NAMES.get(area, "Input")
+        head = f"**{words}**" + (f" ({field})" if field else "")
+        message = f"{head}: {error.get('reason', '')}\n\n{ADVICE.get(area, ADVICE['general'])}"
+        if place is None:
+            st.error(message)
+        else:
+            place.error(message)
+        self.shown.add(area)
+
+    def problems(self, area: str, lines) -> None:
+        """Show problems found in an input block before the core is called."""
+        lines = list(lines)
+        if not lines:
+            return
+        place = self.places.get(area) or self.places.get("general")
+        text = f"**{AREA_NAMES.get(area, 'Input')}**: " + "; ".join(lines) + "."
+        (place or st).error(text)
+        self.shown.add(area)
+
+
+# ------------------------------------------------------------------- the page
+
+def show_cautions() -> None:
+    """The cautions, at the top of every page, never folded away."""
+    with st.container(border=True):
+        st.markdown("**Screening estimate — read before using any number on this page**\n\n"
+                    + "\n".join(f"- {c}" for c in CAUTIONS))
+
+
+def store() -> dict:
+    """The inputs of every page, kept for the whole visit (a plain dict).
+
+    Widgets have their own keys ("w:" + input name); each page seeds them from
+    the store when it draws them and writes their values back, so that the
+    session holds only the widgets of the page on screen.
+    """
+    if "ullage" not in st.session_state:
+        st.session_state["ullage"] = {}
+    return st.session_state["ullage"]
+
+
+def _sync_widgets() -> None:
+    """After a callback changed the store, show the new values in live widgets."""
+    inputs = store()
+    for name in list(st.session_state.keys()):
+        if isinstance(name, str) and name.startswith("w:") and key(name[2:]) in inputs:
+            st.session_state[name] = inputs[key(name[2:])]
+
+
+def bound(widget, label: str, name: str, **kwargs):
+    """Draw a widget for the input `name`, seeded from and written back to the store."""
+    inputs = store()
+    widget_key = "w:" + name
+    # The live value wins (a change just made on screen); otherwise the stored one.
+    # Writing it back before drawing also carries it over to a widget of the same
+    # key on another page (the sidebar), which Streamlit would otherwise reset.
+    live = st.session_state[widget_key] if widget_key in st.session_state else inputs.get(
+        key(name))
+    st.session_state[widget_key] = live
+    value = widget(label, key=widget_key, **kwargs)
+    inputs[key(name)] = value
+    return value
+
+
+def _first_visit() -> None:
+    inputs = store()
+    if inputs.get("case.ready"):
+        return
+    case.reset_defaults(inputs)
+    inputs[key("units")] = False
+    inputs["units.shown"] = "SI"
+    files = case.demo_files()
+    if files:
+        _load_text(files[0].read_text(encoding="utf-8"), files[0].name)
+    inputs[key("demo")] = files[0].name if files else ""
+    inputs["case.ready"] = True
+
+
+def _load_text(text: str, source: str) -> None:
+    from estimator.scenario import loads_scenario
+
+    inputs = store()
+    try:
+        scenario = loads_scenario(text, source)
+        notes = case.apply_scenario(inputs, scenario, source)
+    except (UllageError, ValueError) as exc:
+        record = views.error_record(exc)
+        inputs["load.error"] = (f"{source} was not loaded. {record['field']}: "
+                                f"{record['reason']}. Fix the file and load it again.")
+        inputs["load.message"] = ""
+        return
+    inputs["load.error"] = ""
+    inputs["load.message"] = " ".join([f"Loaded {source}."] + notes)
+
+
+def _load_demo() -> None:
+    name = st.session_state.get("w:demo") or store().get(key("demo"))
+    for path in case.demo_files():
+        if path.name == name:
+            _load_text(path.read_text(encoding="utf-8"), path.name)
+    _sync_widgets()
+
+
+def _load_upload() -> None:
+    upload = st.session_state.get("up:scenario")
+    if upload is None:
+        return
+    data = upload.getvalue()
+    inputs = store()
+    if len(data) > case.MAX_SCENARIO_UPLOAD:
+        inputs["load.error"] = (f"{upload.name} is {len(data):,} bytes; a scenario file is "
+                                f"short text, at most {case.MAX_SCENARIO_UPLOAD:,} bytes.")
+        inputs["load.message"] = ""
+        return
+    try:
+        text = data.decode("utf-8")
+    except UnicodeDecodeError:
+        inputs["load.error"] = (f"{upload.name} is not UTF-8 text; save it as UTF-8 and "
+                                "load it again.")
+        inputs["load.message"] = ""
+        return
+    _load_text(text, upload.name)
+    _sync_widgets()
+
+
+def _units_changed() -> None:
+    inputs = store()
+    inputs[key("units")] = bool(st.session_state.get("w:units"))
+    new = system(inputs)
+    case.switch_units(inputs, inputs.get("units.shown", "SI"), new)
+    inputs["units.shown"] = new
+    _sync_widgets()
+
+
+def _slug(title: str) -> str:
+    return re.sub(r"[^a-z0-9]+", "-", title.lower()).strip("-")[:60] or "case"
+
+
+def sidebar(study: str | None) -> None:
+    from estimator.scenario import dumps_scenario
+
+    inputs = store()
+    with st.sidebar:
+        bound(st.toggle, "US customary units (°F, gal, ft, psi)", "units",
+              on_change=_units_changed)
+        bound(st.text_input, "Case title", "title")
+        st.markdown("**Scenario files**")
+        names = [p.name for p in case.demo_files()]
+        if names:
+            if inputs.get(key("demo")) not in names:
+                inputs[key("demo")] = names[0]
+            bound(st.selectbox, "Demo scenario", "demo", options=names)
+            st.button("Load this demo", on_click=_load_demo)
+        st.file_uploader("Load a scenario file (.toml, up to 1 MB)", type=["toml"],
+                         key="up:scenario", on_change=_load_upload, max_upload_size=1)
+        if inputs.get("load.error"):
+            st.error(inputs["load.error"])
+        elif inputs.get("load.message"):
+            st.caption(inputs["load.message"])
+        title = str(inputs.get(key("title")) or "case")
+        studies = {study: True} if study else None
+        st.download_button("Save the inputs as a scenario file",
+                           data=lambda: dumps_scenario(case.full_document(inputs, studies)),
+                           file_name=f"{_slug(title)}.toml", mime="application/toml",
+                           on_click="ignore")
+
+
+def setup_page(title: str, study: str | None = None, lead: str = "") -> Slots:
+    """Start a page: first demo on a first visit, sidebar, cautions, title."""
+    _first_visit()
+    if study:
+        studies = store().setdefault("case.studies", {})
+        studies[study] = True
+    sidebar(study)
+    show_cautions()
+    st.title(title)
+    if lead:
+        st.caption(lead)
+    return Slots()
+
+
+# -------------------------------------------------------------------- inputs
+
+def quantity(label: str, name: str, *, help: str | None = None, optional: bool = False,
+             container=None):
+    """A number box for an input with a unit, labelled with the unit on screen."""
+    kind = case.QUANTITIES[name][0]
+    target = container or st
+    extra = {"value": None} if optional else {}
+    return bound(target.number_input, f"{label} [{unit_label(kind, system(store()))}]", name,
+                 help=help, format="%g", **extra)
+
+
+def number(label: str, name: str, *, help: str | None = None, optional: bool = False,
+           container=None, **kwargs):
+    target = container or st
+    extra = {"value": None} if optional else {}
+    return bound(target.number_input, label, name, help=help, format="%g", **extra, **kwargs)
+
+
+def text_box(label: str, name: str, container=None, **kwargs):
+    return bound((container or st).text_input, label, name, **kwargs)
+
+
+def choice(label: str, name: str, options, container=None, **kwargs):
+    inputs = store()
+    if inputs.get(key(name)) not in options:
+        inputs[key(name)] = options[0]
+        st.session_state.pop("w:" + name, None)
+    return bound((container or st).radio, label, name, options=options, **kwargs)
+
+
+@st.cache_data(show_spinner=False)
+def substance_table() -> pd.DataFrame:
+    """The bundled substance table: key, name, CAS, for choosers."""
+    from estimator.substances import all_substances
+
+    rows = [{"key": s.key, "name": s.name, "cas": s.cas} for s in all_substances()]
+    return pd.DataFrame(rows).sort_values("name", key=lambda c: c.str.lower(),
+                                          ignore_index=True)
+
+
+@st.cache_data(show_spinner=False)
+def _labels() -> dict:
+    table = substance_table()
+    return {k: (f"{n} ({c})" if c else n) for k, n, c in table[["key", "name", "cas"]].values}
+
+
+@st.cache_data(show_spinner=False, max_entries=256)
+def find_substance(text: str) -> dict:
+    """An exact match of a name, synonym or CAS, or close matches, or the reason none."""
+    from estimator.substances import search_substances, substance
+
+    try:
+        return {"key": substance(text, "substance search").key, "matches": [], "error": None}
+    except UllageError as exc:
+        matches = [s.key for s in search_substances(text, limit=6)]
+        return {"key": None, "matches": matches, "error": None if matches else exc.reason}
+
+
+def substance_names() -> list[str]:
+    names = list(substance_table()["name"])
+    own = str(store().get(key("sds.name")) or "").strip()
+    return ([own] if own else []) + names
+
+
+def _set_input(name: str, value) -> None:
+    store()[key(name)] = value
+    if "w:" + name in st.session_state:
+        st.session_state["w:" + name] = value
+
+
+def _found(prefix: str) -> None:
+    text = str(st.session_state.get(f"w:{prefix}.find") or "").strip()
+    store()[key(f"{prefix}.find")] = text
+    if text:
+        hit = find_substance(text)
+        if hit["key"]:
+            _set_input(f"{prefix}.substance", hit["key"])
+
+
+def _pick(prefix: str, substance_key: str) -> None:
+    _set_input(f"{prefix}.substance", substance_key)
+    _set_input(f"{prefix}.find", "")
+
+
+def substance_chooser(prefix: str, slots: Slots) -> None:
+    """A selectbox over the table and a search box with close matches."""
+    labels = _labels()
+    options = list(labels)
+    inputs = store()
+    if inputs.get(key(f"{prefix}.substance")) not in labels:
+        _set_input(f"{prefix}.substance", case.LIQUID_DEFAULTS.get(prefix, options[0]))
+    left, right = st.columns([3, 2])
+    bound(left.selectbox, "Substance", f"{prefix}.substance", options=options,
+          format_func=labels.get)
+    bound(right.text_input, "Find by name, synonym or CAS", f"{prefix}.find",
+          on_change=_found, args=(prefix,), placeholder="e.g. MEK or 67-64-1")
+    text = str(inputs.get(key(f"{prefix}.find")) or "").strip()
+    if text:
+        hit = find_substance(text)
+        if hit["key"]:
+            st.caption(f"'{text}' is {labels.get(hit['key'], hit['key'])}.")
+        elif hit["matches"]:
+            st.caption(f"No exact match for '{text}'. Close matches:")
+            cols = st.columns(min(3, len(hit["matches"])))
+            for i, match in enumerate(hit["matches"]):
+                cols[i % len(cols)].button(labels.get(match, match), key=f"pick:{prefix}:{match}",
+                                           on_click=_pick, args=(prefix, match))
+        else:
+            st.error(f"**Substance search**: {hit['error']}")
+
+
+def table_editor(name: str, column_config: dict, *, help_text: str = "") -> pd.DataFrame:
+    """An editable table whose rows survive page switches and scenario loads."""
+    inputs = store()
+    generation = inputs.get("tbl.generation", 0)
+    editor = f"tbl:{name}:editor:{generation}"
+    base = f"tbl:{name}:base"
+    if editor not in st.session_state or inputs.get(base, (None,))[0] != generation:
+        inputs[base] = (generation,
+                        pd.DataFrame(inputs.get(case.table_key(name))).reset_index(drop=True))
+    edited = st.data_editor(inputs[base][1], key=editor, num_rows="dynamic", hide_index=True,
+                            column_config=column_config, width="stretch")
+    inputs[case.table_key(name)] = edited
+    if help_text:
+        st.caption(help_text)
+    return edited
+
+
+def own_substance_block(slots: Slots) -> None:
+    """A substance defined from its safety data sheet."""
+    text_box("Name", "sds.name")
+    a, b = st.columns(2)
+    number("Molar mass [g/mol]", "sds.molar_mass", container=a)
+    quantity("Normal boiling point", "sds.boiling", container=b)
+    a, b = st.columns(2)
+    quantity("Vapour pressure", "sds.vp", optional=True, container=a,
+             help="As the safety data sheet gives it, with the temperature beside.")
+    quantity("at the temperature", "sds.vp_temperature", optional=True, container=b)
+    a, b, c = st.columns(3)
+    number("LFL [% by volume]", "sds.lfl", optional=True, container=a)
+    number("UFL [% by volume]", "sds.ufl", optional=True, container=b)
+    quantity("Liquid density", "sds.density", optional=True, container=c)
+    st.caption("Without a vapour pressure, the boiling point and Trouton's rule give a rough "
+               "curve (the result says so). Leave a box empty when the sheet gives no value.")
+
+
+def liquid_block(prefix: str, slots: Slots, *, allow_water: bool = False) -> None:
+    kinds = ["table", "mixture", "own"] + (["water"] if allow_water else [])
+    kind = choice("Liquid", f"{prefix}.kind", kinds, format_func=case.LIQUID_KINDS.get,
+                  horizontal=True)
+    if kind == "table":
+        substance_chooser(prefix, slots)
+    elif kind == "mixture":
+        a, b = st.columns([3, 2])
+        text_box("Name of the mixture", f"{prefix}.liquid_name", container=a,
+                 placeholder="mixture")
+        choice("Percentages by", f"{prefix}.basis", ["mass", "mole", "volume"], container=b,
+               horizontal=True)
+        table_editor(f"{prefix}.mixture", {
+            "component": st.column_config.SelectboxColumn(
+                "component", options=substance_names(), required=True),
+            "percent": st.column_config.NumberColumn("percent", min_value=0.0,
+                                                     max_value=100.0, format="%g")},
+            help_text="Safety data sheets give mass %. Percentages are normalised when they "
+                      "add up to within 5 % of 100 (with a note).")
+    elif kind == "own":
+        own_substance_block(slots)
+    else:
+        text_box("Name of the water", f"{prefix}.liquid_name",
+                 placeholder="water with dissolved solvents")
+        table_editor(f"{prefix}.dissolved", {
+            "compound": st.column_config.SelectboxColumn(
+                "compound", options=list(substance_table()["name"]), required=True),
+            "mg/L": st.column_config.NumberColumn("mg/L", min_value=0.0, format="%g")},
+            help_text="Dilute solutions only (Henry's law).")
+    slots.add("liquid")
+
+
+LIMIT_KINDS = ["TWA", "STEL", "ceiling", "emergency"]
+
+
+def _check_limit(number_in_table: int, item: dict) -> str | None:
+    from estimator.scenario import dumps_scenario
+
+    doc = {"scenario": {"title": "limit check"}, "limit": [item]}
+    own = case.own_substance(store())
+    if item.get("substance", "").strip().lower() == own["name"].lower():
+        doc["substance"] = [own]
+    problem = views.scenario_problem(dumps_scenario(doc))
+    if problem is None or not problem["field"].startswith("[[limit]]"):
+        return None
+    kind = next((k for k in LIMIT_KINDS if k in item), "")
+    what = " ".join(x for x in (item.get("substance", ""), kind) if x)
+    return f"row {number_in_table} ({what}): {problem['reason']}; this row is left out"
+
+
+def accepted_limits() -> tuple[list, list[str]]:
+    """The rows of the limits table the core accepts, as (row, item) pairs, and the
+    problems of the others (each left out)."""
+    good, problems = [], []
+    for row, item in case.limit_rows(store()):
+        problem = _check_limit(row, item)
+        if problem:
+            problems.append(problem)
+        else:
+            good.append((row, item))
+    return good, problems
+
+
+def limits_block(slots: Slots) -> list:
+    """The limits table; returns the rows the core accepts, as (row, item) pairs."""
+    st.markdown("**Exposure limits** (ullage ships none: enter those that apply to you, "
+                "each with its source)")
+    table_editor("limits", {
+        "substance": st.column_config.SelectboxColumn("substance", options=substance_names(),
+                                                      required=True),
+        "kind": st.column_config.SelectboxColumn("kind", options=LIMIT_KINDS, default="TWA",
+                                                 required=True),
+        "value": st.column_config.NumberColumn("value", min_value=0.0, format="%g"),
+        "unit": st.column_config.SelectboxColumn("unit", options=["ppm", "mg/m3"],
+                                                 default="ppm", required=True),
+        "source": st.column_config.TextColumn(
+            "source", help="Where the value comes from: regulation, standard, company value "
+                           "or 'illustrative'. Required.")})
+    slots.add("limits")
+    good, problems = accepted_limits()
+    slots.problems("limits", problems)
+    return good
+
+
+def limits_summary(slots: Slots) -> list:
+    """On a study page: which limits and alarms are in use, and any left out."""
+    good, problems = accepted_limits()
+    inputs = store()
+    alarms = case.alarms(inputs)
+    words = f"{len(good)} exposure limit(s) in use" if good else "No exposure limit entered"
+    alarm_words = (f"alarms {inputs.get(key('alarm.percent_lfl'))} % LFL, oxygen "
+                   f"{inputs.get(key('alarm.oxygen_low'))}–{inputs.get(key('alarm.oxygen_high'))} %"
+                   + (" (edited)" if alarms else " (OSHA 29 CFR 1910.146 defaults)"))
+    site = SITE_MODES.get(inputs.get(key("site.mode")), "")
+    st.caption(f"{words}; {alarm_words}; site pressure: {site.lower()}. Change them on the "
+               "page *Limits, alarms and site*.")
+    slots.add("limits")
+    slots.add("alarms")
+    slots.add("site")
+    slots.problems("limits", problems)
+    return good
+
+
+def alarms_block(slots: Slots) -> None:
+    from estimator.limits import FlammabilityAlarms
+
+    default = FlammabilityAlarms()
+    st.markdown("**Alarm levels**")
+    a, b, c = st.columns(3)
+    number("Flammable vapour [% of LFL]", "alarm.percent_lfl", container=a)
+    number("Oxygen low [%]", "alarm.oxygen_low", container=b)
+    number("Oxygen high [%]", "alarm.oxygen_high", container=c)
+    text_box("Source of these alarm levels", "alarm.source")
+    st.caption(f"Defaults: {default.percent_lfl:g} % of the LFL, oxygen "
+               f"{default.oxygen_low:g}–{default.oxygen_high:g} % — {default.source}.")
+    slots.add("alarms")
+
+
+SITE_MODES = {"sea level": "Sea level (101.325 kPa)", "elevation": "From the site elevation",
+              "barometric": "Measured barometric pressure"}
+
+
+def site_block(slots: Slots) -> None:
+    mode = choice("Site pressure", "site.mode", list(SITE_MODES), format_func=SITE_MODES.get,
+                  horizontal=True)
+    if mode == "elevation":
+        quantity("Site elevation", "site.elevation")
+    elif mode == "barometric":
+        quantity("Barometric pressure", "site.barometric")
+    slots.add("site")
+
+
+# ------------------------------------------------------------------- results
+
+def markdown_table(frame: pd.DataFrame) -> str:
+    """A small table as Markdown text (cheaper to send than a data grid)."""
+    def cell(value) -> str:
+        return str(value).replace("|", "\\|").replace("\n", " ")
+
+    head = "| " + " | ".join(cell(c) for c in frame.columns) + " |"
+    rule = "|" + "---|" * len(frame.columns)
+    rows = ["| " + " | ".join(cell(v) for v in values) + " |"
+            for values in frame.itertuples(index=False, name=None)]
+    return "\n".join([head, rule] + rows)
+
+
+def table(frame: pd.DataFrame) -> None:
+    if frame is not None and len(frame):
+        st.markdown(markdown_table(frame))
+
+
+def bullet_list(lines) -> str:
+    return "\n".join(f"- {line}" for line in lines)
+
+
+def show_notes(view: dict) -> None:
+    """Findings, warnings and assumptions of a result."""
+    if view.get("findings"):
+        st.markdown("**What the screening finds**\n\n" + bullet_list(view["findings"]))
+    if view.get("warnings"):
+        st.warning("**Warnings**\n\n" + bullet_list(view["warnings"]))
+    if view.get("assumptions"):
+        st.caption("Assumptions: " + "; ".join(view["assumptions"]) + ".")
+
+
+#: Colours of limit lines: dark, warm and clearly apart from the data lines.
+LIMIT_COLOURS = ["#7a1f1f", "#a65e00", "#5b3a73", "#375a7f", "#5e5e5e", "#8c4a2f", "#2f5d50"]
+
+
+def chart(data: pd.DataFrame, *, x: str, x_title: str, y: str, y_title: str,
+          log_x: bool = False, log_y: bool = False, lines=(), line_field: str = "ppm",
+          color: str | None = "series", marker: float | None = None) -> None:
+    """A line chart with limits drawn as labelled horizontal dashed lines."""
+    x_enc = {"field": x, "type": "quantitative", "title": x_title}
+    y_enc = {"field": y, "type": "quantitative", "title": y_title}
+    if log_x:
+        x_enc["scale"] = {"type": "log"}
+    if log_y:
+        y_enc["scale"] = {"type": "log"}
+    encoding = {"x": x_enc, "y": y_enc,
+                "tooltip": [{"field": x, "type": "quantitative", "format": ".4g"},
+                            {"field": y, "type": "quantitative", "format": ".4g"}]}
+    if color:
+        encoding["color"] = {"field": color, "type": "nominal", "title": None,
+                             "legend": {"orient": "right", "labelLimit": 160}}
+        encoding["strokeDash"] = {"field": color, "type": "nominal", "legend": None}
+        encoding["tooltip"].append({"field": color, "type": "nominal"})
+    layers = [{"mark": {"type": "line", "strokeWidth": 2}, "encoding": encoding}]
+    if lines:
+        values = [dict(v) for v in lines]
+        layers.append({"data": {"values": values},
+                       "mark": {"type": "rule", "strokeDash": [6, 4], "strokeWidth": 1.5},
+                       "encoding": {"y": {"field": line_field, "type": "quantitative"},
+                                    "color": {"field": "limit", "type": "nominal",
+                                              "title": "limits (dashed)",
+                                              "scale": {"range": LIMIT_COLOURS},
+                                              "legend": {"orient": "right",
+                                                         "labelLimit": 160}},
+                                    "tooltip": [{"field": "limit", "type": "nominal"}]}})
+    if marker is not None:
+        layers.append({"data": {"values": [{x: marker}]},
+                       "mark": {"type": "rule", "color": "#555555", "strokeDash": [2, 3]},
+                       "encoding": {"x": {"field": x, "type": "quantitative"}}})
+    spec = {"layer": layers,
+            "resolve": {"scale": {"color": "independent", "strokeDash": "independent"},
+                        "legend": {"color": "independent"}}}
+    st.vega_lite_chart(data, spec, width="stretch", height=320)
+
+
+def downloads(toml_text: str | None, stem: str) -> None:
+    """Download buttons for the HTML report and the CSV results of the case on screen."""
+    if toml_text is None:
+        return
+    if not views.reports_available():
+        st.info("Reports are not available in this version of ullage.")
+        return
+    a, b = st.columns(2)
+    a.download_button("Download the HTML report", data=lambda: views.report_text(toml_text, "html"),
+                      file_name=f"{stem}-report.html", mime="text/html", on_click="ignore",
+                      key=f"dl:{stem}:html")
+    b.download_button("Download the results (CSV)", data=lambda: views.report_text(toml_text, "csv"),
+                      file_name=f"{stem}-results.csv", mime="text/csv", on_click="ignore",
+                      key=f"dl:{stem}:csv")

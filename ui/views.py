@@ -1,0 +1,504 @@
+"""Cached runs of the core for the pages, turned into plain numbers, words and tables.
+
+Each function takes hashable inputs (scenario text, strings, floats, tuples), calls
+the core, and returns plain values (dicts, strings, floats, DataFrames) that the
+pages show as they are. A core error comes back as ``{"error": {...}}`` with the
+field at fault, never as an exception. Numbers are only converted to the display
+units here (at the edge, with `estimator.units.convert`); nothing is computed.
+"""
+
+from __future__ import annotations
+
+import functools
+import math
+import re
+import tempfile
+import warnings
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+import streamlit as st
+
+from estimator.errors import UllageError
+from estimator.limits import format_ppm, format_ratio
+from estimator.units import convert
+
+from ui.case import UNITS, unit_label
+
+#: How many points of a time series are drawn (the table keeps every point).
+PLOT_POINTS = 400
+
+
+# ------------------------------------------------------------------------- errors
+
+_SCENARIO_FIELD = re.compile(r"^\[\[?(\w+)\]\]?(?:\s+#(\d+))?(?:\s+([A-Za-z_]+))?")
+
+#: Which block of a page an error belongs to: (section, key) of a scenario field,
+#: or a core argument name.
+_AREAS = {
+    ("tank", "temperature"): "temperature", ("tank", "worst_temperature"): "temperature",
+    ("tank", "volume"): "tank", ("tank", "fill"): "tank", ("tank", "gauge_pressure"): "tank",
+    ("tank", "name"): "tank",
+    ("spill", "temperature"): "temperature", ("spill", "volume"): "amount",
+    ("spill", "mass"): "amount", ("spill", "area"): "amount", ("spill", "dike_area"): "amount",
+    ("spill", "depth"): "amount", ("spill", "duration"): "time",
+    ("spill", "cleanup_after"): "time", ("spill", "model"): "amount",
+    ("outdoors", "receptors"): "receptors",
+}
+_SECTIONS = {"liquid": "liquid", "substance": "liquid", "limit": "limits", "alarms": "alarms",
+             "conditions": "site", "room": "room", "outdoors": "weather", "tank": "details",
+             "spill": "amount", "scenario": "general", "shift": "time"}
+_CORE_FIELDS = {
+    "temperature": "temperature", "elevation": "site", "barometric pressure": "site",
+    "gauge pressure": "tank", "pressure": "site", "liquid": "liquid", "substance": "liquid",
+    "dissolved": "liquid", "dissolved compound": "liquid", "limit substance": "limits",
+    "room volume": "room", "ventilation rate": "room", "mixing factor": "room",
+    "near field": "room", "near-field volume": "room", "interzonal airflow": "room",
+    "spilled volume": "amount", "spilled mass": "amount", "pool area": "amount",
+    "duration": "time", "source removed at": "time", "wind_speed": "weather",
+    "wind speed": "weather", "stability": "weather", "terrain": "weather",
+    "distance": "receptors", "LFL alarm": "alarms", "oxygen bounds": "alarms",
+}
+
+
+def area_of(field: str) -> str:
+    """The block of the page that an error's field points at."""
+    text = str(field or "").strip()
+    match = _SCENARIO_FIELD.match(text)
+    if match:
+        section, _, name = match.groups()
+        return _AREAS.get((section, name), _SECTIONS.get(section, "general"))
+    if text == "scenario file":
+        return "file"
+    lowered = text.lower()
+    for name, area in _CORE_FIELDS.items():
+        if lowered == name.lower() or lowered.startswith(name.lower() + " "):
+            return area
+    if "source" in lowered or lowered.endswith((" twa", " stel", " ceiling", " emergency")):
+        return "limits"
+    if any(w in lowered for w in ("molar_mass", "boiling_point", "flammability", "density",
+                                  "flash_point", "vapour pressure", "vapor_pressure")):
+        return "liquid"
+    return "general"
+
+
+def error_record(exc) -> dict:
+    field = getattr(exc, "field", "") or ""
+    reason = getattr(exc, "reason", None) or str(exc)
+    return {"field": field, "reason": reason, "area": area_of(field)}
+
+
+def _split_message(message: str) -> dict:
+    """A run error's text ("field: reason") as an error record."""
+    field, _, reason = str(message).partition(": ")
+    if not reason or (area_of(field) == "general" and not field.startswith("[")):
+        field, reason = "", str(message)
+    area = area_of(field)
+    if not field and "integration failed" in reason:
+        area = "solver"
+    return {"field": field, "reason": reason, "area": area}
+
+
+def _load(toml_text: str):
+    from estimator.scenario import loads_scenario
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        return loads_scenario(toml_text)
+
+
+# ----------------------------------------------------------------------- helpers
+
+def _ppm(value) -> str:
+    return f"{format_ppm(float(value))} ppm"
+
+
+def _display(values, kind: str, units: str):
+    return convert(values, UNITS[kind]["core"], UNITS[kind][units][2])
+
+
+def _temperature_text(kelvin: float | None, units: str) -> str:
+    if kelvin is None:
+        return "-"
+    return f"{_display(kelvin, 'temperature', units):.1f} {unit_label('temperature', units)}"
+
+
+def _quantity_text(value, kind: str, units: str, digits: str = ".3g") -> str:
+    if value is None:
+        return "-"
+    return f"{_display(value, kind, units):{digits}} {unit_label(kind, units)}"
+
+
+def _minutes(seconds) -> str:
+    if seconds is None or (isinstance(seconds, float) and not math.isfinite(seconds)):
+        return "-"
+    return f"{float(seconds) / 60.0:.0f} min"
+
+
+def _uncertainty_text(value) -> str:
+    return "not validated" if value is None else f"±{100.0 * value:.2g} % (95 % of checks)"
+
+
+def _thin(n: int, cap: int = PLOT_POINTS) -> np.ndarray:
+    if n <= cap:
+        return np.arange(n)
+    return np.unique(np.linspace(0, n - 1, cap).round().astype(int))
+
+
+def _limit_lines(limits, keys=None) -> list[dict]:
+    out = []
+    for lim in limits:
+        if keys is not None and lim.substance not in keys:
+            continue
+        out.append({"ppm": float(lim.ppm),
+                    "limit": f"{lim.substance} {lim.kind} {format_ppm(lim.ppm)} ppm"})
+    return out
+
+
+# ------------------------------------------------------------------------ tank
+
+def _headspace_summary(hs, units: str) -> dict:
+    comps = hs.liquid.components
+    y = np.asarray(hs.volume_fractions, dtype=float)
+    mg = np.asarray(hs.mg_per_m3, dtype=float)
+    p_sat = np.asarray(hs.saturation_pressures, dtype=float)
+    p_i = np.asarray(hs.partial_pressures, dtype=float)
+    x = np.asarray(hs.liquid.mole_fractions, dtype=float)
+    plabel = unit_label("vapour_pressure", units)
+    rows = []
+    for i, c in enumerate(comps):
+        rows.append({
+            "component": c.name,
+            "mole fraction in liquid": f"{x[i]:.3g}",
+            f"vapour pressure [{plabel}]": ("-" if not np.isfinite(p_sat[i]) else
+                                             f"{_display(p_sat[i], 'vapour_pressure', units):.3g}"),
+            f"partial pressure [{plabel}]": f"{_display(p_i[i], 'vapour_pressure', units):.3g}",
+            "headspace [ppm]": format_ppm(y[i] * 1e6),
+            "headspace [mg/m³]": f"{mg[i]:.3g}",
+        })
+    methods = []
+    for i, est in enumerate(hs.vapor_pressure_methods):
+        methods.append({"component": comps[i].name, "method": est.description,
+                        "stated uncertainty": _uncertainty_text(est.relative_uncertainty),
+                        "data source": est.source})
+    state = str(np.asarray(hs.flammability).item())
+    return {
+        "total_ppm": float(hs.total_ppm),
+        "total_ppm_text": _ppm(hs.total_ppm),
+        "total_mg_text": f"{float(hs.total_mg_per_m3):.3g} mg/m³",
+        "percent_lfl": float(hs.percent_lfl),
+        "percent_lfl_text": f"{float(hs.percent_lfl):.3g} %",
+        "oxygen_text": f"{float(hs.oxygen_percent):.3g} %",
+        "flammability": state,
+        "flammability_words": str(hs.flammability_words),
+        "components": pd.DataFrame(rows),
+        "methods": pd.DataFrame(methods),
+        "uncertainty": _uncertainty_text(hs.relative_uncertainty),
+        "activity": hs.liquid.activity_source,
+        "pressure_text": _quantity_text(hs.pressure, "barometric", units, ".4g"),
+        "warnings": list(hs.warnings),
+    }
+
+
+def _comparison_rows(comparisons) -> pd.DataFrame:
+    rows = []
+    for c in comparisons:
+        lim = c.limit
+        rows.append({"substance": lim.substance, "limit": f"{lim.kind} {lim.value:g} {lim.unit}",
+                     "headspace": _ppm(c.concentration * 1e6),
+                     "against the limit": f"{format_ratio(c.ratio)} the limit",
+                     "ratio": float(c.ratio), "source": lim.source})
+    return pd.DataFrame(rows, columns=["substance", "limit", "headspace", "against the limit",
+                                       "ratio", "source"])
+
+
+@st.cache_data(max_entries=64, show_spinner=False)
+def tank_view(toml_text: str, units: str) -> dict:
+    """Screen the tank of a one-tank scenario; plain values for the tank page."""
+    from estimator.screening import screen_tank
+
+    try:
+        scenario = _load(toml_text)
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            result = screen_tank(scenario, scenario.tanks[0])
+    except (UllageError, ValueError) as exc:
+        return {"error": error_record(exc)}
+    hs = result.headspace
+    view = {"error": None, "name": result.name, "liquid": result.liquid,
+            "temperature_text": _temperature_text(result.temperature, units),
+            "now": _headspace_summary(hs, units),
+            "worst": None if result.worst is None else _headspace_summary(result.worst, units),
+            "worst_temperature_text": _temperature_text(result.worst_temperature, units),
+            "comparisons": _comparison_rows(result.comparisons),
+            "worst_comparisons": _comparison_rows(result.worst_comparisons),
+            "additive_index": result.additive_index,
+            "worst_additive_index": result.worst_additive_index,
+            "findings": list(result.findings), "warnings": list(result.warnings),
+            "assumptions": list(scenario.assumptions),
+            "flash_point_text": None, "alarm_temperature_text": None,
+            "alarm_percent": float(scenario.alarms.percent_lfl),
+            "alarm_source": scenario.alarms.source, "details": []}
+    if result.flash_point is not None:
+        fp = result.flash_point
+        text = f"{_temperature_text(fp.estimate, units)} (estimated; {fp.note})"
+        if fp.published is not None:
+            text += f"; published closed cup {_temperature_text(fp.published, units)}"
+        view["flash_point_text"] = text
+    if result.alarm_temperature is not None:
+        view["alarm_temperature_text"] = _temperature_text(result.alarm_temperature, units)
+    mass = "mass"
+    if result.inventory is not None:
+        view["details"].append(("Vapour in the tank's vapour space",
+                                _quantity_text(result.inventory.total_mass, mass, units)))
+    if result.filling is not None:
+        view["details"].append(("Vapour pushed out by filling",
+                                _quantity_text(result.filling.total_mass, mass, units)))
+    if result.breathing is not None:
+        view["details"].append(("Vapour breathed out over one day's temperature swing",
+                                _quantity_text(result.breathing.total_mass, mass, units)))
+    if result.purge is not None:
+        purge = result.purge
+        view["details"].append(("Purge before entry",
+                                f"{_minutes(purge.time)} to reach "
+                                f"{format_ppm(purge.target_volume_fraction * 1e6)} ppm"
+                                if purge.reachable else purge.note))
+    if result.sweep is not None:
+        sweep = result.sweep
+        t = _display(np.asarray(sweep.temperature, dtype=float), "temperature", units)
+        frames = [pd.DataFrame({"temperature": t, "ppm": np.asarray(sweep.total_ppm),
+                                "series": "all vapour"})]
+        comps = sweep.liquid.components
+        if len(comps) > 1:
+            for i, c in enumerate(comps):
+                frames.append(pd.DataFrame({"temperature": t, "ppm": sweep.ppm[i],
+                                            "series": c.name}))
+        view["sweep"] = pd.concat(frames, ignore_index=True)
+        view["sweep_lfl"] = pd.DataFrame({"temperature": t,
+                                          "percent_lfl": np.asarray(sweep.percent_lfl)})
+    else:
+        view["sweep"] = view["sweep_lfl"] = None
+    view["limit_lines"] = _limit_lines(scenario.limits)
+    view["temperature_unit"] = unit_label("temperature", units)
+    view["stated_temperature"] = float(_display(result.temperature, "temperature", units))
+    return view
+
+
+# ----------------------------------------------------------------------- spills
+
+def _spill_result(toml_text: str):
+    from estimator.screening import run_scenario
+
+    scenario = _load(toml_text)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        result = run_scenario(scenario)
+    if result.errors:
+        return scenario, None, _split_message(result.errors[0][1])
+    return scenario, result.spills[0], None
+
+
+def _exposure_tables(spill) -> tuple[pd.DataFrame, pd.DataFrame]:
+    metrics, comparisons = [], []
+    for e in spill.exposures:
+        metrics.append({"zone": e.zone, "substance": e.substance, "peak": _ppm(e.peak),
+                        "peak at": _minutes(e.peak_time), "8-h TWA": _ppm(e.twa),
+                        "highest 15-min average": _ppm(e.short_term)})
+        for label, limit_ppm, ratio, first, back in e.comparisons:
+            comparisons.append({
+                "zone": e.zone, "substance": e.substance, "limit": label,
+                "against the limit": f"{format_ratio(ratio)} the limit", "ratio": float(ratio),
+                "above from": _minutes(first),
+                "back below at": ("not within the run" if first is not None and back is None
+                                  else _minutes(back))})
+    return pd.DataFrame(metrics), pd.DataFrame(
+        comparisons, columns=["zone", "substance", "limit", "against the limit", "ratio",
+                              "above from", "back below at"])
+
+
+def _rates_text(spill) -> str:
+    names = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
+    parts = [f"{names.get(m, m)} {1000.0 * r:.3g} g/s" for m, r in spill.initial_rates.items()]
+    return ", ".join(parts)
+
+
+@st.cache_data(max_entries=64, show_spinner=False)
+def indoor_view(toml_text: str, units: str) -> dict:
+    """Run the indoor spill of a one-spill scenario; plain values for the page."""
+    try:
+        scenario, spill, problem = _spill_result(toml_text)
+    except (UllageError, ValueError) as exc:
+        return {"error": error_record(exc)}
+    if problem is not None:
+        return {"error": problem}
+    run = spill.indoor
+    zones = [("room", "far field" if run.near_field is not None else "room")]
+    if run.near_field is not None:
+        zones.insert(0, ("near_field", "near field"))
+    keep = _thin(run.times.size)
+    frames = []
+    for zone, label in zones:
+        ppm = run.ppm(zone)
+        for j, name in enumerate(run.components):
+            frames.append(pd.DataFrame({"minutes": run.times[keep] / 60.0,
+                                        "ppm": ppm[keep, j], "series": f"{label}: {name}"}))
+    metrics, comparisons = _exposure_tables(spill)
+    first = spill.exposures[0] if spill.exposures else None
+    gone = run.pool_gone_time
+    if math.isfinite(gone):
+        pool = f"evaporated after {_minutes(gone)}"
+    elif run.source_removed_time is not None and run.source_removed_time < run.times[-1]:
+        pool = f"cleaned up at {_minutes(run.source_removed_time)}"
+    else:
+        pool = "still there at the end of the run"
+    return {
+        "error": None, "name": spill.name, "where": spill.where,
+        "peak_text": _ppm(first.peak) if first else "-",
+        "peak_zone": first.zone if first else "",
+        "peak_time_text": _minutes(first.peak_time) if first else "-",
+        "twa_text": _ppm(first.twa) if first else "-",
+        "short_text": _ppm(first.short_term) if first else "-",
+        "pool_text": pool,
+        "pool_area_text": _quantity_text(run.pool_area, "area", units),
+        "model": run.model, "rates_text": _rates_text(spill),
+        "mass_balance_text": f"{100.0 * run.mass_balance_error:.2g} %",
+        "series": pd.concat(frames, ignore_index=True),
+        "metrics": metrics, "comparisons": comparisons,
+        "limit_lines": _limit_lines(scenario.limits, {c.key for c in _components(scenario)}),
+        "findings": list(spill.findings), "warnings": list(spill.warnings),
+        "assumptions": list(scenario.assumptions),
+    }
+
+
+def _components(scenario):
+    """The substances of every liquid of a scenario."""
+    out = []
+    for entry in scenario.liquids.values():
+        spec = entry["spec"]
+        out.extend(spec if isinstance(spec, dict) else [spec])
+    return out
+
+
+@st.cache_data(max_entries=64, show_spinner=False)
+def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
+    """Run the outdoor spill of a one-spill scenario; plain values for the page.
+
+    `receptors` are the distances the user asked for, in the display length unit;
+    the scenario may hold more (a grid for the plot).
+    """
+    try:
+        scenario, spill, problem = _spill_result(toml_text)
+    except (UllageError, ValueError) as exc:
+        return {"error": error_record(exc)}
+    if problem is not None:
+        return {"error": problem}
+    run = spill.outdoor
+    distance = _display(np.asarray(run.distances, dtype=float), "length", units)
+    ppm = np.asarray(run.volume_fraction, dtype=float) * 1e6
+    frames = [pd.DataFrame({"distance": distance, "ppm": ppm[:, j], "series": name})
+              for j, name in enumerate(run.components)]
+    rows = []
+    for r in receptors:
+        i = int(np.argmin(np.abs(distance - r)))
+        row = {f"distance [{unit_label('length', units)}]": f"{r:g}"}
+        for j, name in enumerate(run.components):
+            row[name] = _ppm(ppm[i, j])
+        rows.append(row)
+    distances = [{"limit": label,
+                  "centreline above it out to": ("beyond the farthest distance computed"
+                                                 if d is None else "stays below it" if d == 0
+                                                 else _quantity_text(d, "length", units, ",.0f")),
+                  "note": note} for label, d, note in spill.distances]
+    return {
+        "error": None, "name": spill.name,
+        "source_text": f"{1000.0 * float(np.sum(run.emission_rate)):.3g} g/s",
+        "stability": run.stability, "terrain": run.terrain,
+        "wind_text": _quantity_text(run.wind_speed, "wind", units, ".2g"),
+        "rates_text": _rates_text(spill),
+        "series": pd.concat(frames, ignore_index=True),
+        "receptors": pd.DataFrame(rows), "distances": pd.DataFrame(distances),
+        "limit_lines": _limit_lines(scenario.limits, set(_keys(scenario))),
+        "findings": list(spill.findings), "warnings": list(spill.warnings),
+        "assumptions": list(scenario.assumptions),
+        "distance_unit": unit_label("length", units),
+    }
+
+
+def _keys(scenario):
+    return [c.key for c in _components(scenario)]
+
+
+# --------------------------------------------------------------------- checks
+
+@functools.lru_cache(maxsize=512)
+def scenario_problem(toml_text: str) -> dict | None:
+    """The first problem `loads_scenario` finds in a text, or None."""
+    try:
+        _load(toml_text)
+    except (UllageError, ValueError) as exc:
+        return error_record(exc)
+    return None
+
+
+@functools.lru_cache(maxsize=32)
+def report_text(toml_text: str, kind: str) -> str:
+    """The HTML report or the CSV results of a scenario (core `estimator.report`)."""
+    from estimator import report
+    from estimator.screening import run_scenario
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        result = run_scenario(_load(toml_text))
+    if kind == "html":
+        return report.html_report(result)
+    if kind == "csv":
+        return report.results_csv(result)
+    if kind == "markdown":
+        return report.markdown_report(result)
+    raise ValueError(f"unknown report kind {kind!r}; use html, csv or markdown")
+
+
+def reports_available() -> bool:
+    from estimator import report
+
+    return all(hasattr(report, name) for name in ("html_report", "results_csv"))
+
+
+# -------------------------------------------------------------------- inventory
+
+@st.cache_data(max_entries=8, show_spinner=False)
+def inventory_view(data: bytes, filename: str, pressure: float | None,
+                   elevation: float | None, alarms: tuple) -> dict:
+    """Screen an uploaded inventory file; plain values for the inventory page.
+
+    `pressure` [Pa] or `elevation` [m] is the site's; `alarms` is
+    (percent LFL, oxygen low, oxygen high, source).
+    """
+    from estimator.inventory import screen_inventory, sorted_by_concern, write_inventory_csv
+    from estimator.limits import FlammabilityAlarms
+
+    suffix = Path(filename).suffix.lower() or ".csv"
+    try:
+        alarm_levels = FlammabilityAlarms(*alarms)
+        with tempfile.TemporaryDirectory() as folder:
+            path = Path(folder) / f"inventory{suffix}"
+            path.write_bytes(data)
+            kwargs = {"elevation": elevation} if elevation is not None else (
+                {"pressure": pressure} if pressure is not None else {})
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore")
+                result = screen_inventory(path, alarms=alarm_levels, **kwargs)
+            out = Path(folder) / "screened.csv"
+            write_inventory_csv(result, out)
+            csv_text = out.read_text(encoding="utf-8-sig")
+    except (UllageError, ValueError) as exc:
+        return {"error": error_record(exc)}
+    table = sorted_by_concern(result)
+    summary = result.summary
+    errors = table[table["status"] == "error"]
+    return {"error": None, "rows": summary.rows, "counts": dict(summary.counts),
+            "at_or_above": summary.at_or_above_alarm, "liquids": summary.liquids,
+            "worst": summary.worst.reset_index(drop=True), "table": table.reset_index(drop=True),
+            "errors": list(errors["reason"].astype(str)), "warnings": list(result.warnings),
+            "csv": csv_text, "pressure_text": f"{result.pressure / 1000.0:.4g} kPa"}
