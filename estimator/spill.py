@@ -248,18 +248,27 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     to_pressure = GAS_CONSTANT * t_k / molar
     surface = gamma * p_sat
     q_eff = q / k_mix
+    if 0.0 < q_eff * end / v_room < 1e-9:
+        q_eff = 0.0
+        notes.append("the ventilation rate changes less than a billionth of the room air "
+                     "over the run: treated as a closed room")
     budget = _Budget(400_000, float(time_limit))
     v_ff = v_room - v_nf if two_zone else v_room
 
     floor = DEPLETED_FRACTION * n0.sum()
 
     def rates(n, c_drive, active):
-        """Evaporation rates [kg/s]; n and c_drive of shape (..., n_comp)."""
+        """Evaporation rates [kg/s]; n and c_drive of shape (..., n_comp).
+
+        The last `DEPLETED_FRACTION` of the pool evaporates with a rate that falls
+        smoothly to zero (factor total / (total + floor)) instead of stopping at a
+        kink, so the solver never chatters at the moment the pool runs dry.
+        """
         positive = np.clip(n, 0.0, None)
         total = positive.sum(axis=-1, keepdims=True)
-        x = positive / np.where(total > 0.0, total, 1.0)
+        x = positive / (total + floor)
         g = per_pascal * np.clip(x * surface - c_drive * to_pressure, 0.0, None)
-        return np.where(np.asarray(active)[..., None] & (total > floor), g, 0.0)
+        return np.where(np.asarray(active)[..., None], g, 0.0)
 
     no_rate = np.zeros(n_comp)
 
@@ -269,10 +278,8 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
             return no_rate
         positive = np.maximum(n, 0.0)
         total = positive.sum()
-        if total <= floor:
-            return no_rate
-        return per_pascal * np.maximum(positive * (surface / total) - c_drive * to_pressure,
-                                       0.0)
+        return per_pascal * np.maximum(positive * (surface / (total + floor))
+                                       - c_drive * to_pressure, 0.0)
 
     def rhs(t, y, active):
         budget.tick()
@@ -296,7 +303,7 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     y_out = np.empty((t_out.size, n_state))
     scale = np.concatenate((n0, np.full(zones * n_comp, mass / v_room),
                             np.full(n_comp, mass)))
-    atol = np.maximum(scale, 1e-30) * 1e-10
+    atol = np.maximum(scale, 1e-30) * 1e-12
     y_start = y0
     for index, (t0, t1, active) in enumerate(segments):
         mask = (t_out >= t0) & (t_out <= t1) if index else (t_out <= t1)
@@ -319,6 +326,9 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
             inside = np.vstack((values[:1], inside))
         y_out[mask] = inside
         y_start = values[-1]
+    if not np.all(np.isfinite(y_out)):
+        raise EvaporationSolverError("the spill integration produced no finite result; "
+                                     "check the inputs for extreme values")
     n_t = np.clip(y_out[:, :n_comp], 0.0, None)
     air = y_out[:, n_comp:(1 + zones) * n_comp]
     ventilated = y_out[:, (1 + zones) * n_comp:]

@@ -164,3 +164,23 @@ def test_scenario_save_load_round_trips(title, site, volume, fill, temp, key, pp
     assert first.tanks == second.tanks and first.limits == second.limits
     assert first.title == title.strip()
     assert math.isclose(first.tanks[0]["volume"], volume, rel_tol=1e-12)
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(key=st.sampled_from(["acetone", "toluene", "methanol", "n-hexane", "ethyl-acetate"]),
+       litres=st.floats(0.1, 200.0), room=st.floats(20.0, 5000.0), ach=st.floats(0.0, 12.0),
+       k=st.floats(1.0, 10.0), speed=st.floats(0.05, 1.0), t=st.floats(278.15, 303.15),
+       pressure=st.floats(8e4, 1.05e5))
+def test_indoor_spill_always_solves_conserves_mass_and_stays_below_saturation(
+        key, litres, room, ach, k, speed, t, pressure):
+    """Any ordinary spill solves, conserves mass, and never exceeds saturation."""
+    from estimator.spill import indoor_spill
+
+    assume(litres / 1000.0 < room / 10)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        run = indoor_spill(key, t, room_volume=room, ventilation_rate=room * ach / 3600.0,
+                           spilled_volume=litres / 1000.0, mixing_factor=k, air_speed=speed,
+                           duration=8 * 3600.0, pressure=pressure)
+    assert run.mass_balance_error < 1e-6
+    assert np.all(run.room <= run.saturation * (1 + 1e-6))
