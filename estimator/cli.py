@@ -314,7 +314,8 @@ def _cmd_app(args) -> int:
         raise _BadInput("app", "the browser front end (ui/app.py) is not in this installation")
     command = [sys.executable, "-m", "streamlit", "run", str(script),
                "--server.address", args.address, "--server.port", str(args.port),
-               "--server.headless", "true", "--browser.gatherUsageStats", "false"]
+               "--server.headless", "true", "--browser.gatherUsageStats", "false",
+               "--client.toolbarMode", "minimal"]
     print(f"ullage: serving on http://{args.address}:{args.port} (Ctrl-C to stop)",
           file=sys.stderr)
     try:

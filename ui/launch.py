@@ -34,6 +34,7 @@ DEFAULTS = {
     "--server.address": "127.0.0.1",
     "--server.headless": "true",
     "--browser.gatherUsageStats": "false",
+    "--client.toolbarMode": "minimal",
 }
 
 

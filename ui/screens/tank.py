@@ -58,7 +58,7 @@ with inputs:
 def show(view: dict) -> None:
     now = view["now"]
     st.subheader(f"{view['name']}: {view['liquid']} at {view['temperature_text']}")
-    a, b, c = st.columns(3)
+    a, b, c = st.columns([1.4, 1, 1])
     a.metric("Headspace, all vapour", now["total_ppm_text"], help=now["total_mg_text"])
     b.metric("Flammable vapour [% of LFL]", now["percent_lfl_text"],
              help=f"Alarm level {view['alarm_percent']:g} % of the LFL ({view['alarm_source']})")
