@@ -12,6 +12,15 @@ numpy arrays.
 
 __version__ = "0.1.0"
 
+#: The cautions every result carries.
+CAUTIONS = (
+    "This is a screening estimate, not a measurement.",
+    "Measure the real atmosphere with calibrated direct-reading instruments before "
+    "anyone enters or opens a space.",
+    "Follow local codes, permits, confined-space and hot-work rules, and qualified "
+    "industrial-hygiene and process-safety practice.",
+)
+
 from .errors import (
     ExtrapolationWarning,
     InputError,
@@ -31,15 +40,8 @@ from .mixtures import Liquid, liquid
 from .headspace import headspace, temperature_for_concentration
 from .evaporation import evaporation_rate
 from .indoor import well_mixed_room
-
-#: The cautions every result carries.
-CAUTIONS = (
-    "This is a screening estimate, not a measurement.",
-    "Measure the real atmosphere with calibrated direct-reading instruments before "
-    "anyone enters or opens a space.",
-    "Follow local codes, permits, confined-space and hot-work rules, and qualified "
-    "industrial-hygiene and process-safety practice.",
-)
+from .scenario import load_scenario, loads_scenario
+from .screening import run_scenario
 
 __all__ = [
     "__version__",
@@ -59,6 +61,9 @@ __all__ = [
     "temperature_for_concentration",
     "evaporation_rate",
     "well_mixed_room",
+    "load_scenario",
+    "loads_scenario",
+    "run_scenario",
     "UllageError",
     "InputError",
     "OutOfRangeError",

@@ -217,7 +217,10 @@ def sweep_temperatures(liq, low: float, high: float, n: int = 41) -> np.ndarray:
 def _findings(hs: Headspace, comparisons, alarms, label: str) -> list[str]:
     from .limits import format_ppm
 
-    out = [f"{label}: headspace {format_ppm(hs.total_ppm)} ppm, "
+    water = [i for i, c in enumerate(hs.liquid.components) if c.key == "water"]
+    of_which = (f" (of which water vapour {format_ppm(float(hs.ppm[water[0]]))} ppm)"
+                if water else "")
+    out = [f"{label}: headspace {format_ppm(hs.total_ppm)} ppm{of_which}, "
            f"{float(hs.percent_lfl):.3g} % of the LFL; {hs.flammability_words}."]
     out += flammability_findings(float(hs.percent_lfl), float(hs.oxygen_percent), alarms)
     out += ["Headspace " + c.statement + "." for c in comparisons]
