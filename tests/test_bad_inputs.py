@@ -245,6 +245,59 @@ def test_inventory_rows(case):
     assert table["status"].iloc[1] in ("ok", "warning")
 
 
+def _latin1(path):
+    path.write_bytes("container,liquid,temperature_C\nCaf\xe9 T1,toluene,20\n".encode("latin-1"))
+
+
+def _huge(path):
+    from estimator.inventory import MAX_FILE_BYTES
+
+    with open(path, "wb") as handle:
+        handle.truncate(MAX_FILE_BYTES + 1)
+
+
+def _xlsx_formula(path):
+    openpyxl = pytest.importorskip("openpyxl")
+    book = openpyxl.Workbook()
+    sheet = book.active
+    sheet.append(["container", "liquid", "temperature_C"])
+    sheet.append(["T1", "toluene", "=20+5"])
+    sheet.append(["T2", "toluene", 20])
+    book.save(path)
+
+
+def _misspelt_column(path):
+    path.write_text("container,liquid,temperature_C,twa_ppn\nT1,toluene,20,5\n")
+
+
+INVENTORY_FILES = [
+    ("wrong encoding", "inv.csv", _latin1, "error", "utf-8"),
+    ("huge file", "inv.csv", _huge, "error", "mb"),
+    ("excel formula cell", "inv.xlsx", _xlsx_formula, "row", "formula"),
+    ("misspelt extra column", "inv.csv", _misspelt_column, "warning", "twa_ppm"),
+]
+
+
+@pytest.mark.parametrize("case", INVENTORY_FILES, ids=[c[0] for c in INVENTORY_FILES])
+def test_inventory_file_faults(case, tmp_path):
+    """Encodings, size, formulas and misspelt columns: refused, flagged or warned."""
+    _, name, make, outcome, fragment = case
+    path = tmp_path / name
+    make(path)
+    if outcome == "error":
+        with pytest.raises(InputError) as info:
+            screen_inventory(path)
+        assert fragment in str(info.value).lower()
+        return
+    result = screen_inventory(path)
+    if outcome == "row":
+        row = result.table.iloc[0]
+        assert row["status"] == "error" and fragment in row["reason"].lower()
+        assert result.table.iloc[1]["status"] in ("ok", "warning")
+    else:
+        assert any(fragment in w for w in result.warnings)
+
+
 @pytest.mark.parametrize("case", CLI, ids=[" ".join(c[0]) for c in CLI])
 def test_command_line(case, capsys):
     """Command line: exit code 2, the message on stderr, never a traceback."""
@@ -258,5 +311,6 @@ def test_command_line(case, capsys):
 
 def test_catalogue_size():
     """The catalogue holds at least 60 distinct bad inputs."""
-    total = len(API) + len(SCENARIO) + len(INVENTORY) + len(INVENTORY_ROWS) + len(CLI)
+    total = (len(API) + len(SCENARIO) + len(INVENTORY) + len(INVENTORY_ROWS)
+             + len(INVENTORY_FILES) + len(CLI))
     assert total >= 60
