@@ -1,13 +1,14 @@
 """The bad-input catalogue: every entry gives a clear error naming the field and what to do.
 
-One table-driven test across the Python API, scenario files, inventory files and
-the command line (the browser front end's own cases are in test_ui_pages.py).
+One table-driven test across the Python API, scenario files, inventory files, the
+command line and the browser front end (AppTest).
 Each case: what is fed in, the exact error class (or exit code 2), and a message
 fragment that names the field and says what is wrong.
 """
 
 import io
 import math
+from pathlib import Path
 
 import pandas as pd
 import pytest
@@ -26,6 +27,7 @@ from estimator.spill import indoor_spill
 from estimator.tank import vapor_space_volume
 from estimator.units import parse_quantity, parse_temperature
 
+ROOT = Path(__file__).resolve().parents[1]
 NAN = math.nan
 INF = math.inf
 
@@ -312,5 +314,74 @@ def test_command_line(case, capsys):
 def test_catalogue_size():
     """The catalogue holds at least 60 distinct bad inputs."""
     total = (len(API) + len(SCENARIO) + len(INVENTORY) + len(INVENTORY_ROWS)
-             + len(INVENTORY_FILES) + len(CLI))
+             + len(INVENTORY_FILES) + len(CLI) + len(BROWSER))
     assert total >= 60
+
+
+def _page(name):
+    from streamlit.testing.v1 import AppTest
+
+    at = AppTest.from_file(str(ROOT / "ui" / "screens" / name), default_timeout=30)
+    return at.run()
+
+
+def _browser_unknown_substance(at):
+    at.radio(key="w:tank.kind").set_value("table")
+    at.run()
+    at.text_input(key="w:tank.find").input("qqzzxv")
+
+
+def _browser_above_critical(at):
+    at.radio(key="w:tank.kind").set_value("table")
+    at.run()
+    at.selectbox(key="w:tank.substance").select("acetone")
+    at.number_input(key="w:tank.temperature").set_value(300.0)
+
+
+def _browser_broken_scenario(at):
+    at.file_uploader(key="up:scenario").set_value(
+        ("broken.toml", b"[scenario\ntitle = 'x'\n", "application/toml"))
+
+
+def _browser_huge_scenario(at):
+    at.file_uploader(key="up:scenario").set_value(
+        ("huge.toml", b"#" * 1_100_000, "application/toml"))
+
+
+def _browser_bad_receptors(at):
+    at.text_input(key="w:weather.receptors").input("100, far")
+
+
+def _browser_inventory_columns(at):
+    at.file_uploader(key="up:inventory").set_value(
+        ("plant.csv", b"tank,stuff\nA,toluene\n", "text/csv"))
+
+
+def _browser_oxygen_bounds(at):
+    at.number_input(key="w:alarm.oxygen_low").set_value(25.0)
+
+
+BROWSER = [
+    ("unknown substance", "tank.py", _browser_unknown_substance, "no substance is known"),
+    ("temperature above critical", "tank.py", _browser_above_critical, "critical temperature"),
+    ("malformed scenario upload", "tank.py", _browser_broken_scenario, "not valid TOML"),
+    ("oversized scenario upload", "tank.py", _browser_huge_scenario, "1,000,000 bytes"),
+    ("receptor distances not numbers", "spill_outdoors.py", _browser_bad_receptors,
+     "not a list of numbers"),
+    ("inventory without required columns", "inventory.py", _browser_inventory_columns,
+     "liquid"),
+    ("oxygen low above high", "limits.py", _browser_oxygen_bounds, "oxygen"),
+]
+
+
+@pytest.mark.parametrize("case", BROWSER, ids=[c[0] for c in BROWSER])
+def test_browser_front_end(case):
+    """Browser pages: an error message next to the input, never an exception."""
+    pytest.importorskip("streamlit")
+    _, name, act, fragment = case
+    at = _page(name)
+    act(at)
+    at.run()
+    assert not at.exception
+    shown = "\n".join(e.value for e in at.error)
+    assert fragment.lower() in shown.lower()
