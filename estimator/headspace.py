@@ -300,7 +300,8 @@ def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole"
     for e in estimates:
         notes.extend(e.warnings)
     p_sat = np.stack([np.asarray(e.pressure, dtype=float) for e in estimates])
-    p_i = raoult_partial_pressures(liq.mole_fractions, p_sat, liq.activity_coefficients)
+    gammas = liq.activity_coefficients_at(temperature)
+    p_i = liq.mole_fractions.reshape((-1,) + (1,) * (p_sat.ndim - 1)) * gammas * p_sat
     above_own = [c.name for c, ps in zip(liq.components, p_sat) if np.any(ps >= p_total)]
     if above_own and not liq.is_pure:
         notes.append(f"{', '.join(above_own)} is above its own boiling point at this "

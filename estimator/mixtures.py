@@ -50,6 +50,10 @@ class Liquid:
         Where the activity coefficients come from ("ideal solution" by default).
     warnings : tuple of str
         Notes from building the composition (normalisation and the like).
+    activity_model : str
+        "given" (entered, or ideal) or "unifac" (estimated at each temperature;
+        `activity_coefficients` then holds the estimate at 25 degC, which models
+        that take constant coefficients use).
     """
 
     components: tuple[Substance, ...]
@@ -57,6 +61,21 @@ class Liquid:
     activity_coefficients: np.ndarray
     activity_source: str = "ideal solution (Raoult's law, all activity coefficients 1)"
     warnings: tuple[str, ...] = ()
+    activity_model: str = "given"
+
+    def activity_coefficients_at(self, temperature) -> np.ndarray:
+        """Activity coefficients at a temperature, shape (n, *temperature.shape). [-]
+
+        Given (or ideal) coefficients are the same at every temperature; UNIFAC
+        estimates are computed at each one.
+        """
+        t = np.asarray(temperature, dtype=float)
+        if self.activity_model == "unifac":
+            from .activity import unifac_activity_coefficients
+
+            return unifac_activity_coefficients(self.components, self.mole_fractions, t)
+        return np.broadcast_to(self.activity_coefficients.reshape((-1,) + (1,) * t.ndim),
+                               (len(self.components),) + t.shape)
 
     @property
     def names(self) -> tuple[str, ...]:
@@ -179,9 +198,10 @@ def liquid(spec, basis: str = "mole", activity_coefficients=None,
         A pure liquid, or {substance or key: fraction on `basis`}.
     basis : str
         "mole", "mass" or "volume".
-    activity_coefficients : mapping or array_like, optional
+    activity_coefficients : mapping, array_like or "unifac", optional
         Per-component activity coefficients for Raoult's law (user-entered or
-        estimated elsewhere); 1 where not given.
+        estimated elsewhere), 1 where not given; or "unifac" to estimate them by
+        UNIFAC at each temperature (optional `thermo` package; labelled an estimate).
     activity_source : str, optional
         Where the activity coefficients come from, shown in reports.
     field : str
@@ -221,6 +241,17 @@ def liquid(spec, basis: str = "mole", activity_coefficients=None,
     x, notes = mole_fractions(
         amounts, [c.molar_mass for c in components], basis,
         [c.liquid_density for c in components], field)
+    if isinstance(activity_coefficients, str):
+        if activity_coefficients.strip().lower() != "unifac":
+            raise InputError(f"{field} activity coefficients",
+                             f"{activity_coefficients!r} is not an estimation method; use "
+                             "'unifac', or give the coefficients")
+        from .activity import UNIFAC_SOURCE, unifac_activity_coefficients
+
+        gammas = unifac_activity_coefficients(components, x, 298.15)
+        notes = notes + ("activity coefficients estimated by UNIFAC: an estimate; measured "
+                         "values are better where they exist",)
+        return Liquid(components, x, gammas, UNIFAC_SOURCE, notes, "unifac")
     gammas = _gammas(activity_coefficients, components, field)
     if activity_source is None:
         activity_source = ("ideal solution (Raoult's law, all activity coefficients 1)"

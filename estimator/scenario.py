@@ -87,7 +87,8 @@ _ARRAYS = {
     "liquid": {"name": ("text", True), "substance": ("text", False),
                "components": ("composition", False), "basis": ("text", False),
                "activity_coefficients": ("composition", False),
-               "activity_source": ("text", False), "dissolved_in_water": ("concentrations", False)},
+               "activity_source": ("text", False), "activity_estimate": ("text", False),
+               "dissolved_in_water": ("concentrations", False)},
     "tank": {"name": ("text", True), "liquid": ("text", True), "volume": ("volume", False),
              "fill": ("fraction", False), "temperature": ("temperature", True),
              "worst_temperature": ("temperature", False),
@@ -453,6 +454,14 @@ def loads_scenario(text: str, source_path: str = "") -> Scenario:
                     for k, c in v["dissolved_in_water"].items()}
             entry.update(kind="water", spec=spec)
         gammas = v.get("activity_coefficients")
+        if v.get("activity_estimate"):
+            if gammas:
+                r.fail("liquid", i, "activity_estimate", "give activity_coefficients or "
+                       "activity_estimate, not both")
+            if v["activity_estimate"].lower() != "unifac":
+                r.fail("liquid", i, "activity_estimate", f"{v['activity_estimate']!r} is not "
+                       "an estimation method; use \"unifac\"")
+            entry["activity_coefficients"] = "unifac"
         if gammas:
             entry["activity_coefficients"] = {
                 resolve("liquid", i, "activity_coefficients", k): g for k, g in gammas.items()}
