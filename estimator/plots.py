@@ -2,7 +2,9 @@
 
 No plotting library is needed: `line_plot_svg` writes the axes, round-number
 ticks (linear or logarithmic concentration axis), a legend and labelled dashed
-limit lines itself. Every piece of text is escaped, so labels typed by a user
+limit lines itself; `cumulative_plot_svg` does the same for the empirical
+cumulative distribution of Monte Carlo samples, with the limits as vertical
+lines. Every piece of text is escaped, so labels typed by a user
 cannot inject markup, and the same input always gives the same output, byte for
 byte.
 
@@ -21,8 +23,8 @@ import numpy as np
 
 from .errors import InputError
 
-__all__ = ["SERIES_STYLES", "LIMIT_STYLE", "MAX_PLOT_POINTS", "line_plot_svg", "nice_ticks",
-           "log_ticks", "tick_label"]
+__all__ = ["SERIES_STYLES", "LIMIT_STYLE", "MAX_PLOT_POINTS", "line_plot_svg",
+           "cumulative_plot_svg", "cumulative_points", "nice_ticks", "log_ticks", "tick_label"]
 
 #: (stroke colour, dash pattern) of successive series. Hues spread around the
 #: wheel with clearly different lightness (blue, amber, green, plum, grey, ochre),
@@ -466,6 +468,348 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
     if note:
         out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
                    f'y="{_coordinate(top + plot_h / 2)}" text-anchor="middle" '
+                   f'fill="#555555">{_text(note)}</text>')
+    out.append("</svg>")
+    return "\n".join(out) + "\n"
+
+
+# --------------------------------------------------------------------------
+# cumulative distribution of samples
+
+
+def _finite_sorted(values, label: str) -> tuple[np.ndarray, int]:
+    """Sorted samples without NaN (infinite ones kept), and how many NaN were dropped."""
+    try:
+        a = np.asarray(values, dtype=float)
+    except (TypeError, ValueError):
+        raise InputError("samples", f"the samples of {label!r} are not numbers") from None
+    if a.ndim != 1:
+        raise InputError("samples", f"the samples of {label!r} must be one-dimensional")
+    kept = a[~np.isnan(a)]
+    if not np.any(np.isfinite(kept)):
+        raise InputError("samples", f"{label!r} has no finite sample; give at least one")
+    return np.sort(kept), int(a.size - kept.size)
+
+
+def cumulative_points(samples, max_points: int = MAX_PLOT_POINTS,
+                      log_x: bool = False) -> tuple[np.ndarray, np.ndarray]:
+    """Points that draw the empirical cumulative distribution of samples.
+
+    The empirical cumulative distribution F(x) is the fraction of samples at or
+    below x (NaN samples are left out of the count). It is a staircase rising
+    by 1/n at each sample; with few distinct values the staircase is returned
+    exactly, otherwise a polyline through at most about `max_points` of its
+    corners, chosen evenly in rank and evenly along the x axis (logarithmically
+    when `log_x`), with a vertical jump kept wherever many samples share one
+    value, so the shape survives.
+
+    Parameters
+    ----------
+    samples : array_like
+        One-dimensional samples. [any unit]
+    max_points : int
+        Points returned at most (a few more for large tied groups), 20 or more.
+    log_x : bool
+        Space the points evenly in log x (for a logarithmic axis).
+
+    Returns
+    -------
+    (numpy.ndarray, numpy.ndarray)
+        x [unit of the samples] and F [-], starting at F = 0 at the smallest
+        finite sample; infinite samples count in F but are not drawn.
+
+    Raises
+    ------
+    InputError
+        "samples" when there are no finite samples or they are not numbers;
+        "max_points" below 20.
+
+    Examples
+    --------
+    >>> x, f = cumulative_points([3.0, 1.0, 2.0, 2.0])
+    >>> x.tolist(), f.tolist()
+    ([1.0, 1.0, 2.0, 2.0, 3.0, 3.0], [0.0, 0.25, 0.25, 0.75, 0.75, 1.0])
+    """
+    if isinstance(max_points, bool) or not isinstance(max_points, (int, np.integer)) \
+            or max_points < 20:
+        raise InputError("max_points", f"{max_points!r}: give a whole number of 20 or more")
+    ordered, _ = _finite_sorted(samples, "samples")
+    n = ordered.size
+    values, counts = np.unique(ordered, return_counts=True)
+    fraction = np.cumsum(counts) / n
+    finite = np.isfinite(values)
+    before = np.concatenate(([0.0], fraction[:-1]))
+    values, fraction, before = values[finite], fraction[finite], before[finite]
+    m = values.size
+    if 2 * m <= max_points:
+        x = np.repeat(values, 2)
+        y = np.empty(2 * m)
+        y[0::2] = before
+        y[1::2] = fraction
+        return x, y
+    half = max(2, max_points // 2)
+    keep = set(np.linspace(0, m - 1, half).round().astype(int).tolist())
+    if log_x and values[-1] > 0:
+        positive = values[values > 0]
+        edges = np.geomspace(positive[0], positive[-1], half)
+    else:
+        edges = np.linspace(values[0], values[-1], half)
+    keep.update((np.searchsorted(values, edges, side="right") - 1).clip(0, m - 1).tolist())
+    tied = np.flatnonzero(fraction - before > 1.0 / max_points)  # fewer than max_points
+    keep.update(tied.tolist())
+    keep.update((tied[tied > 0] - 1).tolist())
+    index = np.array(sorted(keep))
+    big = fraction[index] - before[index] > 1.0 / max_points
+    big[0] = True  # the curve starts from F = 0 at the smallest sample
+    x = np.concatenate([values[index], values[index[big]]])
+    y = np.concatenate([fraction[index], before[index[big]]])
+    order = np.lexsort((y, x))
+    return x[order], y[order]
+
+
+def cumulative_plot_svg(samples: dict, *, x_label: str, title: str,
+                        vlines: dict | None = None, log_x: bool = False,
+                        y_label: str = "fraction of samples at or below",
+                        width: int = 720, height: int = 360) -> str:
+    """The empirical cumulative distribution of samples as a self-contained SVG document.
+
+    For every series the curve gives, at each x, the fraction of its samples at
+    or below x (`cumulative_points`); where a curve crosses a vertical limit
+    line, one minus its height is the probability of exceeding that limit.
+    Long series are thinned to at most about `MAX_PLOT_POINTS` points keeping the
+    shape. Styles follow `line_plot_svg`: colour and dash tell series apart,
+    limit lines are thin, dashed, dark red and labelled in place, all text is
+    escaped, and the same input gives the same output byte for byte.
+
+    Parameters
+    ----------
+    samples : dict
+        Label -> one-dimensional samples (NaN left out; at least one finite).
+    x_label, title : str
+        Axis label with its unit, and the plot title.
+    vlines : dict, optional
+        Label -> x value of vertical dashed limit lines. They are kept inside
+        the x range (on a logarithmic axis, down to `MAX_LOG_DECADES` decades
+        below the top; a line lower still is named in a note).
+    log_x : bool
+        Logarithmic x axis, for concentrations that span decades. Samples at or
+        below zero count in the fractions but are not drawn.
+    y_label : str
+        Label of the y axis (0 to 1).
+    width, height : int
+        Size. [px]
+
+    Returns
+    -------
+    str
+        SVG markup (no XML declaration).
+
+    Raises
+    ------
+    InputError
+        "samples", "vlines" or "width"/"height", saying what is wrong.
+
+    Examples
+    --------
+    >>> svg = cumulative_plot_svg({"room <1>": [1.0, 2.0, 4.0]}, x_label="ppm",
+    ...                           title="TWA & peak", vlines={"TWA 3 ppm": 3.0})
+    >>> svg.startswith("<svg") and "TWA &amp; peak" in svg and "room &lt;1&gt;" in svg
+    True
+    """
+    if not isinstance(samples, dict) or not samples:
+        raise InputError("samples", "give a mapping of label -> samples with at least one "
+                         "series")
+    series = {}
+    dropped = 0
+    for label, values in samples.items():
+        ordered, missing = _finite_sorted(values, str(label))
+        series[str(label)] = ordered
+        dropped += missing
+    lines = {}
+    for label, value in (vlines or {}).items():
+        try:
+            v = float(value)
+        except (TypeError, ValueError):
+            raise InputError("vlines", f"the position of {str(label)!r} is not a number") from None
+        if math.isfinite(v):
+            lines[str(label)] = v
+    if not (200 <= width <= 4000 and 150 <= height <= 4000):
+        raise InputError("width", "the plot must be 200-4000 px wide and 150-4000 px high")
+    font = 12.0
+    labels = list(series)
+    left, right, top = 84.0, 24.0, 42.0
+    rows = _legend_rows(labels, width - left - right, font)
+    bottom = 52.0 + 18.0 * len(rows)
+    plot_w = width - left - right
+    plot_h = height - top - bottom
+    if plot_h < 60:
+        raise InputError("height", f"{height} px leaves no room for the plot and a legend of "
+                         f"{len(labels)} series; make it taller")
+
+    finite = np.concatenate([a[np.isfinite(a)] for a in series.values()]
+                            + [np.array(list(lines.values()), dtype=float)])
+    notes = []
+    x_minor: list[float] = []
+    if log_x:
+        positive = finite[finite > 0]
+        if positive.size == 0:
+            x_lo, x_hi = 1.0, 10.0
+            notes.append("no value above zero to show on a logarithmic axis")
+        else:
+            x_hi = float(positive.max())
+            x_lo = max(float(positive.min()), x_hi / 10.0 ** MAX_LOG_DECADES)
+        x_ticks, x_minor = log_ticks(x_lo * 0.999, x_hi * 1.001)
+        x_lo = 10.0 ** math.floor(math.log10(x_ticks[0]) + 1e-9)
+        x_hi = 10.0 ** math.ceil(math.log10(x_ticks[-1]) - 1e-9)
+        span = math.log10(x_hi) - math.log10(x_lo)
+
+        def px(value):
+            if not value > 0:
+                return left - 12.0
+            return left + (math.log10(value) - math.log10(x_lo)) / span * plot_w
+        labelled = [(t, tick_label(t)) for t in x_ticks]
+    else:
+        x_lo, x_hi = float(finite.min()), float(finite.max())
+        if 0 < x_lo < 0.5 * x_hi:
+            x_lo = 0.0  # concentrations read best from zero
+        if x_hi <= x_lo:
+            pad = abs(x_lo) * 0.5 or 1.0
+            x_lo, x_hi = x_lo - pad, x_hi + pad
+        x_ticks = nice_ticks(x_lo, x_hi, 7)
+        x_lo, x_hi = x_ticks[0], x_ticks[-1]
+        x_step = x_ticks[1] - x_ticks[0]
+
+        def px(value):
+            return left + (value - x_lo) / (x_hi - x_lo) * plot_w
+        labelled = [(t, tick_label(t, x_step)) for t in x_ticks]
+
+    def py(fraction):
+        return top + plot_h - fraction * plot_h
+
+    below = [label for label, v in lines.items() if px(v) < left - 0.5]
+    if below:
+        notes.append("left of the axis: " + "; ".join(below))
+    if dropped:
+        notes.append(f"{dropped} sample(s) that are not numbers (NaN) left out")
+
+    digest = hashlib.sha1()
+    for part in ("cumulative", title, x_label, y_label, repr(sorted(lines.items())),
+                 repr(labels), str(log_x), f"{width}x{height}"):
+        digest.update(part.encode("utf-8", "replace"))
+    for a in series.values():
+        digest.update(a.tobytes())
+    clip_id = "plotarea-" + digest.hexdigest()[:12]
+
+    out = [
+        f'<svg xmlns="http://www.w3.org/2000/svg" width="{width}" height="{height}" '
+        f'viewBox="0 0 {width} {height}" role="img" font-family="{_text(_FONT)}" '
+        f'font-size="{font:g}">',
+        f"<title>{_text(title)}</title>",
+        f"<desc>Cumulative distribution: {_text(y_label)} each value of {_text(x_label)}"
+        + ("; logarithmic x axis" if log_x else "") + "</desc>",
+        f'<rect x="0" y="0" width="{width}" height="{height}" fill="#ffffff"/>',
+        f'<defs><clipPath id="{clip_id}"><rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
+        f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}"/></clipPath></defs>',
+        f'<text x="{_coordinate(left)}" y="24" font-size="14" font-weight="600" '
+        f'fill="#1a1a1a">{_text(title)}</text>',
+    ]
+    grid = ['<g stroke="#d9d9d9" stroke-width="1">']
+    ticks = ['<g fill="#333333">']
+    for t in nice_ticks(0.0, 1.0, 5):
+        y = py(t)
+        grid.append(f'<line x1="{_coordinate(left)}" y1="{_coordinate(y)}" '
+                    f'x2="{_coordinate(left + plot_w)}" y2="{_coordinate(y)}"/>')
+        ticks.append(f'<text x="{_coordinate(left - 8)}" y="{_coordinate(y + 4)}" '
+                     f'text-anchor="end">{_text(tick_label(t, 0.2))}</text>')
+    for t, text in labelled:
+        x_px = px(t)
+        grid.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top)}" '
+                    f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}"/>')
+        ticks.append(f'<text x="{_coordinate(x_px)}" y="{_coordinate(top + plot_h + 17)}" '
+                     f'text-anchor="middle">{_text(text)}</text>')
+    for t in x_minor:
+        x_px = px(t)
+        if left - 0.5 <= x_px <= left + plot_w + 0.5:
+            grid.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top + plot_h)}" '
+                        f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h + 3)}" '
+                        'stroke="#555555"/>')
+    grid.append("</g>")
+    ticks.append("</g>")
+    out += grid + ticks
+    out.append(f'<rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
+               f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}" fill="none" '
+               'stroke="#333333" stroke-width="1"/>')
+    out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
+               f'y="{_coordinate(top + plot_h + 36)}" text-anchor="middle" '
+               f'fill="#1a1a1a">{_text(x_label)}</text>')
+    out.append(f'<text transform="translate(18 {_coordinate(top + plot_h / 2)}) rotate(-90)" '
+               f'text-anchor="middle" fill="#1a1a1a">{_text(y_label)}</text>')
+
+    # limit lines, vertical, each labelled along its left side (or its right when crowded)
+    colour, dash, stroke = LIMIT_STYLE
+    placed = sorted(((px(v), label) for label, v in lines.items()
+                     if px(v) >= left - 0.5), key=lambda item: (item[0], item[1]))
+    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}" '
+               f'stroke-dasharray="{dash}">')
+    for x_px, label in placed:
+        out.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top)}" '
+                   f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}">'
+                   f"<title>{_text(label)}</title></line>")
+    out.append("</g>")
+    out.append(f'<g fill="{colour}" font-size="11" text-anchor="end">')
+    room = max(4, int((plot_h - 8.0) / (11.0 * _CHAR_WIDTH)))
+    last = -math.inf  # page x of the last label's baseline
+    for x_px, label in placed:
+        baseline = x_px - 4.0
+        if baseline - 11.0 < last + 2.0:
+            baseline = max(x_px + 14.0, last + 13.0)
+        baseline = min(max(baseline, left + 12.0), left + plot_w - 2.0)
+        last = baseline
+        shown = label if len(label) <= room else label[: room - 1] + "…"
+        out.append(f'<text transform="translate({_coordinate(baseline)} '
+                   f'{_coordinate(top + 4.0)}) rotate(-90)" paint-order="stroke" '
+                   f'stroke="#ffffff" stroke-width="3">{_text(shown)}</text>')
+    out.append("</g>")
+
+    # curves
+    out.append(f'<g clip-path="url(#{clip_id})" fill="none" stroke-width="2.2" '
+               'stroke-linejoin="round" stroke-linecap="round">')
+    for k, (label, ordered) in enumerate(series.items()):
+        colour_k, dash_k = SERIES_STYLES[k % len(SERIES_STYLES)]
+        xs, fs = cumulative_points(ordered, MAX_PLOT_POINTS, log_x)
+        if log_x:
+            visible = xs > 0
+            xs, fs = xs[visible], fs[visible]
+        if xs.size == 0:
+            continue
+        points = [f"{_coordinate(px(float(xv)))},{_coordinate(py(float(fv)))}"
+                  for xv, fv in zip(xs, fs)]
+        d = "M" + " L".join(points) if len(points) > 1 else f"M{points[0]} l0.01,0"
+        dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
+        out.append(f'<path d="{d}" stroke="{colour_k}"{dash_attr}>'
+                   f"<title>{_text(label)}</title></path>")
+    out.append("</g>")
+
+    # legend
+    out.append(f'<g font-size="{font:g}" fill="#1a1a1a">')
+    legend_top = top + plot_h + 52.0
+    index = 0
+    for r, row in enumerate(rows):
+        x0 = left
+        y0 = legend_top + 18.0 * r
+        for label, w in row:
+            colour_k, dash_k = SERIES_STYLES[index % len(SERIES_STYLES)]
+            dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
+            out.append(f'<line x1="{_coordinate(x0)}" y1="{_coordinate(y0 - 4)}" '
+                       f'x2="{_coordinate(x0 + 28)}" y2="{_coordinate(y0 - 4)}" '
+                       f'stroke="{colour_k}" stroke-width="2.2"{dash_attr}/>')
+            out.append(f'<text x="{_coordinate(x0 + 34)}" y="{_coordinate(y0)}">'
+                       f"{_text(label)}</text>")
+            x0 += w
+            index += 1
+    out.append("</g>")
+    for i, note in enumerate(notes):
+        out.append(f'<text x="{_coordinate(left + 8)}" y="{_coordinate(top + 16 + 15 * i)}" '
                    f'fill="#555555">{_text(note)}</text>')
     out.append("</svg>")
     return "\n".join(out) + "\n"

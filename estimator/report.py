@@ -39,6 +39,7 @@ __all__ = [
     "REPORT_FORMATS",
     "CSV_COLUMNS",
     "MAX_SERIES_POINTS",
+    "monte_carlo_curves",
 ]
 
 _FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
@@ -578,15 +579,23 @@ def _blocks(result, generated) -> tuple[list, bool]:
     for i, tank in enumerate(result.tanks):
         b += _tank_blocks(result, i, tank)
         plots = _tank_plots(result, i, tank)
-        has_plots |= bool(plots)
+        mc = getattr(tank, "monte_carlo", None)
+        mc_plots = _monte_carlo_plots(result, f"tank{i + 1}-{_slug(tank.name)}",
+                                      f"Tank {tank.name}", mc, _tank_names(tank))
+        has_plots |= bool(plots) or bool(mc_plots)
         b += plots
-        b += _monte_carlo_blocks(getattr(tank, "monte_carlo", None))
+        b += _monte_carlo_blocks(mc)
+        b += mc_plots
     for i, spill in enumerate(result.spills):
         b += _spill_blocks(result, spill)
         plots = _spill_plots(result, i, spill)
-        has_plots |= bool(plots)
+        mc = getattr(spill, "monte_carlo", None)
+        mc_plots = _monte_carlo_plots(result, f"spill{i + 1}-{_slug(spill.name)}",
+                                      f"Spill {spill.name}", mc, None)
+        has_plots |= bool(plots) or bool(mc_plots)
         b += plots
-        b += _monte_carlo_blocks(getattr(spill, "monte_carlo", None))
+        b += _monte_carlo_blocks(mc)
+        b += mc_plots
     if not result.tanks and not result.spills:
         b.append(_Para("No tank or spill was computed."))
 
@@ -653,6 +662,106 @@ def _monte_carlo_blocks(mc) -> list:
         b.append(_Para("What drives the spread (largest Spearman rank correlation):"))
         b.append(_Table(["output", "input", "rank correlation"], rows, numeric=(2,)))
     return b
+
+
+#: Curve labels of the indoor-spill chain's outputs, and the limit kinds each is
+#: compared with (as `estimator.uncertainty.indoor_spill_monte_carlo` compares them).
+_SPILL_CURVES = (("twa_ppm", "8-h TWA", ("TWA",)),
+                 ("short_term_ppm", "highest 15-min average", ("STEL",)),
+                 ("peak_ppm", "peak", ("ceiling", "emergency")))
+
+
+def monte_carlo_curves(mc, limits, names=None) -> tuple[dict, list]:
+    """What to draw as cumulative curves for a probabilistic run, and the limits that apply.
+
+    The limits that apply are those the run compared: the ones with a
+    ``ratio to <limit label>`` output (labels made unique as the run makes them).
+
+    - Headspace: the total concentration (``total_ppm``) as "all vapour"; for a
+      mixture also each substance that has a limit, its concentration being the
+      ratio times the limit (the ratio is the substance's own concentration
+      over the limit), so that each limit line reads against its own substance.
+    - Indoor spill: the 8-h TWA (``twa_ppm``) and the peak (``peak_ppm``), and
+      the highest 15-min average (``short_term_ppm``) when a STEL applies.
+
+    Parameters
+    ----------
+    mc : MonteCarloResult
+    limits : sequence of ExposureLimit
+        The limits the run was given, in the same order (``scenario.limits``).
+    names : dict, optional
+        Substance key -> name shown, for the substances of a headspace run
+        (a single entry means a pure liquid: one curve, named after it).
+
+    Returns
+    -------
+    (dict, list of dict)
+        Curve label -> samples [ppm]; and for each applicable limit a dict with
+        ``limit`` (the ExposureLimit), ``label`` (its exceedance label in the
+        run), ``line`` (short text for the line), ``ppm`` (its value [ppm]) and
+        ``compared`` (the curve label it is compared with).
+    """
+    from .uncertainty import _unique_labels
+
+    limits = list(limits)
+    applied = [(lim, label) for lim, label in zip(limits, _unique_labels(limits))
+               if f"ratio to {label}" in mc.outputs]
+    curves: dict = {}
+    lines = []
+    if mc.model == "indoor spill":
+        kinds = {lim.kind for lim, _ in applied}
+        for output, text, compared in _SPILL_CURVES:
+            if output in mc.outputs and (output != "short_term_ppm" or "STEL" in kinds):
+                curves[text] = np.asarray(mc.outputs[output], dtype=float)
+        for lim, label in applied:
+            text = next(t for _, t, kinds_of in _SPILL_CURVES if lim.kind in kinds_of)
+            lines.append({"limit": lim, "label": label, "line": _short_limit(lim),
+                          "ppm": float(lim.ppm), "compared": text})
+        return curves, lines
+    names = dict(names or {})
+    pure = len(names) == 1
+    total = next(iter(names.values())) if pure else "all vapour"
+    curves[total] = np.asarray(mc.outputs["total_ppm"], dtype=float)
+    for lim, label in applied:
+        own = total if pure else names.get(lim.substance, lim.substance)
+        if own not in curves:
+            curves[own] = np.asarray(mc.outputs[f"ratio to {label}"], dtype=float) * lim.ppm
+        lines.append({"limit": lim, "label": label, "line": _short_limit(lim),
+                      "ppm": float(lim.ppm), "compared": own})
+    return curves, lines
+
+
+def _tank_names(tank) -> dict:
+    return {c.key: c.name for c in tank.headspace.liquid.components}
+
+
+def _monte_carlo_plots(result, stem, what, mc, names) -> list:
+    """The cumulative curve of a probabilistic run's key concentrations, with the limits."""
+    if mc is None:
+        return []
+    from .plots import cumulative_plot_svg
+
+    curves, lines = monte_carlo_curves(mc, result.scenario.limits, names)
+    if not curves:
+        return []
+    vlines = {item["line"]: item["ppm"] for item in lines}
+    base = (f"{what}: cumulative distribution over the {mc.n:,} samples (seed {mc.seed}); "
+            "the height of a curve at a concentration is the fraction of samples at or "
+            "below it, so where it crosses a dashed limit line, one minus its height is "
+            "the probability of exceeding that limit.")
+    if mc.model == "indoor spill":
+        caption = (base + " Room air (well mixed): TWA limits are compared with the 8-h "
+                   "TWA, STEL values with the highest 15-min average, ceiling and emergency "
+                   "values with the peak.")
+        title = f"{what}: room air, cumulative distribution"
+    else:
+        caption = base + " Equilibrium headspace" + (
+            "; each limit applies to its own substance's curve, the total is shown as all "
+            "vapour." if len(curves) > 1 else ".")
+        title = f"{what}: headspace, cumulative distribution"
+    svg = cumulative_plot_svg(curves, x_label="concentration [ppm by volume]", title=title,
+                              vlines=vlines, log_x=_wants_log(curves, vlines))
+    return [_Plot(f"{stem}-probability-cumulative", caption, svg)]
 
 
 def _monte_carlo_dict(mc):

@@ -17,7 +17,15 @@ import pytest
 from estimator import CAUTIONS
 from estimator.errors import InputError
 from estimator.limits import format_ppm
-from estimator.plots import line_plot_svg, log_ticks, nice_ticks, tick_label
+from estimator.plots import (
+    MAX_PLOT_POINTS,
+    cumulative_plot_svg,
+    cumulative_points,
+    line_plot_svg,
+    log_ticks,
+    nice_ticks,
+    tick_label,
+)
 from estimator import report
 from estimator.report import (
     CSV_COLUMNS,
@@ -250,6 +258,80 @@ def test_probabilistic_summaries_are_reported(demos):
         assert any(r["kind"] == "probabilistic" and r["quantity"] == "probability of exceeding"
                    and float(r["value"]) == p for p in dict(mc.exceedance).values()
                    for r in rows)
+
+
+def _probabilistic(demos):
+    """(result, item kind, index, item, MonteCarloResult) for every demo item with a run."""
+    out = []
+    for result in demos.values():
+        for kind, items in (("tank", result.tanks), ("spill", result.spills)):
+            for i, item in enumerate(items):
+                if getattr(item, "monte_carlo", None) is not None:
+                    out.append((result, kind, i, item, item.monte_carlo))
+    return out
+
+
+def test_demos_with_uncertain_inputs_have_probabilistic_runs(demos):
+    """The day-tank and drum-spill demos give uncertain inputs, so both carry a Monte Carlo run."""
+    kinds = {(kind, item.name) for _, kind, _, item, _ in _probabilistic(demos)}
+    assert ("tank", "T-3") in kinds and ("spill", "punctured drum") in kinds
+
+
+def test_probabilistic_cumulative_plot_in_html_and_markdown(demos, tmp_path):
+    """Each probabilistic item has a cumulative plot, inline in HTML and as an SVG file."""
+    ns = "{http://www.w3.org/2000/svg}"
+    for result, kind, i, item, mc in _probabilistic(demos):
+        page = html_report(result, generated_at=STAMP)
+        title = (f"{'Tank' if kind == 'tank' else 'Spill'} {item.name}: "
+                 f"{'headspace' if kind == 'tank' else 'room air'}, cumulative distribution")
+        plots = [svg for svg in _inline_svgs(page)
+                 if ET.fromstring(svg).find(ns + "title").text == title]
+        assert len(plots) == 1, title
+        root = ET.fromstring(plots[0])
+        assert root.tag == ns + "svg"
+        limit_group = next(g for g in root.iter(ns + "g") if g.get("stroke-dasharray") == "6 3")
+        lines = [x.find(ns + "title").text for x in limit_group]
+        ratios = [name for name in mc.outputs if name.startswith("ratio to ")]
+        assert len(lines) == len(ratios) > 0
+        for line in lines:
+            assert line.endswith(" ppm")
+        texts = {t.text for t in root.iter(ns + "text")}
+        assert "concentration [ppm by volume]" in texts
+        assert "fraction of samples at or below" in texts
+        md = markdown_report(result, tmp_path / f"plots-{kind}", generated_at=STAMP)
+        stem = f"{kind}{i + 1}-{report._slug(item.name)}-probability-cumulative.svg"
+        assert f"(plots-{kind}/{stem})" in md
+        saved = ET.fromstring((tmp_path / f"plots-{kind}" / stem).read_text(encoding="utf-8"))
+        assert saved.find(ns + "title").text == title
+
+
+def test_probabilistic_exceedance_shown_equals_the_result(demos):
+    """The exceedance rows of HTML and Markdown are the run's probabilities, limit by limit."""
+    for result, _, _, _, mc in _probabilistic(demos):
+        md = markdown_report(result, generated_at=STAMP)
+        page = html_report(result, generated_at=STAMP)
+        assert mc.exceedance
+        for label, p in dict(mc.exceedance).items():
+            shown = f"{100 * p:.3g} %"
+            assert f"| {_md_text(label)} | {shown} |" in md
+            assert f'<tr><td>{html.escape(label)}</td><td class="num">{shown}</td></tr>' in page
+
+
+def test_probabilistic_curves_cross_the_limits_at_the_exceedance(demos):
+    """Above each limit line lies the share of its curve's samples reported as exceedance."""
+    for result, kind, _, item, mc in _probabilistic(demos):
+        names = ({c.key: c.name for c in item.headspace.liquid.components} if kind == "tank"
+                 else None)
+        curves, lines = report.monte_carlo_curves(mc, result.scenario.limits, names)
+        assert lines
+        for line in lines:
+            above = float(np.mean(curves[line["compared"]] > line["ppm"]))
+            assert above == pytest.approx(mc.exceedance[line["label"]], abs=1.0 / mc.n)
+        if kind == "spill":
+            assert {"8-h TWA", "peak"} <= set(curves)
+            assert np.array_equal(curves["8-h TWA"], mc.outputs["twa_ppm"])
+        else:
+            assert np.array_equal(curves["all vapour"], mc.outputs["total_ppm"])
 
 
 # --------------------------------------------------------------------------- HTML and SVG
@@ -569,3 +651,87 @@ def test_line_plot_log_axis_without_positive_values_says_so():
                         log_y=True)
     assert "no value above zero" in svg
     ET.fromstring(svg)
+
+
+# The empirical distribution function F(x) = (number of samples <= x) / n is the
+# textbook definition (common practice); the checks below count samples directly.
+
+def test_cumulative_points_are_the_empirical_distribution():
+    """At each drawn corner the height is the fraction of samples at or below it, ties included."""
+    x, f = cumulative_points([3.0, 1.0, 2.0, 2.0, np.nan])
+    assert x.tolist() == [1.0, 1.0, 2.0, 2.0, 3.0, 3.0]
+    assert f.tolist() == [0.0, 0.25, 0.25, 0.75, 0.75, 1.0]
+    samples = np.random.default_rng(5).lognormal(3.0, 1.0, 20000)
+    samples[:3000] = 40.0  # a large tied group, as a capped output gives
+    x, f = cumulative_points(samples, log_x=True)
+    assert x.size <= MAX_PLOT_POINTS + 60
+    assert np.all(np.diff(x) >= 0) and np.all(np.diff(f) >= 0)
+    assert f[0] == 0.0 and f[-1] == 1.0
+    ordered = np.sort(samples)
+    for xv, fv in zip(x[1:], f[1:]):
+        below = np.searchsorted(ordered, xv, side="left") / ordered.size
+        at_or_below = np.searchsorted(ordered, xv, side="right") / ordered.size
+        assert below - 1e-12 <= fv <= at_or_below + 1e-12
+    jump = np.flatnonzero((x[1:] == 40.0) & (x[:-1] == 40.0))
+    assert jump.size and np.max(f[jump + 1] - f[jump]) >= 3000 / 20000 - 1e-12
+
+
+def test_cumulative_points_bad_inputs_name_the_field():
+    """No finite sample, or too few points asked for, raise InputError naming the argument."""
+    with pytest.raises(InputError) as err:
+        cumulative_points([np.nan, np.nan])
+    assert err.value.field == "samples" and "no finite sample" in str(err.value)
+    with pytest.raises(InputError) as err:
+        cumulative_points([1.0, 2.0], max_points=5)
+    assert err.value.field == "max_points"
+
+
+def test_cumulative_plot_escapes_text_is_deterministic_and_thins():
+    """Labels are escaped, output repeats exactly, long inputs are thinned, limits are vertical."""
+    rng = np.random.default_rng(11)
+    series = {"near <field>": rng.lognormal(5.0, 1.0, 50000), "far & away": rng.uniform(1, 9, 40)}
+    args = dict(x_label="ppm", title="Bay <2> & \"yard\"",
+                vlines={"TWA <250>": 250.0, "STEL & co": 500.0}, log_x=True)
+    svg = cumulative_plot_svg(series, **args)
+    assert svg == cumulative_plot_svg(series, **args)
+    assert "<2>" not in svg and "<field>" not in svg and "<250>" not in svg
+    root = ET.fromstring(svg)
+    ns = "{http://www.w3.org/2000/svg}"
+    texts = {t.text for t in root.iter(ns + "text")}
+    assert {"TWA <250>", "STEL & co", "near <field>", "far & away",
+            "Bay <2> & \"yard\""} <= texts
+    paths = list(root.iter(ns + "path"))
+    assert len(paths) == 2
+    assert len({(p.get("stroke"), p.get("stroke-dasharray")) for p in paths}) == 2
+    points = paths[0].get("d").replace("M", " ").replace("L", " ").split()
+    assert len(points) <= MAX_PLOT_POINTS + 60
+    limit_group = next(g for g in root.iter(ns + "g") if g.get("stroke-dasharray") == "6 3")
+    for line in limit_group:
+        assert line.get("x1") == line.get("x2") and line.get("y1") != line.get("y2")
+
+
+def test_cumulative_plot_linear_axis_and_a_limit_off_the_log_axis():
+    """A linear axis spans samples and limits; a limit at zero on a log axis is named in a note."""
+    svg = cumulative_plot_svg({"a": [1.0, 2.0, 3.0]}, x_label="x", title="t",
+                              vlines={"L": 8.0})
+    ET.fromstring(svg)
+    assert "<title>L</title>" in svg
+    svg = cumulative_plot_svg({"a": [1.0, 2.0, 3.0]}, x_label="x", title="t",
+                              vlines={"zero line": 0.0}, log_x=True)
+    assert "left of the axis: zero line" in svg
+
+
+def test_cumulative_plot_bad_inputs_name_the_field():
+    """Empty input, non-numbers and bad line positions raise InputError naming the argument."""
+    with pytest.raises(InputError) as err:
+        cumulative_plot_svg({}, x_label="x", title="t")
+    assert err.value.field == "samples"
+    with pytest.raises(InputError) as err:
+        cumulative_plot_svg({"a": ["p", "q"]}, x_label="x", title="t")
+    assert err.value.field == "samples"
+    with pytest.raises(InputError) as err:
+        cumulative_plot_svg({"a": [1.0]}, x_label="x", title="t", vlines={"L": "high"})
+    assert err.value.field == "vlines"
+    with pytest.raises(InputError) as err:
+        cumulative_plot_svg({"a": [1.0]}, x_label="x", title="t", width=50)
+    assert err.value.field == "width"

@@ -428,3 +428,202 @@ def test_launcher_binds_to_this_machine_by_default():
     exposed = command(["--server.address", "0.0.0.0"])
     assert exposed.count("--server.address") == 1
     assert exposed[exposed.index("--server.address") + 1] == "0.0.0.0"
+
+
+# ------------------------------------------------------------------ uncertainty
+
+TANK_RANGE = "w:mc.tank.temperature"
+
+
+def table_rows(at: AppTest) -> str:
+    """Every Markdown table on the page, as one text."""
+    return "\n".join(m.value for m in at.markdown if m.value.startswith("|"))
+
+
+def test_uncertainty_section_starts_with_the_demo_triangular_temperature():
+    """The first demo's triangular tank temperature fills the always-visible Uncertainty part."""
+    at = page("tank.py")
+    assert not at.exception
+    assert "Uncertainty" in [h.value for h in at.main.header]
+    assert not at.expander  # nothing folded away
+    assert at.radio(key=f"{TANK_RANGE}.kind").value == "triangular"
+    shown = [at.number_input(key=f"{TANK_RANGE}.{part}").value for part in ("low", "mode", "high")]
+    assert shown == [28.0, 34.0, 44.0]  # the file's 28, 34 and 44 degC
+    assert at.number_input(key="w:mc.samples").value == 20000
+    assert at.number_input(key="w:mc.seed").value == 2026
+    assert metric(at, "95th percentile, headspace, all vapour").endswith("ppm")
+    at.toggle(key="w:units").set_value(True)
+    at.run()
+    assert not at.exception
+    assert at.number_input(key=f"{TANK_RANGE}.low").value == pytest.approx(82.4)
+    assert "[°F]" in at.number_input(key=f"{TANK_RANGE}.low").label
+
+
+def test_tank_uniform_temperature_range_shown_equals_core():
+    """A uniform 30-45 degC range gives the core's 95th percentile and exceedance probabilities."""
+    from estimator.mixtures import liquid
+    from estimator.uncertainty import Uniform, headspace_monte_carlo
+
+    at = page("tank.py")
+    at.radio(key=f"{TANK_RANGE}.kind").set_value("uniform")
+    at.run()
+    at.number_input(key=f"{TANK_RANGE}.low").set_value(30.0)
+    at.number_input(key=f"{TANK_RANGE}.high").set_value(45.0)
+    at.number_input(key="w:mc.samples").set_value(5000)
+    at.number_input(key="w:mc.seed").set_value(99)
+    at.run()
+    assert not at.exception
+    core = headspace_monte_carlo(
+        liquid(THINNER, "mass"), Uniform(303.15, 318.15), barometric_pressure(DEMO_ELEVATION),
+        load_scenario(DEMOS[0]).limits, n=5000, seed=99, include_method_uncertainty=True,
+        lfl_alarm=10.0, oxygen_alarm=19.5)
+    assert metric(at, "95th percentile, headspace, all vapour") == \
+        f"{format_ppm(core.percentiles['total_ppm'][95])} ppm"
+    rows = table_rows(at)
+    oxygen = core.exceedance["oxygen below 19.5 %"]
+    assert 0.0 < oxygen < 1.0  # a probability the range really decides
+    assert f"| oxygen below 19.5 % | oxygen left | {100 * oxygen:.3g} % |" in rows
+    assert f"| 10 % LFL alarm | flammable vapour | " \
+           f"{100 * core.exceedance['10 % LFL alarm']:.3g} % |" in rows
+    toluene = core.exceedance["TWA 20 ppm (illustrative value for this demo)"]
+    assert f"| toluene TWA 20 ppm | Toluene | {100 * toluene:.3g} % |" in rows
+    assert "| headspace, all vapour | " in rows
+    assert "driven most by the temperature" in "\n".join(m.value for m in at.markdown)
+    assert len(at.get("vega_lite_chart")) == 3  # two sweeps and the cumulative curve
+
+
+def test_bad_temperature_range_shows_an_error_next_to_the_field():
+    """A low end above the high end is refused beside the range, with no exception."""
+    at = page("tank.py")
+    at.radio(key=f"{TANK_RANGE}.kind").set_value("uniform")
+    at.run()
+    at.number_input(key=f"{TANK_RANGE}.low").set_value(45.0)
+    at.number_input(key=f"{TANK_RANGE}.high").set_value(30.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "Liquid temperature" in text
+    assert "the low end (45 °C) must be below the high end (30 °C)" in text
+    assert not any(m.label.startswith("95th percentile") for m in at.metric)
+    assert metric(at, "Headspace, all vapour").endswith("ppm")  # the stated result stays
+
+
+def test_indoor_spill_ranges_shown_equal_core():
+    """The drum-spill demo's uncertain mass, mixing and air speed give the core's statistics."""
+    from estimator.uncertainty import LogNormal, Triangular, Uniform, indoor_spill_monte_carlo
+
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    assert not at.exception
+    assert at.radio(key="w:mc.indoor.mass.kind").value == "uniform"
+    assert at.radio(key="w:mc.indoor.mixing_factor.kind").value == "triangular"
+    assert at.radio(key="w:mc.indoor.air_speed.kind").value == "lognormal"
+    assert at.number_input(key="w:mc.indoor.air_speed.gsd").value == 1.8
+    at.number_input(key="w:mc.samples").set_value(5000)
+    at.run()
+    assert not at.exception
+    scenario = load_scenario(WAREHOUSE)
+    spill = scenario.spills[0]
+    room = scenario.rooms[0]
+    stated = next(s for s in run_scenario(scenario).spills if s.indoor)
+    core = indoor_spill_monte_carlo(
+        "acetone", spill["temperature"], stated.indoor.pool_area, LogNormal(0.15, 1.8),
+        room["volume"], room["ventilation_rate"], Triangular(2.0, 3.0, 6.0),
+        Uniform(20.0, 60.0), scenario.limits, duration=spill["duration"], n=5000, seed=7,
+        include_method_uncertainty=True, pressure=scenario.pressure,
+        source_removed_at=spill["cleanup_after"])
+    assert metric(at, "95th percentile, 8-h TWA (room)") == \
+        f"{format_ppm(core.percentiles['twa_ppm'][95])} ppm"
+    assert metric(at, "95th percentile, peak (room)") == \
+        f"{format_ppm(core.percentiles['peak_ppm'][95])} ppm"
+    rows = table_rows(at)
+    for label, compared in (("TWA 250 ppm", "8-h TWA"), ("STEL 500 ppm", "highest 15-min average"),
+                            ("emergency 2500 ppm", "peak")):
+        p = core.exceedance[f"{label} (illustrative value for this demo)"]
+        assert f"| acetone {label} | {compared} | {100 * p:.3g} % |" in rows
+    top = next(iter(core.sensitivity["twa_ppm"]))
+    assert top == "air_speed"
+    assert "driven most by the air speed over the pool" in "\n".join(m.value for m in at.markdown)
+
+
+def test_monte_carlo_is_cached_and_fast(monkeypatch):
+    """Samples are drawn again only when their own inputs change; 5000 take well under a second."""
+    import time
+
+    from estimator import uncertainty
+    from ui import case, views
+
+    calls = []
+    real = uncertainty.headspace_monte_carlo
+
+    def counted(*args, **kwargs):
+        calls.append(kwargs.get("seed"))
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(uncertainty, "headspace_monte_carlo", counted)
+    at = page("tank.py")
+    at.number_input(key="w:mc.seed").set_value(424242)  # a seed no other test uses
+    at.run()
+    assert calls.count(424242) == 1
+    at.number_input(key="w:tank.volume").set_value(5.0)
+    at.number_input(key="w:tank.temperature").set_value(36.0)  # the range sets the samples
+    at.run()
+    assert not at.exception
+    assert calls.count(424242) == 1
+    at.number_input(key="w:mc.samples").set_value(5000)
+    at.run()
+    assert calls.count(424242) == 2
+    monkeypatch.undo()
+
+    state = {}
+    case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
+    state[case.key("mc.samples")] = 5000
+    state[case.key("mc.seed")] = 515151
+    text = dumps_scenario(case.monte_carlo_document(state, "tank"))
+    views.uncertainty_view.__wrapped__(text.replace("515151", "515152"), "SI")  # imports
+    start = time.perf_counter()
+    view = views.uncertainty_view.__wrapped__(text, "SI")
+    assert time.perf_counter() - start < 1.0
+    assert view["error"] is None and view["n"] == 5000
+
+
+def test_saved_scenario_keeps_uncertain_inputs():
+    """Load, save, load keeps every [[uncertain]] input and the [monte_carlo] settings."""
+    from ui import case
+
+    for path in (DEMOS[0], WAREHOUSE):
+        first = load_scenario(path)
+        assert first.uncertain
+        for units in ("SI", "US"):
+            state = {}
+            case.apply_scenario(state, first, path.name)
+            if units == "US":
+                case.switch_units(state, "SI", "US")
+                state[case.key("units")] = True
+            again = loads_scenario(dumps_scenario(case.full_document(state)))
+            assert [(u["item"], u["input"], type(u["distribution"])) for u in again.uncertain] \
+                == [(u["item"], u["input"], type(u["distribution"])) for u in first.uncertain]
+            for a, b in zip(again.uncertain, first.uncertain):
+                assert vars(a["distribution"]) == pytest.approx(vars(b["distribution"]),
+                                                                rel=1e-5)
+            assert again.monte_carlo == first.monte_carlo
+
+
+def test_report_from_the_page_carries_the_probabilistic_results():
+    """The HTML report offered on the tank page holds the sampled percentiles and the curve."""
+    import html
+
+    from ui import case, views
+
+    state = {}
+    case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
+    state[case.key("mc.samples")] = 5000
+    doc, problems = case.study_document(state, "tank", uncertain=True)
+    assert not problems and doc["uncertain"] and doc["monte_carlo"]["samples"] == 5000
+    mc = run_scenario(loads_scenario(dumps_scenario(doc))).tanks[0].monte_carlo
+    report = html.unescape(views.report_text(dumps_scenario(doc), "html"))
+    assert "Probabilistic screening" in report
+    assert f"{mc.n:,} samples (seed {mc.seed}" in report
+    assert "Tank T-3: headspace, cumulative distribution" in report
+    for label, p in mc.exceedance.items():
+        assert f"<td>{label}</td><td class=\"num\">{100 * p:.3g} %</td>" in report

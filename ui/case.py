@@ -137,6 +137,66 @@ PLAIN = {
     "inv.example": False,
 }
 
+# ------------------------------------------------------------------ uncertainty
+
+#: Distributions a page offers for an input given as a range, with their
+#: parameters in the order of `estimator.uncertainty.DISTRIBUTION_KEYS`. "fixed"
+#: uses the value entered above; "file" keeps a distribution of a loaded scenario
+#: file that the page cannot edit, exactly as written.
+DISTRIBUTIONS = {"fixed": (), "uniform": ("low", "high"), "triangular": ("low", "mode", "high"),
+                 "lognormal": ("gm", "gsd"), "file": ()}
+DISTRIBUTION_WORDS = {"fixed": "fixed (the value above)", "uniform": "uniform",
+                      "triangular": "triangular", "lognormal": "lognormal",
+                      "file": "as in the scenario file"}
+PARAMETER_WORDS = {"low": "Low", "mode": "Most likely", "high": "High",
+                   "gm": "Geometric mean", "gsd": "Geometric SD"}
+
+#: Inputs a page can give as a range: study -> scenario input (a key of
+#: `estimator.scenario.UNCERTAIN_INPUTS`) -> (input on the page, label, unit kind
+#: of `UNITS` or None for a plain number, distributions offered).
+UNCERTAIN = {
+    "tank": {
+        "temperature": ("tank.temperature", "Liquid temperature", "temperature",
+                        ("fixed", "uniform", "triangular")),
+    },
+    "indoor": {
+        "temperature": ("indoor.temperature", "Liquid and air temperature", "temperature",
+                        ("fixed", "uniform", "triangular")),
+        "mass": ("indoor.mass", "Spilled mass", "mass",
+                 ("fixed", "uniform", "triangular", "lognormal")),
+        "mixing_factor": ("room.mixing", "Mixing factor", None,
+                          ("fixed", "uniform", "triangular")),
+        "air_speed": ("room.air_speed", "Air speed over the pool", "air_speed",
+                      ("fixed", "uniform", "triangular", "lognormal")),
+    },
+}
+
+#: Samples drawn by default, and at most, on a page.
+DEFAULT_SAMPLES = 5_000
+MAX_SAMPLES = 50_000
+#: Seed used unless the user or a loaded file gives another, so a run repeats.
+DEFAULT_SEED = 1
+
+
+def uncertain_name(study: str, field: str, part: str) -> str:
+    """Input name of one part ("kind", "low", ..., "file") of an uncertain input."""
+    return f"mc.{study}.{field}.{part}"
+
+
+for _study, _fields in UNCERTAIN.items():
+    for _field, (_page, _label, _kind, _options) in _fields.items():
+        PLAIN[uncertain_name(_study, _field, "kind")] = "fixed"
+        PLAIN[uncertain_name(_study, _field, "file")] = None
+        PLAIN[uncertain_name(_study, _field, "gsd")] = None
+        for _part in ("low", "mode", "high", "gm"):
+            if _kind is None:
+                PLAIN[uncertain_name(_study, _field, _part)] = None
+            else:
+                QUANTITIES[uncertain_name(_study, _field, _part)] = (_kind, None)
+PLAIN["mc.samples"] = DEFAULT_SAMPLES
+PLAIN["mc.seed"] = DEFAULT_SEED
+PLAIN["mc.method"] = True
+
 LIQUID_PREFIXES = ("tank", "indoor", "outdoor")
 LIQUID_DEFAULTS = {"tank": "toluene", "indoor": "acetone", "outdoor": "toluene"}
 LIQUID_KINDS = {"table": "One substance from the table", "mixture": "A mixture",
@@ -412,6 +472,7 @@ def apply_scenario(state, scenario, source: str) -> list[str]:
         state[key("weather.receptors")] = ", ".join(
             f"{to_display(x, 'length', units):g}" for x in od["receptors"])
     state["case.studies"] = studies
+    notes += _set_uncertain(state, scenario)
     rows = [(_limit_name(lim, scenario), lim.kind, float(lim.value), lim.unit, lim.source)
             for lim in scenario.limits]
     state[table_key("limits")] = pd.DataFrame(rows, columns=LIMIT_COLUMNS).astype(
@@ -420,6 +481,69 @@ def apply_scenario(state, scenario, source: str) -> list[str]:
     if spills > 0:
         notes.append(f"{spills} further spill(s) in the file are kept in the saved file.")
     return notes
+
+
+def _set_uncertain(state, scenario) -> list[str]:
+    """Put the distributions of the first tank and indoor spill in the Uncertainty boxes."""
+    notes = []
+    first = {"tank": scenario.tanks[0]["name"] if scenario.tanks else None,
+             "indoor": next((s["name"] for s in scenario.spills if s.get("room")), None)}
+    written = list(scenario.document.get("uncertain", []))
+    kept = 0
+    for entry, raw in zip(scenario.uncertain, written):
+        study = "tank" if entry["kind"] == "tank" else "indoor"
+        if entry["item"] != first[study] or entry["input"] not in UNCERTAIN[study]:
+            kept += 1
+            continue
+        _set_distribution(state, study, entry["input"], entry["distribution"],
+                          raw.get("distribution"))
+    if kept:
+        notes.append(f"{kept} uncertain input(s) in the file are not edited on the pages; "
+                     "they are kept in the saved file and in the runs of their items.")
+    mc = scenario.monte_carlo
+    samples = int(mc["samples"])
+    if samples > MAX_SAMPLES:
+        notes.append(f"The file asks for {samples:,} Monte Carlo samples; the pages draw at "
+                     f"most {MAX_SAMPLES:,}.")
+    state[key("mc.samples")] = max(100, min(samples, MAX_SAMPLES))
+    if mc["seed"] is not None:
+        state[key("mc.seed")] = int(mc["seed"])
+    elif scenario.uncertain:
+        notes.append(f"The file gives no Monte Carlo seed; seed {DEFAULT_SEED} is used so the "
+                     "run repeats.")
+    state[key("mc.method")] = bool(mc["method_uncertainty"])
+    return notes
+
+
+def _set_distribution(state, study: str, field: str, dist, written) -> None:
+    from estimator.uncertainty import LogNormal, Triangular, Uniform
+
+    _, _, kind, options = UNCERTAIN[study][field]
+
+    def put(part, value_si):
+        name = uncertain_name(study, field, part)
+        if kind is None:
+            state[key(name)] = _round(float(value_si))
+        else:
+            _set(state, name, value_si)
+
+    choice = "file"
+    if isinstance(dist, Uniform) and "uniform" in options:
+        choice = "uniform"
+        put("low", dist.low)
+        put("high", dist.high)
+    elif isinstance(dist, Triangular) and "triangular" in options:
+        choice = "triangular"
+        put("low", dist.low)
+        put("mode", dist.mode)
+        put("high", dist.high)
+    elif isinstance(dist, LogNormal) and "lognormal" in options:
+        choice = "lognormal"
+        put("gm", dist.geometric_mean)
+        state[key(uncertain_name(study, field, "gsd"))] = _round(dist.geometric_sd)
+    state[key(uncertain_name(study, field, "kind"))] = choice
+    state[key(uncertain_name(study, field, "file"))] = (_plain(written) if choice == "file"
+                                                        else None)
 
 
 def _limit_name(limit, scenario) -> str:
@@ -699,11 +823,168 @@ def outdoors_item(state, receptors=None) -> dict:
     return item
 
 
-def study_document(state, study: str, *, receptors=None, limits=None) -> tuple[dict, list[str]]:
+def written_distribution(spec) -> str:
+    """A distribution of a scenario file the way it reads there."""
+    if isinstance(spec, dict):
+        return "{ " + ", ".join(f"{k} = {written_distribution(v)}" for k, v in spec.items()) + " }"
+    if isinstance(spec, (list, tuple)):
+        return "[" + ", ".join(written_distribution(v) for v in spec) + "]"
+    return str(spec)
+
+
+def uncertainty_unavailable(state, study: str) -> str | None:
+    """Why the liquid on a page cannot be screened probabilistically, or None."""
+    kind = state.get(key(f"{study}.kind"), "table")
+    if study == "tank" and kind == "water":
+        return ("Probabilistic screening is not available for water with dissolved "
+                "solvents; it covers liquids and their mixtures.")
+    if study == "indoor" and kind == "mixture":
+        return ("Probabilistic screening of a spill covers one substance: a mixture's pool "
+                "changes composition as it evaporates, which the sampled room model does not "
+                "follow.")
+    return None
+
+
+def _parameter(state, study: str, field: str, part: str):
+    value = state.get(key(uncertain_name(study, field, part)))
+    return None if value is None else float(value)
+
+
+def _parameter_text(state, study: str, field: str, part: str):
+    kind = UNCERTAIN[study][field][2]
+    if kind is None or part == "gsd":
+        return _parameter(state, study, field, part)
+    return text(state, uncertain_name(study, field, part))
+
+
+def distribution_problem(state, study: str, field: str) -> str | None:
+    """What is wrong with the range given for one input, in the units on screen, or None.
+
+    Checks the shape of the distribution only (bounds in order, most likely value
+    inside them, geometric SD above 1); physical bounds are the core's to check.
+    """
+    choice = state.get(key(uncertain_name(study, field, "kind")), "fixed")
+    parts = DISTRIBUTIONS.get(choice, ())
+    if choice == "file" and state.get(key(uncertain_name(study, field, "file"))) is None:
+        return "no distribution from a file is held for this input; choose another"
+    values = {part: _parameter(state, study, field, part) for part in parts}
+    missing = [PARAMETER_WORDS[p].lower() for p, v in values.items() if v is None]
+    if missing:
+        return f"give the {' and '.join(missing)} value" + ("s" if len(missing) > 1 else "")
+    kind = UNCERTAIN[study][field][2]
+    unit = f" {unit_label(kind, system(state))}" if kind else ""
+
+    def shown(value):
+        return f"{value:g}{unit}"
+
+    if choice in ("uniform", "triangular") and not values["low"] < values["high"]:
+        return (f"the low end ({shown(values['low'])}) must be below the high end "
+                f"({shown(values['high'])}); for a value known exactly choose fixed")
+    if choice == "triangular" and not values["low"] <= values["mode"] <= values["high"]:
+        return (f"the most likely value ({shown(values['mode'])}) must lie between the low "
+                f"end ({shown(values['low'])}) and the high end ({shown(values['high'])})")
+    if choice == "lognormal":
+        if not values["gm"] > 0:
+            return f"the geometric mean ({shown(values['gm'])}) must be above 0"
+        if not values["gsd"] > 1:
+            return (f"the geometric SD ({values['gsd']:g}) must be above 1 (1 means no "
+                    "spread: choose fixed)")
+    return None
+
+
+def _base_item_name(state, study: str) -> str | None:
+    base = state.get("case.base", {}) or {}
+    if study == "tank":
+        tanks = base.get("tank") or []
+        return tanks[0].get("name") if tanks else None
+    return next((s.get("name") for s in base.get("spill", []) or [] if s.get("room")), None)
+
+
+def carried_uncertain(state, study: str) -> list[dict]:
+    """[[uncertain]] tables of the loaded file for the item on a page, for inputs the
+    page does not edit (such as a pool area or ventilation rate), as written."""
+    base = state.get("case.base", {}) or {}
+    name = str(_base_item_name(state, study) or "").strip().lower()
+    if not name:
+        return []
+    return [dict(u) for u in base.get("uncertain", []) or []
+            if str(u.get("item", "")).strip().lower() == name
+            and u.get("input") not in UNCERTAIN[study]]
+
+
+def uncertain_entries(state, study: str, item_name: str) -> tuple[list[dict], dict]:
+    """[[uncertain]] tables for the inputs of one page given as ranges, and the
+    problems of those that cannot be used (input -> message; each is left out)."""
+    if study not in UNCERTAIN or uncertainty_unavailable(state, study):
+        return [], {}
+    entries, problems = [], {}
+    for field in UNCERTAIN[study]:
+        choice = state.get(key(uncertain_name(study, field, "kind")), "fixed")
+        if choice == "fixed" or choice not in DISTRIBUTIONS:
+            continue
+        problem = distribution_problem(state, study, field)
+        if problem:
+            problems[field] = problem
+            continue
+        if choice == "file":
+            spec = state[key(uncertain_name(study, field, "file"))]
+        elif choice == "lognormal":
+            spec = {"lognormal": {"gm": _parameter_text(state, study, field, "gm"),
+                                  "gsd": _parameter(state, study, field, "gsd")}}
+        else:
+            spec = {choice: [_parameter_text(state, study, field, part)
+                             for part in DISTRIBUTIONS[choice]]}
+        entries.append({"item": item_name, "input": field, "distribution": spec})
+    for entry in carried_uncertain(state, study):
+        entries.append(dict(entry, item=item_name))
+    return entries, problems
+
+
+def monte_carlo_table(state) -> dict:
+    """The [monte_carlo] table of the settings on screen."""
+    samples = state.get(key("mc.samples"))
+    samples = DEFAULT_SAMPLES if samples is None else int(samples)
+    seed = state.get(key("mc.seed"))
+    return {"samples": max(100, min(samples, MAX_SAMPLES)),
+            "seed": DEFAULT_SEED if seed is None else max(0, int(seed)),
+            "method_uncertainty": bool(state.get(key("mc.method"), True))}
+
+
+def monte_carlo_document(state, study: str, *, limits=None) -> dict | None:
+    """The smallest scenario document that gives a page's probabilistic run, or None
+    when no input is given as a range (or the liquid has problems).
+
+    For the tank only what the sampled headspace uses is kept (liquid, pressure,
+    limits, alarms), so that changing the tank volume, fill or purge does not
+    draw the samples again; with the temperature given as a range the stated
+    temperature, which the samples do not use, is replaced by the low end of the
+    range for the same reason.
+    """
+    doc, problems = study_document(state, study, limits=limits, uncertain=True)
+    if problems or "uncertain" not in doc:
+        return None
+    if study == "tank":
+        tank = doc["tank"][0]
+        trimmed = {k: tank[k] for k in ("name", "liquid", "temperature", "gauge_pressure")
+                   if k in tank}
+        for entry in doc["uncertain"]:
+            spec = entry["distribution"]
+            if entry["input"] == "temperature" and isinstance(spec, dict) and len(spec) == 1:
+                values = next(iter(spec.values()))
+                if isinstance(values, list) and values and isinstance(values[0], str):
+                    trimmed["temperature"] = values[0]
+        doc["tank"] = [trimmed]
+    return doc
+
+
+def study_document(state, study: str, *, receptors=None, limits=None,
+                   uncertain: bool = False) -> tuple[dict, list[str]]:
     """A scenario document for one study ("tank", "indoor" or "outdoor") with the
     inputs on screen, and the problems found while gathering them.
 
-    `limits` replaces the rows of the limits table (as (row, item) pairs).
+    `limits` replaces the rows of the limits table (as (row, item) pairs). With
+    `uncertain`, the inputs given as ranges go in as [[uncertain]] tables with the
+    [monte_carlo] settings (ranges with problems are left out).
     """
     problems = []
     doc = {"scenario": _head(state)}
@@ -729,6 +1010,12 @@ def study_document(state, study: str, *, receptors=None, limits=None) -> tuple[d
     rows = limit_rows(state) if limits is None else limits
     if rows:
         doc["limit"] = [item for _, item in rows]
+    if uncertain and study in UNCERTAIN:
+        item = doc["tank"][0] if study == "tank" else doc["spill"][0]
+        entries, _ = uncertain_entries(state, study, item["name"])
+        if entries:
+            doc["uncertain"] = entries
+            doc["monte_carlo"] = monte_carlo_table(state)
     return doc, problems
 
 
@@ -805,4 +1092,17 @@ def full_document(state, studies=None, limits=None) -> dict:
     rows = limit_rows(state) if limits is None else limits
     if rows:
         doc["limit"] = [item for _, item in rows]
+    # inputs given as ranges: the pages' own, then those of the items carried along
+    uncertain = []
+    if "tank" in names:
+        uncertain += uncertain_entries(state, "tank", tanks[0]["name"])[0]
+    if "indoor" in names:
+        uncertain += uncertain_entries(state, "indoor", spills[0]["name"])[0]
+    carried = {str(x.get("name", "")).strip().lower() for x in base_tanks + extra_spills}
+    uncertain += [dict(u) for u in base.get("uncertain", []) or []
+                  if str(u.get("item", "")).strip().lower() in carried]
+    if uncertain:
+        doc["uncertain"] = uncertain
+    if uncertain or base.get("monte_carlo"):
+        doc["monte_carlo"] = monte_carlo_table(state)
     return doc

@@ -42,13 +42,17 @@ ADVICE = {
               "not wrong.",
     "general": "Correct the input named above; the result is shown again once it can be "
                "computed.",
+    "uncertainty": "Check the ranges in the Uncertainty section: every value they can give "
+                   "must be possible (a temperature below the boiling point, a mixing factor "
+                   "of 1 or more, an amount and an air speed above 0).",
 }
 
 AREA_NAMES = {"temperature": "Temperature", "liquid": "Liquid", "limits": "Exposure limits",
               "alarms": "Alarm levels", "site": "Site pressure", "tank": "Tank",
               "details": "Tank details", "amount": "Spilled amount", "time": "Times",
               "room": "Room", "weather": "Weather", "receptors": "Downwind distances",
-              "file": "Scenario file", "solver": "Calculation", "general": "Input"}
+              "file": "Scenario file", "solver": "Calculation", "general": "Input",
+              "uncertainty": "Uncertainty"}
 
 
 class Slots:
@@ -523,6 +527,176 @@ def site_block(slots: Slots) -> None:
     elif mode == "barometric":
         quantity("Barometric pressure", "site.barometric")
     slots.add("site")
+
+
+# --------------------------------------------------------------- uncertainty
+
+def _starting_range(study: str, field: str) -> None:
+    """When a distribution is chosen, fill its empty boxes with a range around the
+    value entered above, as a starting point to edit."""
+    inputs = store()
+    name = case.uncertain_name(study, field, "kind")
+    chosen = st.session_state.get("w:" + name, inputs.get(key(name)))
+    inputs[key(name)] = chosen
+    page_name, _, kind, _ = case.UNCERTAIN[study][field]
+    value = inputs.get(key(page_name))
+    if value is None:
+        return
+    v = float(value)
+    if kind == "temperature":
+        guess = {"low": v - 5.0, "mode": v, "high": v + 5.0}
+    else:
+        low = max(1.0, 0.5 * v) if field == "mixing_factor" else 0.5 * v
+        guess = {"low": low, "mode": v, "high": max(1.5 * v, low * 1.5), "gm": v, "gsd": 2.0}
+    for part in case.DISTRIBUTIONS.get(chosen, ()):
+        part_name = case.uncertain_name(study, field, part)
+        if inputs.get(key(part_name)) is None:
+            _set_input(part_name, case._round(guess[part]))
+
+
+def uncertainty_inputs(study: str, slots: Slots) -> dict:
+    """The inputs of the Uncertainty section: each input fixed or given as a range,
+    the number of samples, the seed and the method uncertainty.
+
+    A problem with a range is shown right under it; returns them (input -> message).
+    """
+    inputs = store()
+    reason = case.uncertainty_unavailable(inputs, study)
+    if reason:
+        st.info(reason)
+        return {}
+    problems = {}
+    for field, (page_name, label, kind, options) in case.UNCERTAIN[study].items():
+        file_spec = inputs.get(key(case.uncertain_name(study, field, "file")))
+        offered = list(options) + (["file"] if file_spec is not None else [])
+        chosen = choice(label, case.uncertain_name(study, field, "kind"), offered,
+                        format_func=case.DISTRIBUTION_WORDS.get, horizontal=True,
+                        on_change=_starting_range, args=(study, field))
+        parts = case.DISTRIBUTIONS.get(chosen, ())
+        if parts:
+            columns = st.columns(len(parts))
+            for column, part in zip(columns, parts):
+                name = case.uncertain_name(study, field, part)
+                words = case.PARAMETER_WORDS[part]
+                if kind is None or part == "gsd":
+                    number(words, name, optional=True, container=column)
+                else:
+                    quantity(words, name, optional=True, container=column)
+        elif chosen == "file":
+            st.caption("As written in the file: "
+                       + case.written_distribution(file_spec) + ".")
+        problem = None if chosen == "fixed" else case.distribution_problem(inputs, study, field)
+        if problem:
+            problems[field] = problem
+            st.error(f"**{label}** (range): {problem}. This range is left out until it is "
+                     "corrected.")
+    carried = case.carried_uncertain(inputs, study)
+    if carried:
+        st.caption("Also given as ranges in the scenario file, kept as written: " + "; ".join(
+            f"{views.input_words(u.get('input', ''))} "
+            f"{case.written_distribution(u.get('distribution'))}" for u in carried) + ".")
+    a, b = st.columns(2)
+    bound(a.number_input, "Samples", "mc.samples", min_value=100,
+          max_value=case.MAX_SAMPLES, step=1000,
+          help=f"Up to {case.MAX_SAMPLES:,}; {case.DEFAULT_SAMPLES:,} give percentiles to "
+               "about two figures.")
+    bound(b.number_input, "Seed", "mc.seed", min_value=0, step=1,
+          help="The same seed gives the same samples, so a run can be repeated exactly.")
+    bound(st.checkbox, "Vapour-pressure method uncertainty", "mc.method",
+          help="Multiply each sample's vapour pressure by a factor spread as the stated "
+               "uncertainty of its method (shown with the methods above).")
+    slots.add("uncertainty")
+    return problems
+
+
+def uncertainty_results(study: str, slots: Slots, limit_rows, units: str,
+                        stated_ok: bool = True, side=None) -> None:
+    """Run (cached) and show the probabilistic screening of the inputs on a page.
+
+    `stated_ok` says whether the result at the stated values could be computed;
+    until it can, the samples are not shown either. `side` is where the table of
+    the inputs sampled goes (under the inputs); beside the results without it.
+    """
+    from estimator.scenario import dumps_scenario
+
+    inputs = store()
+    if case.uncertainty_unavailable(inputs, study):
+        return
+    _, problems = case.study_document(inputs, study, limits=limit_rows)
+    if problems or not stated_ok:
+        st.info("The probabilistic screening is shown once the result at the stated values "
+                "above can be computed.")
+        return
+    doc = case.monte_carlo_document(inputs, study, limits=limit_rows)
+    if doc is None:
+        st.info("Every input is fixed. Choose a distribution for one of them to see how far "
+                "the result can spread, and how likely each limit is to be exceeded.")
+        return
+    view = views.uncertainty_view(dumps_scenario(doc), units)
+    if view["error"]:
+        slots.show(view["error"])
+        return
+    show_uncertainty(view)
+    with side if side is not None else st.container():
+        st.markdown("**Inputs sampled**")
+        table(view["inputs"])
+
+
+def cumulative_chart(data: pd.DataFrame, *, lines=(), log_x: bool = False) -> None:
+    """Cumulative distribution curves with the limits as labelled vertical dashed lines."""
+    x_enc = {"field": "ppm", "type": "quantitative", "title": "concentration [ppm]"}
+    if log_x:
+        x_enc["scale"] = {"type": "log"}
+    encoding = {"x": x_enc,
+                "y": {"field": "fraction", "type": "quantitative",
+                      "title": "fraction of samples at or below",
+                      "scale": {"domain": [0, 1]}},
+                "color": {"field": "series", "type": "nominal", "title": None,
+                          "legend": {"orient": "right", "labelLimit": 160}},
+                "strokeDash": {"field": "series", "type": "nominal", "legend": None},
+                "tooltip": [{"field": "series", "type": "nominal"},
+                            {"field": "ppm", "type": "quantitative", "format": ".4g"},
+                            {"field": "fraction", "type": "quantitative", "format": ".3f"}]}
+    layers = [{"mark": {"type": "line", "strokeWidth": 2}, "encoding": encoding}]
+    if lines:
+        layers.append({"data": {"values": [dict(v) for v in lines]},
+                       "mark": {"type": "rule", "strokeDash": [6, 4], "strokeWidth": 1.5},
+                       "encoding": {"x": {"field": "ppm", "type": "quantitative"},
+                                    "color": {"field": "limit", "type": "nominal",
+                                              "title": "limits (dashed)",
+                                              "scale": {"range": LIMIT_COLOURS},
+                                              "legend": {"orient": "right",
+                                                         "labelLimit": 160}},
+                                    "tooltip": [{"field": "limit", "type": "nominal"},
+                                                {"field": "ppm", "type": "quantitative",
+                                                 "format": ".4g"}]}})
+    spec = {"layer": layers,
+            "resolve": {"scale": {"color": "independent", "strokeDash": "independent"},
+                        "legend": {"color": "independent"}}}
+    st.vega_lite_chart(data, spec, width="stretch", height=320)
+
+
+def show_uncertainty(view: dict) -> None:
+    """The results of a probabilistic run: percentiles, exceedance, driver, curve."""
+    st.caption(f"{view['n_text']} (the seed repeats the run exactly).")
+    tiles = view["key_percentiles"]
+    if tiles:
+        for column, (label, value) in zip(st.columns(len(tiles)), tiles):
+            column.metric(label, value)
+    st.markdown("**Percentiles over the samples**")
+    table(view["percentiles"])
+    st.markdown("**Probability of exceeding each limit and alarm**")
+    table(view["exceedance"])
+    if view["driver_text"]:
+        st.markdown(view["driver_text"])
+        table(view["sensitivity"])
+        st.caption("A rank correlation near ±1 means the output follows that input closely; "
+                   "it is not a share of the variance.")
+    cumulative_chart(view["curve"], lines=view["lines"], log_x=view["log_x"])
+    st.caption("Where a curve crosses a limit line, one minus its height is the probability "
+               "of exceeding that limit.")
+    if view["warnings"]:
+        st.warning("**About the probabilistic screening**\n\n" + bullet_list(view["warnings"]))
 
 
 # ------------------------------------------------------------------- results

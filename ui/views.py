@@ -429,6 +429,207 @@ def _keys(scenario):
     return [c.key for c in _components(scenario)]
 
 
+# ------------------------------------------------------------------ uncertainty
+
+#: Unit kinds of the page (`ui.case.UNITS`) for the unit kinds of uncertain
+#: scenario inputs (`estimator.scenario.UNCERTAIN_INPUTS`); None: a plain number.
+_UNCERTAIN_KINDS = {"temperature": "temperature", "area": "area", "speed": "air_speed",
+                    "flow": "flow", "mass": "mass", "fraction": None}
+
+#: Inputs of the sampled chains in plain words.
+_INPUT_WORDS = {"temperature": "temperature", "pool_area": "pool area", "area": "pool area",
+                "air_speed": "air speed over the pool", "room_volume": "room volume",
+                "ventilation_rate": "ventilation rate", "mixing_factor": "mixing factor",
+                "spilled_mass": "spilled mass", "mass": "spilled mass",
+                "pressure": "pressure", "vapor_pressure_factor": "vapour-pressure method"}
+
+#: Outputs shown with their percentiles: model -> (output, words, how to format).
+_PERCENTILE_OUTPUTS = {
+    "headspace": (("total_ppm", "headspace, all vapour", "ppm"),
+                  ("percent_lfl", "flammable vapour (% of LFL)", "percent"),
+                  ("oxygen_percent", "oxygen left", "percent")),
+    "indoor spill": (("twa_ppm", "8-h TWA (room)", "ppm"),
+                     ("short_term_ppm", "highest 15-min average (room)", "ppm"),
+                     ("peak_ppm", "peak (room)", "ppm"),
+                     ("pool_lifetime", "pool lasts", "minutes"),
+                     ("evaporation_rate", "evaporation rate", "grams")),
+}
+
+#: The output whose spread the page explains, per model, and its name in a sentence.
+_KEY_OUTPUT = {"headspace": "total_ppm", "indoor spill": "twa_ppm"}
+_KEY_WORDS = {"headspace": "total headspace concentration", "indoor spill": "8-h TWA in the room"}
+
+
+def input_words(name: str) -> str:
+    """A chain input's name in plain words ("vapor_pressure_factor[Toluene]" ->
+    "vapour-pressure method (Toluene)")."""
+    base, _, inner = str(name).partition("[")
+    words = _INPUT_WORDS.get(base, base.replace("_", " "))
+    return f"{words} ({inner.rstrip(']')})" if inner else words
+
+
+def _statistic_text(value: float, how: str) -> str:
+    if not math.isfinite(value):
+        return "not within the run" if how == "minutes" else "not finite"
+    if how == "ppm":
+        return _ppm(value)
+    if how == "percent":
+        return f"{value:.3g} %"
+    if how == "minutes":
+        return _minutes(value)
+    return f"{1000.0 * value:.3g} g/s"
+
+
+def probability_text(probability: float) -> str:
+    """A probability as the pages and the report show it (3 significant figures, in %)."""
+    return f"{100.0 * float(probability):.3g} %"
+
+
+def distribution_text(dist, kind: str | None, units: str) -> str:
+    """A distribution of an input in words, in the units on screen."""
+    from estimator.uncertainty import Fixed, LogNormal, Normal, Triangular, Uniform
+
+    def value(v):
+        if kind is None:
+            return f"{v:.4g}"
+        return f"{_display(v, kind, units):.4g} {unit_label(kind, units)}"
+
+    def spread(v):
+        if kind is None:
+            return f"{v:.4g}"
+        if kind == "temperature":
+            return (f"{convert(v, 'delta_degC', 'delta_degF'):.4g} °F" if units == "US"
+                    else f"{v:.4g} K")
+        return value(v)
+
+    if isinstance(dist, Uniform):
+        return f"uniform from {value(dist.low)} to {value(dist.high)}"
+    if isinstance(dist, Triangular):
+        return (f"triangular from {value(dist.low)} to {value(dist.high)}, most likely "
+                f"{value(dist.mode)}")
+    if isinstance(dist, LogNormal):
+        return (f"lognormal, geometric mean {value(dist.geometric_mean)}, geometric SD "
+                f"{dist.geometric_sd:.4g}")
+    if isinstance(dist, Normal):
+        text = f"normal, mean {value(dist.mean)}, SD {spread(dist.sd)}"
+        bounds = [f"{w} {value(b)}" for w, b in (("above", dist.low), ("below", dist.high))
+                  if b is not None]
+        return text + (", kept " + " and ".join(bounds) if bounds else "")
+    if isinstance(dist, Fixed):
+        return f"fixed at {value(dist.value)}"
+    return str(dist)
+
+
+def _uncertainty_error(record: dict, prefix: str = "") -> dict:
+    """An error record pointed at the Uncertainty section, naming the input in words."""
+    field, reason = str(record.get("field") or ""), str(record.get("reason", ""))
+    named = re.match(r"^([a-z_]+(?:\[[^\]]*\])?): (.*)$", reason, flags=re.S)
+    if not field and named:
+        field, reason = named.groups()
+    if re.fullmatch(r"[a-z_]+(?:\[[^\]]*\])?", field):
+        field = input_words(field)
+    return {"error": dict(record, field=field, area="uncertainty", reason=prefix + reason)}
+
+
+@st.cache_data(max_entries=32, show_spinner=False)
+def uncertainty_view(toml_text: str, units: str) -> dict:
+    """Run the probabilistic screening of a one-item scenario with [[uncertain]] inputs
+    (`estimator.screening.run_scenario`); plain values for the Uncertainty section."""
+    from estimator.plots import cumulative_points
+    from estimator.report import monte_carlo_curves
+    from estimator.scenario import UNCERTAIN_INPUTS
+    from estimator.screening import run_scenario
+
+    try:
+        scenario = _load(toml_text)
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            result = run_scenario(scenario)
+    except (UllageError, ValueError) as exc:
+        return _uncertainty_error(error_record(exc))
+    items = list(result.tanks) + list(result.spills)
+    for item, message in result.errors:
+        record = _split_message(message)
+        if item.endswith("(probabilistic)"):
+            return _uncertainty_error(record)
+        return _uncertainty_error(record, "the result at the stated values could not be "
+                                          "computed, so neither could the samples: ")
+    item = items[0] if items else None
+    mc = getattr(item, "monte_carlo", None)
+    if mc is None:
+        return {"error": {"field": "", "area": "uncertainty",
+                          "reason": "no input is given as a range"}}
+    rows = []
+    for entry in scenario.uncertain:
+        kind = _UNCERTAIN_KINDS.get(UNCERTAIN_INPUTS[entry["kind"]][entry["input"]])
+        rows.append({"input": input_words(entry["input"]),
+                     "distribution": distribution_text(entry["distribution"], kind, units)})
+    for name, text in mc.inputs.items():
+        if name.startswith("vapor_pressure_factor"):
+            rows.append({"input": input_words(name), "distribution": text})
+    stats = []
+    for output, words, how in _PERCENTILE_OUTPUTS[mc.model]:
+        if output not in mc.percentiles:
+            continue
+        table = mc.percentiles[output]
+        row = {"output": words}
+        for q in (50, 90, 95, 99):
+            row["median" if q == 50 else f"{q}th percentile"] = _statistic_text(table[q], how)
+        stats.append(row)
+    names = ({c.key: c.name for c in item.headspace.liquid.components}
+             if mc.model == "headspace" else None)
+    curves, lines = monte_carlo_curves(mc, scenario.limits, names)
+    exceedance = []
+    shown = set()
+    for line in lines:
+        exceedance.append({"limit or alarm": line["line"], "compared with": line["compared"],
+                           "probability of exceeding": probability_text(
+                               mc.exceedance[line["label"]])})
+        shown.add(line["label"])
+    for label, probability in mc.exceedance.items():
+        if label not in shown:
+            compared = "oxygen left" if label.startswith("oxygen") else "flammable vapour"
+            exceedance.append({"limit or alarm": label, "compared with": compared,
+                               "probability of exceeding": probability_text(probability)})
+    key_output = _KEY_OUTPUT[mc.model]
+    ranks = dict(mc.sensitivity.get(key_output, {}))
+    driver = None
+    if ranks:
+        top, rho = next(iter(ranks.items()))
+        driver = (f"The spread of the {_KEY_WORDS[mc.model]} is driven most by the "
+                  f"{input_words(top)} (Spearman rank correlation {rho:.2f}).")
+    sensitivity = pd.DataFrame([{"input": input_words(k), "rank correlation": f"{v:.2f}"}
+                                for k, v in ranks.items()], columns=["input", "rank correlation"])
+    values = np.concatenate([np.ravel(v) for v in curves.values()]
+                            + [np.array([x["ppm"] for x in lines], dtype=float)])
+    positive = values[np.isfinite(values) & (values > 0)]
+    log_x = positive.size > 1 and float(positive.max()) / float(positive.min()) > 100.0
+    frames = []
+    for label, samples in curves.items():
+        x, f = cumulative_points(samples, 400, log_x)
+        keep = np.isfinite(x) & ((x > 0) if log_x else True)
+        frames.append(pd.DataFrame({"ppm": x[keep], "fraction": f[keep], "series": label}))
+    key_percentiles = [(f"95th percentile, {words}", _statistic_text(
+        mc.percentiles[output][95], how)) for output, words, how in _PERCENTILE_OUTPUTS[mc.model]
+        if how == "ppm" and output in mc.percentiles and output != "short_term_ppm"]
+    return {
+        "error": None, "model": mc.model, "n": mc.n, "seed": mc.seed,
+        "n_text": f"{mc.n:,} samples, seed {mc.seed}",
+        "inputs": pd.DataFrame(rows, columns=["input", "distribution"]),
+        "percentiles": pd.DataFrame(stats),
+        "key_percentiles": key_percentiles,
+        "exceedance": pd.DataFrame(exceedance, columns=["limit or alarm", "compared with",
+                                                        "probability of exceeding"]),
+        "exceedance_by_label": {k: probability_text(v) for k, v in mc.exceedance.items()},
+        "driver_text": driver, "sensitivity": sensitivity,
+        "curve": pd.concat(frames, ignore_index=True),
+        "lines": [{"ppm": x["ppm"], "limit": x["line"]} for x in lines],
+        "log_x": bool(log_x),
+        "warnings": list(mc.warnings) + [w for w in item.warnings if "probabilistic" in w
+                                         and w not in mc.warnings],
+    }
+
+
 # --------------------------------------------------------------------- checks
 
 @functools.lru_cache(maxsize=512)

@@ -60,6 +60,8 @@ with inputs:
     shared.quantity("Air speed between zones", "room.random_air_speed", optional=True,
                     container=b)
     slots.add("room")
+    st.caption("Not sure of the temperature, amount, mixing factor or air speed? Give them "
+               "as ranges under [Uncertainty](#uncertainty) below.")
     a, b = st.columns(2)
     shared.quantity("Run length", "indoor.duration", container=a)
     shared.quantity("Clean-up after", "indoor.cleanup", optional=True, container=b)
@@ -95,6 +97,7 @@ with results:
     st.subheader("Result")
     slots.add("general")
     doc, problems = case.study_document(state, "indoor", limits=limit_rows)
+    download_place = None
     if problems:
         slots.problems("liquid", problems)
     else:
@@ -104,4 +107,25 @@ with results:
             slots.show(view["error"])
         else:
             show(view)
-            shared.downloads(text, shared._slug(view["name"]))
+            download_place = st.container()
+
+st.divider()
+st.header("Uncertainty", anchor="uncertainty")
+st.caption("Give the temperature, the spilled mass, the mixing factor or the air speed as a "
+           "range instead of one value: the spill is then run for every set of values drawn "
+           "(Monte Carlo). Each sample uses a simpler model than the result above: the "
+           "Mackay-Matsugu evaporation rate held constant until the pool is dry, into the "
+           "well-mixed room (no near field); the pool area stays that of the stated amount.")
+range_inputs, range_results = st.columns([2, 3], gap="large")
+with range_inputs:
+    shared.uncertainty_inputs("indoor", slots)
+    sampled_place = st.container()
+with range_results:
+    shared.uncertainty_results("indoor", slots, limit_rows, units,
+                               stated_ok=download_place is not None, side=sampled_place)
+
+if download_place is not None:
+    with download_place:
+        report_doc, _ = case.study_document(state, "indoor", limits=limit_rows,
+                                            uncertain=True)
+        shared.downloads(dumps_scenario(report_doc), shared._slug(view["name"]))

@@ -31,6 +31,8 @@ with inputs:
                     help="The hottest the liquid gets (sun, process heat); leave empty to "
                          "screen only the stated temperature.")
     slots.add("temperature")
+    st.caption("Not sure of the liquid temperature? Give it as a range under "
+               "[Uncertainty](#uncertainty) below.")
     a, b, c = st.columns(3)
     shared.quantity("Tank volume", "tank.volume", optional=True, container=a)
     shared.quantity("Liquid level", "tank.fill", container=b)
@@ -118,6 +120,7 @@ with results:
     st.subheader("Result")
     slots.add("general")
     doc, problems = case.study_document(state, "tank", limits=limit_rows)
+    download_place = None
     if problems:
         slots.problems("liquid", problems)
     else:
@@ -127,4 +130,23 @@ with results:
             slots.show(view["error"])
         else:
             show(view)
-            shared.downloads(text, shared._slug(f"{view['name']}"))
+            download_place = st.container()
+
+st.divider()
+st.header("Uncertainty", anchor="uncertainty")
+st.caption("Give the liquid temperature as a range instead of one value: the headspace is "
+           "then computed for every temperature drawn from it (Monte Carlo), each with the "
+           "vapour-pressure method's stated uncertainty if ticked. The result is the spread "
+           "of the headspace and the probability of exceeding each limit and alarm.")
+range_inputs, range_results = st.columns([2, 3], gap="large")
+with range_inputs:
+    shared.uncertainty_inputs("tank", slots)
+    sampled_place = st.container()
+with range_results:
+    shared.uncertainty_results("tank", slots, limit_rows, units,
+                               stated_ok=download_place is not None, side=sampled_place)
+
+if download_place is not None:
+    with download_place:
+        report_doc, _ = case.study_document(state, "tank", limits=limit_rows, uncertain=True)
+        shared.downloads(dumps_scenario(report_doc), shared._slug(f"{view['name']}"))
