@@ -1783,7 +1783,6 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
     volume, note = _diffusion_volume(sub, "substance")
     if note:
         notes.append(note)
-    diameter = math.sqrt(4.0 * a / math.pi)
     sc = float(air_kinematic_viscosity(t_air, p)) / float(
         fuller_diffusivity(t_air, p, sub.molar_mass, volume))
     k, _, _, _, _ = _mass_transfer(sub, np.asarray(t_air), np.asarray(a), np.asarray(u), p,

@@ -22,7 +22,7 @@ from .constants import (
     STANDARD_GRAVITY,
 )
 from .errors import InputError, OutOfRangeError
-from .mixtures import Liquid, liquid as make_liquid, raoult_partial_pressures
+from .mixtures import Liquid, liquid as make_liquid
 from .vapor import VaporPressureEstimate, vapor_pressure_estimate
 
 __all__ = [

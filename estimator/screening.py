@@ -10,12 +10,12 @@ from __future__ import annotations
 
 import math
 import warnings
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 
 import numpy as np
 
 from . import CAUTIONS, __version__
-from .errors import InputError, OutOfRangeError, UllageError
+from .errors import InputError, UllageError
 from .headspace import (
     Headspace,
     FlashPointEstimate,

@@ -1,7 +1,6 @@
 """Vapour-pressure equations against published values and the IAPWS-95 water standard."""
 
 import math
-import warnings
 
 import numpy as np
 import pytest

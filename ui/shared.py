@@ -790,3 +790,59 @@ def downloads(toml_text: str | None, stem: str) -> None:
     b.download_button("Download the results (CSV)", data=lambda: views.report_text(toml_text, "csv"),
                       file_name=f"{stem}-results.csv", mime="text/csv", on_click="ignore",
                       key=f"dl:{stem}:csv")
+
+
+def study_tail(state, kind: str, slots, limit_rows, units, results, view_function, show,
+               caption: str) -> None:
+    """The result column, the uncertainty section and the downloads of a study page.
+
+    Parameters
+    ----------
+    state, slots, limit_rows, units
+        As the page holds them.
+    kind : str
+        "tank" or "indoor".
+    results : streamlit container
+        The page's result column.
+    view_function : callable
+        Scenario text and units -> the view dict the page's `show` draws.
+    show : callable
+        Draws a view.
+    caption : str
+        What the uncertainty section does, in plain words.
+    """
+    from estimator.scenario import dumps_scenario
+
+    from ui import case
+
+    view = None
+    download_place = None
+    with results:
+        st.subheader("Result")
+        slots.add("general")
+        doc, problems = case.study_document(state, kind, limits=limit_rows)
+        if problems:
+            slots.problems("liquid", problems)
+        else:
+            view = view_function(dumps_scenario(doc), units)
+            if view["error"]:
+                slots.show(view["error"])
+            else:
+                show(view)
+                download_place = st.container()
+
+    st.divider()
+    st.header("Uncertainty", anchor="uncertainty")
+    st.caption(caption)
+    range_inputs, range_results = st.columns([2, 3], gap="large")
+    with range_inputs:
+        uncertainty_inputs(kind, slots)
+        sampled_place = st.container()
+    with range_results:
+        uncertainty_results(kind, slots, limit_rows, units,
+                            stated_ok=download_place is not None, side=sampled_place)
+
+    if download_place is not None:
+        with download_place:
+            report_doc, _ = case.study_document(state, kind, limits=limit_rows, uncertain=True)
+            downloads(dumps_scenario(report_doc), _slug(view["name"]))

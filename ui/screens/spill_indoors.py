@@ -9,8 +9,7 @@ if _ROOT not in sys.path:
 
 import streamlit as st  # noqa: E402
 
-from estimator.scenario import dumps_scenario  # noqa: E402
-from ui import case, shared, views  # noqa: E402
+from ui import shared, views  # noqa: E402
 from ui.case import system  # noqa: E402
 
 MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
@@ -93,39 +92,13 @@ def show(view: dict) -> None:
     shared.show_notes(view)
 
 
-with results:
-    st.subheader("Result")
-    slots.add("general")
-    doc, problems = case.study_document(state, "indoor", limits=limit_rows)
-    download_place = None
-    if problems:
-        slots.problems("liquid", problems)
-    else:
-        text = dumps_scenario(doc)
-        view = views.indoor_view(text, units)
-        if view["error"]:
-            slots.show(view["error"])
-        else:
-            show(view)
-            download_place = st.container()
+UNCERTAINTY_CAPTION = (
+    "Give the temperature, the spilled mass, the mixing factor or the air speed as a "
+    "range instead of one value: the spill is then run for every set of values drawn "
+    "(Monte Carlo). Each sample uses a simpler model than the result above: the "
+    "Mackay-Matsugu evaporation rate held constant until the pool is dry, into the "
+    "well-mixed room (no near field); the pool area stays that of the stated amount."
+)
 
-st.divider()
-st.header("Uncertainty", anchor="uncertainty")
-st.caption("Give the temperature, the spilled mass, the mixing factor or the air speed as a "
-           "range instead of one value: the spill is then run for every set of values drawn "
-           "(Monte Carlo). Each sample uses a simpler model than the result above: the "
-           "Mackay-Matsugu evaporation rate held constant until the pool is dry, into the "
-           "well-mixed room (no near field); the pool area stays that of the stated amount.")
-range_inputs, range_results = st.columns([2, 3], gap="large")
-with range_inputs:
-    shared.uncertainty_inputs("indoor", slots)
-    sampled_place = st.container()
-with range_results:
-    shared.uncertainty_results("indoor", slots, limit_rows, units,
-                               stated_ok=download_place is not None, side=sampled_place)
-
-if download_place is not None:
-    with download_place:
-        report_doc, _ = case.study_document(state, "indoor", limits=limit_rows,
-                                            uncertain=True)
-        shared.downloads(dumps_scenario(report_doc), shared._slug(view["name"]))
+shared.study_tail(state, "indoor", slots, limit_rows, units, results, views.indoor_view, show,
+                  UNCERTAINTY_CAPTION)

@@ -9,8 +9,7 @@ if _ROOT not in sys.path:
 
 import streamlit as st  # noqa: E402
 
-from estimator.scenario import dumps_scenario  # noqa: E402
-from ui import case, shared, views  # noqa: E402
+from ui import shared, views  # noqa: E402
 from ui.case import system  # noqa: E402
 
 slots = shared.setup_page(
@@ -116,37 +115,12 @@ def show(view: dict) -> None:
     shared.show_notes(view)
 
 
-with results:
-    st.subheader("Result")
-    slots.add("general")
-    doc, problems = case.study_document(state, "tank", limits=limit_rows)
-    download_place = None
-    if problems:
-        slots.problems("liquid", problems)
-    else:
-        text = dumps_scenario(doc)
-        view = views.tank_view(text, units)
-        if view["error"]:
-            slots.show(view["error"])
-        else:
-            show(view)
-            download_place = st.container()
+UNCERTAINTY_CAPTION = (
+    "Give the liquid temperature as a range instead of one value: the headspace is "
+    "then computed for every temperature drawn from it (Monte Carlo), each with the "
+    "vapour-pressure method's stated uncertainty if ticked. The result is the spread "
+    "of the headspace and the probability of exceeding each limit and alarm."
+)
 
-st.divider()
-st.header("Uncertainty", anchor="uncertainty")
-st.caption("Give the liquid temperature as a range instead of one value: the headspace is "
-           "then computed for every temperature drawn from it (Monte Carlo), each with the "
-           "vapour-pressure method's stated uncertainty if ticked. The result is the spread "
-           "of the headspace and the probability of exceeding each limit and alarm.")
-range_inputs, range_results = st.columns([2, 3], gap="large")
-with range_inputs:
-    shared.uncertainty_inputs("tank", slots)
-    sampled_place = st.container()
-with range_results:
-    shared.uncertainty_results("tank", slots, limit_rows, units,
-                               stated_ok=download_place is not None, side=sampled_place)
-
-if download_place is not None:
-    with download_place:
-        report_doc, _ = case.study_document(state, "tank", limits=limit_rows, uncertain=True)
-        shared.downloads(dumps_scenario(report_doc), shared._slug(f"{view['name']}"))
+shared.study_tail(state, "tank", slots, limit_rows, units, results, views.tank_view, show,
+                  UNCERTAINTY_CAPTION)
