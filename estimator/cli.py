@@ -424,6 +424,11 @@ def main(argv=None) -> int:
     except KeyboardInterrupt:
         print("ullage: interrupted; no partial output was written", file=sys.stderr)
         return 130
+    except BrokenPipeError:
+        import os
+
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+        return EXIT_OK
     except (OSError, MemoryError) as exc:
         print(f"ullage: error: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
