@@ -469,7 +469,11 @@ def _solve(liq, objective, target, pressure, what) -> float:
     if f(hi) < 0:
         raise OutOfRangeError(what, f"{target:g} is never reached below the critical "
                               "temperature")
-    return float(brentq(f, lo, hi, xtol=1e-6, rtol=1e-10, maxiter=200))
+    try:
+        return float(brentq(f, lo, hi, xtol=1e-6, rtol=1e-10, maxiter=200))
+    except RuntimeError:
+        raise OutOfRangeError(what, f"the temperature for {target:g} was not found within "
+                              "200 iterations; try a nearby target") from None
 
 
 def temperature_for_concentration(liquid, volume_fraction, pressure=STANDARD_ATMOSPHERE,

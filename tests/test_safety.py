@@ -103,3 +103,18 @@ def test_browser_app_binds_to_loopback_by_default():
     """`ullage app` listens on 127.0.0.1 unless told otherwise."""
     args = cli.build_parser().parse_args(["app"])
     assert args.address == "127.0.0.1"
+
+
+def test_root_finding_failure_is_a_clear_error(monkeypatch):
+    """If the temperature search does not converge, the user gets a reason, not a trace."""
+    import scipy.optimize
+
+    from estimator.errors import OutOfRangeError
+    from estimator.headspace import temperature_for_concentration
+
+    def stuck(*args, **kwargs):
+        raise RuntimeError("Failed to converge after 200 iterations")
+
+    monkeypatch.setattr(scipy.optimize, "brentq", stuck)
+    with pytest.raises(OutOfRangeError, match="not found within 200 iterations"):
+        temperature_for_concentration("toluene", 0.01)
