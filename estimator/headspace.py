@@ -443,6 +443,20 @@ def water_headspace(dissolved, temperature, pressure=STANDARD_ATMOSPHERE) -> Hea
 WATER_MOLAR_CONCENTRATION = 997.047 / 18.015268e-3
 
 
+class AboveAtLowestTemperature(OutOfRangeError):
+    """The target is exceeded at every temperature the liquid exists at.
+
+    Attributes
+    ----------
+    temperature : float
+        The lowest liquid temperature, where the target is already exceeded. [K]
+    """
+
+    def __init__(self, field: str, message: str, temperature: float):
+        self.temperature = temperature
+        super().__init__(field, message)
+
+
 def _liquid_range(liq: Liquid) -> tuple[float, float]:
     lo = max([c.melting_point or 0.0 for c in liq.components] + [120.0])
     hi = min([c.critical_temperature or 2000.0 for c in liq.components])
@@ -462,10 +476,10 @@ def _solve(liq, objective, target, pressure, what) -> float:
 
     f_lo = f(lo)
     if f_lo >= 0:
-        raise OutOfRangeError(
+        raise AboveAtLowestTemperature(
             what, f"the headspace is already at or above {target:g} at {lo - 273.15:.1f} "
             "degC, the lowest temperature the liquid exists at; no lower temperature "
-            "reaches it")
+            "reaches it", lo)
     if f(hi) < 0:
         raise OutOfRangeError(what, f"{target:g} is never reached below the critical "
                               "temperature")

@@ -17,6 +17,7 @@ import numpy as np
 from . import CAUTIONS, __version__
 from .errors import InputError, UllageError
 from .headspace import (
+    AboveAtLowestTemperature,
     Headspace,
     FlashPointEstimate,
     estimated_flash_point,
@@ -285,6 +286,11 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         try:
             alarm_t = temperature_for_percent_lfl(hs.liquid, scenario.alarms.percent_lfl,
                                                   pressure)
+        except AboveAtLowestTemperature as exc:
+            findings.append(f"The headspace is at or above {scenario.alarms.percent_lfl:g} % "
+                            f"of the LFL at every liquid temperature down to "
+                            f"{exc.temperature - 273.15:.1f} degC, the lowest temperature "
+                            "computed (the highest melting point of its components).")
         except UllageError as exc:
             notes.append(f"{scenario.alarms.percent_lfl:g} % LFL temperature: {exc}")
     if flash is not None:
