@@ -527,11 +527,16 @@ def _density(liq) -> float:
 
 def _monte_carlo_findings(mc) -> list[str]:
     out = [f"Probabilistic screening, {mc.n:,} samples (seed {mc.seed}):"]
+    from .limits import format_ppm
+
     for name, table in mc.percentiles.items():
         unit = mc.units.get(name, "")
-        unit = "" if unit in ("", "-") else " " + unit
-        out.append(f"  {name.replace('_', ' ')}: median {table[50]:.4g}{unit}, 95th "
-                   f"percentile {table[95]:.4g}{unit}")
+        median, high = table[50], table[95]
+        if unit == "s":
+            median, high, unit = median / 60.0, high / 60.0, "min"
+        text = "" if unit in ("", "-") else " " + unit
+        out.append(f"  {name.replace('_', ' ')}: median {format_ppm(median)}{text}, 95th "
+                   f"percentile {format_ppm(high)}{text}")
     for label, probability in mc.exceedance.items():
         out.append(f"  probability of exceeding {label}: {100 * probability:.3g} %")
     for output, ranks in list(mc.sensitivity.items())[:1]:
