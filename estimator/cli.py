@@ -12,7 +12,7 @@ import textwrap
 from pathlib import Path
 
 from . import CAUTIONS, __version__
-from .errors import UllageError
+from .errors import InputError, UllageError
 
 EXIT_OK = 0
 EXIT_LIMIT = 1
@@ -30,7 +30,7 @@ def _cautions_block() -> str:
     return "\n".join(lines)
 
 
-class _BadInput(UllageError):
+class _BadInput(InputError):
     """A command-line argument that cannot be used."""
 
 
@@ -137,6 +137,10 @@ def _render(result, fmt: str) -> str:
 
 
 def _exit(result, args) -> int:
+    if result.errors:
+        print(f"ullage: {len(result.errors)} item(s) could not be computed; see the report",
+              file=sys.stderr)
+        return EXIT_BAD_INPUT
     return EXIT_LIMIT if getattr(args, "signal_exceedance", False) and result.exceeded \
         else EXIT_OK
 
@@ -228,6 +232,8 @@ def _cmd_sweep(args) -> int:
                              f"{hs.total_mg_per_m3[i]:.6g}", f"{hs.percent_lfl[i]:.4g}",
                              f"{hs.oxygen_percent[i]:.4g}", str(hs.flammability[i])]
                             + [f"{hs.ppm[j, i]:.6g}" for j in range(len(names))])
+        for caution in CAUTIONS:
+            writer.writerow(["caution", caution])
         _out(buffer.getvalue(), args.output)
         return EXIT_OK
     lines = [f"Equilibrium headspace, {pressure / 1000:.2f} kPa: "
@@ -276,7 +282,8 @@ def _cmd_inventory(args) -> int:
             f"{cell(row['worst_case_ppm'], format_ppm):>10} "
             f"{cell(row['worst_case_percent_lfl'], lambda v: f'{v:.3g}'):>7} "
             f"{cell(row['worst_case_oxygen_percent'], lambda v: f'{v:.3g}'):>5} "
-            f"{cell(row['concern'], lambda v: f'{v:.3g}'):>8}  {row['status']}")
+            f"{cell(row['concern'], lambda v: f'{v:.3g}'):>8}  "
+            f"{'computed' if row['status'] == 'ok' else row['status']}")
         if row["status"] != "ok" and row.get("reason"):
             lines.append(textwrap.fill(str(row["reason"]), width=78, initial_indent="        ",
                                        subsequent_indent="        "))

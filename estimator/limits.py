@@ -306,11 +306,19 @@ def vapor_hazard_ratio(saturated_volume_fraction, limit: ExposureLimit) -> float
     return float(saturated_volume_fraction) / limit.volume_fraction
 
 
-def flammability_findings(percent_lfl, oxygen_percent, alarms: FlammabilityAlarms) -> list[str]:
-    """Plain-language screening statements on %LFL and oxygen against the alarms."""
+def flammability_findings(percent_lfl, oxygen_percent, alarms: FlammabilityAlarms,
+                          lfl_known: bool = True) -> list[str]:
+    """Plain-language screening statements on %LFL and oxygen against the alarms.
+
+    With `lfl_known` False (no component has a flammability limit on record) the
+    vapour is not compared with the LFL alarm at all, rather than reported below it.
+    """
     out = []
     pl, ox = float(percent_lfl), float(oxygen_percent)
-    if pl >= alarms.percent_lfl:
+    if not lfl_known:
+        out.append("Not compared with the LFL alarm: no flammability limit is on record for "
+                   "this liquid; enter it from the safety data sheet if it can burn.")
+    elif pl >= alarms.percent_lfl:
         out.append(f"Flammable vapour at {pl:.3g} % of the LFL is at or above the "
                    f"{alarms.percent_lfl:g} % LFL alarm level ({alarms.source}).")
     else:

@@ -133,6 +133,8 @@ class ZoneExposure:
     short_term: float
     comparisons: tuple[tuple[str, float, float, float | None, float | None], ...]
     # (limit label, limit ppm, ratio, first time above, time back below)
+    twa_lower_bound: bool = False
+    # the run is shorter than the shift: the rest counts as zero exposure
 
 
 @dataclass(frozen=True)
@@ -223,7 +225,8 @@ def _findings(hs: Headspace, comparisons, alarms, label: str) -> list[str]:
                 if water else "")
     out = [f"{label}: headspace {format_ppm(hs.total_ppm)} ppm{of_which}, "
            f"{float(hs.percent_lfl):.3g} % of the LFL; {hs.flammability_words}."]
-    out += flammability_findings(float(hs.percent_lfl), float(hs.oxygen_percent), alarms)
+    out += flammability_findings(float(hs.percent_lfl), float(hs.oxygen_percent), alarms,
+                                 lfl_known=bool(np.isfinite(hs.lfl_mixture)))
     out += ["Headspace " + c.statement + "." for c in comparisons]
     return out
 
@@ -326,6 +329,10 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
             if target is None:
                 notes.append("purge not computed: give purge_target (no LFL to aim below)")
             else:
+                if tank.get("fill", 0.0) > 0 and not tank.get("residual_area"):
+                    notes.append("the purge time assumes the tank is first drained and "
+                                 "cleaned (no liquid left evaporating); give residual_area "
+                                 "for the liquid left in it")
                 try:
                     purge = entry_purge(liquid_for_tank, t, space, tank["purge_rate"], target,
                                         tank.get("purge_mixing_factor", 1.0),
@@ -336,10 +343,12 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         notes.append("filling, breathing and purge are not computed for water with "
                      "dissolved volatiles")
     if purge is not None:
+        drained = ("" if tank.get("residual_area") else
+                   " once the tank is drained and cleaned")
         findings.append(
             f"Purging at the given rate reaches {purge.target_volume_fraction * 1e6:.3g} ppm in "
-            f"{purge.time / 60:.0f} min." if purge.reachable else purge.note[:1].upper()
-            + purge.note[1:] + ".")
+            f"about {purge.time / 60:.0f} min{drained}: plan on that, then measure before "
+            "entry." if purge.reachable else purge.note[:1].upper() + purge.note[1:] + ".")
     return TankResult(
         name=tank["name"], liquid=tank["liquid"], temperature=t, worst_temperature=worst_t,
         pressure=pressure, headspace=hs, worst=worst, sweep=sweep, comparisons=comparisons,
@@ -365,6 +374,7 @@ def _zone_exposure(zone, key, times, ppm, limits, shift) -> ZoneExposure:
     window = max_rolling_average(times, ppm) if times[-1] - times[0] >= 900 else None
     short = window.value if window is not None else float(np.mean(ppm))
     rows = []
+    covered = float(times[-1] - times[0])
     for lim in limits:
         if lim.substance != key:
             continue
@@ -372,7 +382,8 @@ def _zone_exposure(zone, key, times, ppm, limits, shift) -> ZoneExposure:
         first = first_time_above(times, ppm, lim.ppm)
         back = time_back_below(times, ppm, lim.ppm) if first is not None else None
         rows.append((lim.label, lim.ppm, metric / lim.ppm, first, back))
-    return ZoneExposure(zone, key, top.value, top.time, twa, short, tuple(rows))
+    return ZoneExposure(zone, key, top.value, top.time, twa, short, tuple(rows),
+                        twa_lower_bound=covered < shift.duration - 1e-6)
 
 
 def _spill(scenario: Scenario, spill: dict) -> SpillResult:
@@ -480,7 +491,7 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
                 spill.get("volume") or spill["mass"] / _density(liq), spill.get("dike_area"),
                 spill.get("depth", 0.01))
         speed = (next(r for r in scenario.rooms if r["name"] == spill["room"])["air_speed"]
-                 if spill.get("room") else scenario.outdoors["wind_speed"])
+                 if spill.get("room") else wind)
         for model in ("mackay-matsugu", "epa-rmp"):
             try:
                 rates[model] = float(np.sum(mixture_evaporation_rates(
@@ -496,6 +507,9 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
             verb = "exceeds" if ratio > 1 else "stays below"
             text = (f"{e.zone}, {e.substance}: {_WINDOW[label.split()[0]]} {verb} the "
                     f"{label} (ratio {ratio:.3g})")
+            if label.startswith("TWA") and e.twa_lower_bound:
+                text += (" — a lower bound: the run is shorter than the work shift and the "
+                         "rest of the shift counts as no exposure; run the full shift")
             if first is not None:
                 text += f"; above {limit_ppm:.4g} ppm from {first / 60:.0f} min"
                 text += (f", back below at {back / 60:.0f} min" if back is not None

@@ -395,6 +395,14 @@ def user_substance(name: str, molar_mass: float, boiling_point: float,
         _positive(point[1], f"vapor_pressure_points[{i}] pressure", "Pa")
     tmin = tm if tm is not None else 0.0
     notes = []
+    ordered = sorted([(boiling_point, STANDARD_ATMOSPHERE)] + [(float(t), float(p))
+                                                              for t, p in points])
+    for (t1, p1), (t2, p2) in zip(ordered, ordered[1:]):
+        if t2 > t1 and p2 <= p1:
+            raise InputError("vapor_pressure_points", f"the vapour pressure falls from "
+                             f"{p1:g} Pa at {t1:g} K to {p2:g} Pa at {t2:g} K (the boiling "
+                             "point is 101325 Pa); it must rise with temperature: check the "
+                             "units and which pressure goes with which temperature")
     if points:
         fit = fit_clausius_clapeyron([boiling_point] + [p[0] for p in points],
                                      [STANDARD_ATMOSPHERE] + [p[1] for p in points])

@@ -120,3 +120,23 @@ def test_inventory_screen_and_export(capsys, tmp_path):
     assert "no substance is known as 'tolune'" in " ".join(out.split())
     assert "row(s):" in out and CAUTIONS[0] in out
     assert target.exists() and "Quarry Lane T-101" in target.read_text(encoding="utf-8-sig")
+
+
+def test_items_not_computed_exit_2(capsys, tmp_path):
+    """A scenario whose items cannot all be computed exits 2, even with results printed."""
+    bad = tmp_path / "vac.toml"
+    bad.write_text(DEMO.read_text().replace('fill = "40 %"', 'fill = "40 %"\ngauge_pressure = "-200 kPa"'))
+    code, out, err = run(capsys, "run", str(bad), "--signal-exceedance")
+    assert code == 2 and "could not be computed" in err and "Not computed" in out
+
+
+def test_sweep_csv_carries_cautions(capsys):
+    """CSV output of a sweep ends with the cautions."""
+    code, out, _ = run(capsys, "sweep", "toluene", "--csv")
+    assert code == 0 and out.strip().splitlines()[-1].startswith("caution,")
+
+
+def test_bad_input_message_is_plain(capsys):
+    """Command-line argument errors read as field: message, not as a tuple."""
+    code, _, err = run(capsys, "sweep")
+    assert code == 2 and "error: liquid: give a liquid" in err

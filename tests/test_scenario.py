@@ -213,3 +213,46 @@ def test_bad_uncertain_inputs(block, field, fragment):
         loads_scenario(MINIMAL + "\n[[uncertain]]\n" + block + "\n")
     assert field in info.value.field
     assert fragment in str(info.value)
+
+
+def test_short_run_twa_is_flagged_as_a_lower_bound():
+    """A spill run shorter than the shift says its TWA is a lower bound."""
+    text = MINIMAL + '''
+[[room]]
+name = "r"
+volume = "200 m3"
+air_changes = "1 1/h"
+mixing_factor = 2
+
+[[spill]]
+name = "s"
+liquid = "solvent"
+volume = "5 L"
+temperature = "22 degC"
+room = "r"
+duration = "1 h"
+
+[[limit]]
+substance = "toluene"
+TWA = "20 ppm"
+source = "x"
+'''
+    result = run_scenario(loads_scenario(text))
+    assert any("a lower bound" in f for f in result.spills[0].findings)
+
+
+def test_no_lfl_is_not_reported_below_the_alarm():
+    """A liquid with no LFL on record is not said to be below the LFL alarm."""
+    result = run_scenario(loads_scenario(MINIMAL.replace('"toluene"', '"water"')))
+    text = " ".join(result.tanks[0].findings)
+    assert "Not compared with the LFL alarm" in text
+    assert "below the 10 % LFL" not in text
+
+
+def test_purge_finding_states_its_assumption():
+    """The purge time says it assumes a drained tank and that measurement follows."""
+    text = MINIMAL + 'volume = "10 m3"\nfill = "40 %"\npurge_rate = "0.2 m3/s"\n' \
+        'purge_target = "10 ppm"\n'
+    tank = run_scenario(loads_scenario(text)).tanks[0]
+    assert any("measure before entry" in f and "drained" in f for f in tank.findings)
+    assert any("drained and cleaned" in w for w in tank.warnings)

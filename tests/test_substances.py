@@ -211,3 +211,11 @@ def test_vapor_pressure_errors():
         estimator.vapor_pressure("water", 300.0, method="clausius-clapeyron-fit")
     with pytest.raises(ValueError, match="unknown method"):
         estimator.vapor_pressure("water", 300.0, method="magic")
+
+
+def test_user_substance_vapour_pressure_must_rise():
+    """SDS points whose vapour pressure falls with temperature are refused."""
+    with pytest.raises(InputError, match="must rise with temperature"):
+        estimator.user_substance("X", 0.1, 380.0, [(293.15, 90000.0), (303.15, 10000.0)])
+    with pytest.raises(InputError, match="must rise with temperature"):
+        estimator.user_substance("X", 0.1, 380.0, [(293.15, 150000.0)])
