@@ -320,9 +320,10 @@ def _assemble(liq: Liquid, temperature, p_total: float, p_sat, p_i, estimates,
     if np.any(boiling):
         at = t[boiling] if t.ndim else t
         notes.append(
-            f"the liquid boils at {np.min(at) - 273.15:.1f} degC and {p_total / 1000:.1f} kPa "
-            "or above: the vapour pressure reaches the pressure of the space, which then "
-            "holds essentially pure vapour (air displaced)")
+            f"at {np.min(at) - 273.15:.1f} degC{' and above' if t.ndim else ''} the liquid "
+            f"is at or above its boiling point at {p_total / 1000:.1f} kPa: the vapour "
+            "pressure reaches the pressure of the space, which then holds essentially pure "
+            "vapour (air displaced)")
     molar = liq.molar_masses.reshape((-1,) + (1,) * t.ndim)
     conc = y * p_total * molar / (GAS_CONSTANT * t)
     lfl = np.array([c.lower_flammability_limit if c.lower_flammability_limit else np.nan

@@ -72,6 +72,11 @@ def write_text_atomic(path, text: str) -> None:
     """
     target = Path(path)
     folder = target.parent if str(target.parent) else Path(".")
+    if not folder.is_dir():
+        from .errors import InputError
+
+        raise InputError("output", f"the folder {str(folder)!r} does not exist; create it or "
+                         "choose another place to write")
     fd, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=folder)
     try:
         with os.fdopen(fd, "w", encoding="utf-8", newline="") as handle:

@@ -254,7 +254,12 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         return hs
 
     hs = evaluate(t)
-    worst = evaluate(worst_t) if worst_t is not None else None
+    worst = None
+    if worst_t is not None:
+        try:
+            worst = evaluate(worst_t)
+        except UllageError as exc:
+            notes.append(f"worst case at {worst_t - 273.15:.1f} degC not computed: {exc}")
     limits = scenario.limits
     comparisons = tuple(compare(_concentrations(hs), limits))
     worst_comparisons = tuple(compare(_concentrations(worst), limits)) if worst else ()

@@ -107,7 +107,7 @@ def test_boiling_is_reported():
     hs = headspace("acetone", 335.0)
     assert bool(hs.boiling)
     assert float(hs.total_volume_fraction) == pytest.approx(1.0)
-    assert any("boils" in w for w in hs.warnings)
+    assert any("boiling point" in w for w in hs.warnings)
 
 
 def test_sweep_shapes():

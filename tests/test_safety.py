@@ -118,3 +118,12 @@ def test_root_finding_failure_is_a_clear_error(monkeypatch):
     monkeypatch.setattr(scipy.optimize, "brentq", stuck)
     with pytest.raises(OutOfRangeError, match="not found within 200 iterations"):
         temperature_for_concentration("toluene", 0.01)
+
+
+def test_output_to_a_missing_folder_is_a_clear_error(capsys, tmp_path):
+    """Writing a report into a folder that does not exist names the folder, no temp file."""
+    target = tmp_path / "nowhere" / "report.html"
+    code = cli.main(["run", str(ROOT / "scenarios" / "sump-dissolved-solvent.toml"), "-o",
+                     str(target)])
+    err = capsys.readouterr().err
+    assert code == 2 and "does not exist" in err and ".part" not in err
