@@ -223,6 +223,26 @@ def _legend_rows(labels: list[str], usable: float, font: float) -> list[list[tup
     return rows
 
 
+
+def _legend(out: list, rows, left: float, legend_top: float, font: float) -> None:
+    """Append the legend: one sample line and label per series, rows as laid out."""
+    out.append(f'<g font-size="{font:g}" fill="#1a1a1a">')
+    index = 0
+    for r, row in enumerate(rows):
+        x0 = left
+        y0 = legend_top + 18.0 * r
+        for label, w in row:
+            colour_k, dash_k = SERIES_STYLES[index % len(SERIES_STYLES)]
+            dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
+            out.append(f'<line x1="{_coordinate(x0)}" y1="{_coordinate(y0 - 4)}" '
+                       f'x2="{_coordinate(x0 + 28)}" y2="{_coordinate(y0 - 4)}" '
+                       f'stroke="{colour_k}" stroke-width="2.2"{dash_attr}/>')
+            out.append(f'<text x="{_coordinate(x0 + 34)}" y="{_coordinate(y0)}">'
+                       f"{_text(label)}</text>")
+            x0 += w
+            index += 1
+    out.append("</g>")
+
 def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
                   hlines: dict | None = None, log_y: bool = False, width: int = 720,
                   height: int = 360) -> str:
@@ -447,24 +467,7 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
                    f"<title>{_text(label)}</title></path>")
     out.append("</g>")
 
-    # legend
-    out.append(f'<g font-size="{font:g}" fill="#1a1a1a">')
-    legend_top = top + plot_h + 52.0
-    index = 0
-    for r, row in enumerate(rows):
-        x0 = left
-        y0 = legend_top + 18.0 * r
-        for label, w in row:
-            colour_k, dash_k = SERIES_STYLES[index % len(SERIES_STYLES)]
-            dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
-            out.append(f'<line x1="{_coordinate(x0)}" y1="{_coordinate(y0 - 4)}" '
-                       f'x2="{_coordinate(x0 + 28)}" y2="{_coordinate(y0 - 4)}" '
-                       f'stroke="{colour_k}" stroke-width="2.2"{dash_attr}/>')
-            out.append(f'<text x="{_coordinate(x0 + 34)}" y="{_coordinate(y0)}">'
-                       f"{_text(label)}</text>")
-            x0 += w
-            index += 1
-    out.append("</g>")
+    _legend(out, rows, left, top + plot_h + 52.0, font)
     if note:
         out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
                    f'y="{_coordinate(top + plot_h / 2)}" text-anchor="middle" '
@@ -790,24 +793,7 @@ def cumulative_plot_svg(samples: dict, *, x_label: str, title: str,
                    f"<title>{_text(label)}</title></path>")
     out.append("</g>")
 
-    # legend
-    out.append(f'<g font-size="{font:g}" fill="#1a1a1a">')
-    legend_top = top + plot_h + 52.0
-    index = 0
-    for r, row in enumerate(rows):
-        x0 = left
-        y0 = legend_top + 18.0 * r
-        for label, w in row:
-            colour_k, dash_k = SERIES_STYLES[index % len(SERIES_STYLES)]
-            dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
-            out.append(f'<line x1="{_coordinate(x0)}" y1="{_coordinate(y0 - 4)}" '
-                       f'x2="{_coordinate(x0 + 28)}" y2="{_coordinate(y0 - 4)}" '
-                       f'stroke="{colour_k}" stroke-width="2.2"{dash_attr}/>')
-            out.append(f'<text x="{_coordinate(x0 + 34)}" y="{_coordinate(y0)}">'
-                       f"{_text(label)}</text>")
-            x0 += w
-            index += 1
-    out.append("</g>")
+    _legend(out, rows, left, top + plot_h + 52.0, font)
     for i, note in enumerate(notes):
         out.append(f'<text x="{_coordinate(left + 8)}" y="{_coordinate(top + 16 + 15 * i)}" '
                    f'fill="#555555">{_text(note)}</text>')
