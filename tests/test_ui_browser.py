@@ -69,7 +69,9 @@ def _wait_for(url: str, process, log_path: Path) -> None:
 
 
 def _metric_text(page) -> str:
-    return page.locator('[data-testid="stMetricValue"]').first.inner_text().strip()
+    """The value of the headspace tile (found by its label, not by position)."""
+    tile = page.locator('[data-testid="stMetric"]').filter(has_text="Headspace, all vapour")
+    return tile.first.locator('[data-testid="stMetricValue"]').inner_text().strip()
 
 
 def test_temperature_change_and_report_download():
@@ -102,7 +104,8 @@ def test_temperature_change_and_report_download():
                     box.press("Enter")
                     deadline = time.monotonic() + STEP_TIMEOUT_MS / 1000
                     after = before
-                    while after == before and time.monotonic() < deadline:
+                    while ((after == before or not after.endswith("ppm"))
+                           and time.monotonic() < deadline):
                         page.wait_for_timeout(200)
                         after = _metric_text(page)
                     assert after != before, "the headspace did not change"
