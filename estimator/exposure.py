@@ -32,6 +32,8 @@ __all__ = [
     "first_time_above",
     "last_time_above",
     "time_back_below",
+    "ZoneFlammability",
+    "zone_flammability",
 ]
 
 
@@ -498,3 +500,134 @@ def time_back_below(times, concentrations, threshold, after=None):
     tail_c = np.concatenate(([level], c[later]))
     crossings = _downward_crossings(tail_t, tail_c, x)
     return float(crossings[0]) if crossings.size else None
+
+
+@dataclass(frozen=True)
+class ZoneFlammability:
+    """Flammability and oxygen verdicts of one air zone over a run.
+
+    Times are from the start of the series [s]; None where the event never
+    happens within it.
+
+    Attributes
+    ----------
+    zone : str
+        "room", "near field" or "far field".
+    judged : bool
+        False when no component has an LFL on record: the %LFL figures are then
+        None and the vapour is not judged (it may still burn).
+    peak_percent_lfl, peak_time : float or None
+        Highest % of the LFL and when it first occurs. [%], [s]
+    above_alarm_from, back_below_alarm : float or None
+        When the air first passes the LFL alarm level, and when it last falls back
+        to it (None if it is still above at the end). [s]
+    above_lfl_from, back_below_lfl : float or None
+        The same for 100 % of the LFL. [s]
+    rich_from, back_below_ufl : float or None
+        The same for the UFL (too rich to burn above it; flammable again as it
+        dilutes). [s]
+    lowest_oxygen, lowest_oxygen_time : float
+        [% by volume], [s]
+    below_oxygen_alarm_from, back_above_oxygen_alarm : float or None
+        When oxygen first falls below the low-oxygen alarm, and when it is last
+        back at or above it. [s]
+    alarm_percent_lfl, oxygen_alarm : float
+        The alarm levels used. [% of LFL], [% oxygen]
+    times, percent_lfl, oxygen_percent : numpy.ndarray
+        The series judged, for plots. [s], [% of LFL], [% oxygen]
+    """
+
+    zone: str
+    judged: bool
+    peak_percent_lfl: float | None
+    peak_time: float | None
+    above_alarm_from: float | None
+    back_below_alarm: float | None
+    above_lfl_from: float | None
+    back_below_lfl: float | None
+    rich_from: float | None
+    back_below_ufl: float | None
+    lowest_oxygen: float
+    lowest_oxygen_time: float
+    below_oxygen_alarm_from: float | None
+    back_above_oxygen_alarm: float | None
+    alarm_percent_lfl: float
+    oxygen_alarm: float
+    times: np.ndarray = None
+    percent_lfl: np.ndarray = None
+    oxygen_percent: np.ndarray = None
+
+
+def _episode(t, c, threshold):
+    """(first rise above, last fall back to) a threshold; None where it does not happen."""
+    first = first_time_above(t, c, threshold)
+    if first is None:
+        return None, None
+    if c[-1] > threshold:
+        return first, None
+    return first, last_time_above(t, c, threshold)
+
+
+def zone_flammability(zone, times, percent_lfl, oxygen_percent, *, judged=True,
+                      percent_ufl=None, alarm_percent_lfl=10.0,
+                      oxygen_alarm=19.5) -> ZoneFlammability:
+    """When the air of one zone passes the LFL alarm, the LFL and the oxygen alarm.
+
+    Series are linear between samples, as for the exposure metrics.
+
+    Parameters
+    ----------
+    zone : str
+        Name of the zone, for reports.
+    times : array_like
+        Sample times. [s]
+    percent_lfl : array_like
+        Fuel vapour as % of the mixture LFL at each time. [%]
+    oxygen_percent : array_like
+        Oxygen at each time. [% by volume]
+    judged : bool
+        Whether any component has an LFL on record.
+    percent_ufl : array_like, optional
+        Fuel vapour as % of the mixture UFL at each time (above 100 the air is too
+        rich to burn). [%]
+    alarm_percent_lfl : float
+        LFL alarm level, 10 % by default (US OSHA 29 CFR 1910.146(b)). [% of LFL]
+    oxygen_alarm : float
+        Low-oxygen alarm, 19.5 % by default (US OSHA 29 CFR 1910.146(b)). [%]
+
+    Returns
+    -------
+    ZoneFlammability
+
+    Examples
+    --------
+    >>> z = zone_flammability("room", [0.0, 60.0, 120.0, 180.0], [0.0, 50.0, 150.0, 5.0],
+    ...                       [20.9, 20.7, 20.5, 20.9])
+    >>> z.above_alarm_from, z.above_lfl_from, round(z.back_below_lfl, 1)
+    (12.0, 90.0, 140.7)
+    """
+    t, pl = _series(times, percent_lfl)
+    _, ox = _series(times, oxygen_percent)
+    lowest = int(np.argmin(ox))
+    below_from, back_above = _episode(t, 100.0 - ox, 100.0 - float(oxygen_alarm))
+    common = dict(zone=zone, lowest_oxygen=float(ox[lowest]),
+                  lowest_oxygen_time=float(t[lowest]), below_oxygen_alarm_from=below_from,
+                  back_above_oxygen_alarm=back_above,
+                  alarm_percent_lfl=float(alarm_percent_lfl), oxygen_alarm=float(oxygen_alarm),
+                  times=t, percent_lfl=pl if judged else None, oxygen_percent=ox)
+    if not judged:
+        return ZoneFlammability(judged=False, peak_percent_lfl=None, peak_time=None,
+                                above_alarm_from=None, back_below_alarm=None,
+                                above_lfl_from=None, back_below_lfl=None, rich_from=None,
+                                back_below_ufl=None, **common)
+    top = peak(t, pl)
+    alarm_from, alarm_back = _episode(t, pl, float(alarm_percent_lfl))
+    lfl_from, lfl_back = _episode(t, pl, 100.0)
+    rich_from = rich_back = None
+    if percent_ufl is not None:
+        _, pu = _series(times, percent_ufl)
+        rich_from, rich_back = _episode(t, pu, 100.0)
+    return ZoneFlammability(judged=True, peak_percent_lfl=top.value, peak_time=top.time,
+                            above_alarm_from=alarm_from, back_below_alarm=alarm_back,
+                            above_lfl_from=lfl_from, back_below_lfl=lfl_back,
+                            rich_from=rich_from, back_below_ufl=rich_back, **common)

@@ -36,6 +36,9 @@ __all__ = [
     "barometric_pressure",
     "site_pressure",
     "le_chatelier",
+    "component_limits",
+    "air_flammability",
+    "AirFlammability",
     "FLAMMABILITY_STATES",
 ]
 
@@ -170,6 +173,115 @@ def le_chatelier(volume_fractions, limits):
     weighted = np.sum(np.where(fuel, y / np.where(fuel, lim, 1.0), 0.0), axis=0)
     with np.errstate(invalid="ignore", divide="ignore"):
         return np.where(weighted > 0, fuel_total / weighted, np.nan)
+
+
+def component_limits(components) -> tuple[np.ndarray, np.ndarray]:
+    """Lower and upper flammability limits of each component, NaN where none is on record.
+
+    Returns
+    -------
+    (numpy.ndarray, numpy.ndarray)
+        LFLs and UFLs, shape (n,). [volume fraction]
+    """
+    lfl = np.array([c.lower_flammability_limit or np.nan for c in components], dtype=float)
+    ufl = np.array([c.upper_flammability_limit or np.nan for c in components], dtype=float)
+    return lfl, ufl
+
+
+@dataclass(frozen=True)
+class AirFlammability:
+    """Flammability and oxygen of vapour mixed into air.
+
+    Arrays have the shape of the volume fractions without their first
+    (component) axis.
+
+    Attributes
+    ----------
+    percent_lfl : numpy.ndarray
+        Fuel vapour as a percentage of the mixture's LFL (Le Chatelier); 0 where
+        no fuel is present or no component has an LFL on record (see `judged`). [%]
+    state : numpy.ndarray of str
+        Keys of `FLAMMABILITY_STATES`.
+    oxygen_percent : numpy.ndarray
+        Oxygen left after the vapour displaces air, never below 0. [% by volume]
+    percent_ufl : numpy.ndarray
+        Fuel vapour as a percentage of the mixture's UFL; NaN where no UFL is on
+        record; above 100 the air is too rich to burn. [%]
+    lfl_mixture, ufl_mixture : numpy.ndarray
+        Le Chatelier limits of the fuel mix, NaN without fuel. [volume fraction]
+    judged : bool
+        Whether any component has an LFL on record.
+    ufl_missing : bool
+        Whether a component with an LFL has no UFL (the rich state cannot be judged).
+    """
+
+    percent_lfl: np.ndarray
+    state: np.ndarray
+    oxygen_percent: np.ndarray
+    percent_ufl: np.ndarray
+    lfl_mixture: np.ndarray
+    ufl_mixture: np.ndarray
+    judged: bool
+    ufl_missing: bool
+
+
+def air_flammability(volume_fractions, limits) -> AirFlammability:
+    """% of the LFL, flammable state and oxygen of vapour in air.
+
+    Le Chatelier's rule on a fuel-only basis gives the mixture's limits; the
+    state is lean below the LFL, rich above the UFL and flammable between; the
+    oxygen is that of fresh air (20.9 %, the meter convention) times the share
+    of air left, 20.9 × (1 − Σ y).
+
+    Parameters
+    ----------
+    volume_fractions : array_like
+        Per component, shape (n, ...). [volume fraction]
+    limits : tuple of array_like
+        (LFLs, UFLs) of the components, shape (n,), NaN where none is on record
+        (`component_limits`). [volume fraction]
+
+    Returns
+    -------
+    AirFlammability
+
+    References
+    ----------
+    Le Chatelier (1891); Mashuga & Crowl (2000), Process Safety Progress 19(2),
+    112-117. Oxygen by displacement: common practice.
+
+    Examples
+    --------
+    Half a percent each of toluene (LFL 1.1 %) and acetone (LFL 2.5 %):
+
+    >>> air = air_flammability([0.005, 0.005], ([0.011, 0.025], [0.071, 0.13]))
+    >>> round(float(air.percent_lfl), 1), str(air.state), round(float(air.oxygen_percent), 2)
+    (65.5, 'lean', 20.69)
+    """
+    y = np.asarray(volume_fractions, dtype=float)
+    lfl = np.asarray(limits[0], dtype=float)
+    ufl = np.asarray(limits[1], dtype=float)
+    lfl_mix = le_chatelier(y, lfl)
+    ufl_mix = le_chatelier(y, ufl)
+    has_lfl = np.isfinite(lfl)
+    fuel = np.sum(np.where(has_lfl.reshape((-1,) + (1,) * (y.ndim - 1)), y, 0.0), axis=0)
+    judged = bool(np.any(has_lfl))
+    with np.errstate(invalid="ignore", divide="ignore"):
+        percent = np.where(np.isfinite(lfl_mix), 100.0 * fuel / lfl_mix, 0.0)
+        percent_ufl = np.where(np.isfinite(ufl_mix), 100.0 * fuel / ufl_mix,
+                               np.where(fuel > 0, np.nan, 0.0))
+        state = np.where(~np.isfinite(lfl_mix), "none" if not judged else "lean",
+                         np.where(fuel < lfl_mix, "lean",
+                                  np.where(np.isfinite(ufl_mix) & (fuel > ufl_mix),
+                                           "rich", "flammable")))
+    if not judged:
+        state = np.full(np.shape(fuel), "none")
+    oxygen = np.clip(100.0 * OXYGEN_IN_AIR * (1.0 - y.sum(axis=0)), 0.0, None)
+    return AirFlammability(
+        percent_lfl=percent, state=state, oxygen_percent=oxygen, percent_ufl=percent_ufl,
+        lfl_mixture=lfl_mix,
+        ufl_mixture=ufl_mix, judged=judged,
+        ufl_missing=bool(np.any(has_lfl & ~np.isfinite(ufl))))
 
 
 @dataclass(frozen=True)
@@ -326,20 +438,8 @@ def _assemble(liq: Liquid, temperature, p_total: float, p_sat, p_i, estimates,
             "vapour (air displaced)")
     molar = liq.molar_masses.reshape((-1,) + (1,) * t.ndim)
     conc = y * p_total * molar / (GAS_CONSTANT * t)
-    lfl = np.array([c.lower_flammability_limit if c.lower_flammability_limit else np.nan
-                    for c in liq.components])
-    ufl = np.array([c.upper_flammability_limit if c.upper_flammability_limit else np.nan
-                    for c in liq.components])
-    lfl_mix = le_chatelier(y, lfl)
-    ufl_mix = le_chatelier(y, ufl)
-    fuel = np.sum(np.where(np.isfinite(lfl).reshape(molar.shape), y, 0.0), axis=0)
-    with np.errstate(invalid="ignore"):
-        percent = np.where(np.isfinite(lfl_mix), 100.0 * fuel / lfl_mix, 0.0)
-        state = np.where(~np.isfinite(lfl_mix), "none",
-                         np.where(fuel < lfl_mix, "lean",
-                                  np.where(np.isfinite(ufl_mix) & (fuel > ufl_mix),
-                                           "rich", "flammable")))
-    if np.any(np.isfinite(lfl)) and np.any(~np.isfinite(ufl[np.isfinite(lfl)])):
+    air = air_flammability(y, component_limits(liq.components))
+    if air.ufl_missing:
         notes.append("an upper flammability limit is missing for a flammable component; "
                      "the too-rich state cannot be judged for it")
     uncertainties = [e.relative_uncertainty for e in estimates
@@ -353,12 +453,12 @@ def _assemble(liq: Liquid, temperature, p_total: float, p_sat, p_i, estimates,
         volume_fractions=y,
         total_volume_fraction=_scalar(y_total),
         mass_concentrations=conc,
-        lfl_mixture=_scalar(lfl_mix),
-        ufl_mixture=_scalar(ufl_mix),
-        percent_lfl=_scalar(percent),
-        oxygen_percent=_scalar(100.0 * OXYGEN_IN_AIR * (1.0 - y_total)),
+        lfl_mixture=_scalar(air.lfl_mixture),
+        ufl_mixture=_scalar(air.ufl_mixture),
+        percent_lfl=_scalar(air.percent_lfl),
+        oxygen_percent=_scalar(air.oxygen_percent),
         boiling=boiling,
-        flammability=state,
+        flammability=air.state,
         vapor_pressure_methods=tuple(estimates),
         relative_uncertainty=max(uncertainties) if uncertainties else None,
         warnings=tuple(dict.fromkeys(notes)),

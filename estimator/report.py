@@ -392,6 +392,17 @@ def _spill_plots(result, index, spill) -> list:
                 "exposure limits (dashed).", minutes, group, hlines,
                 x_label="time after the spill [min]", y_label="concentration [ppm by volume]",
                 title=f"Spill {spill.name}: concentration by time"))
+        judged = [z for z in spill.flammability if z.judged and z.percent_lfl is not None]
+        if judged:
+            alarm = judged[0].alarm_percent_lfl
+            lines = {f"LFL alarm ({alarm:g} % of the LFL)": alarm, "LFL (100 %)": 100.0}
+            out.append(_plot(
+                f"{stem}-percent-lfl-time", f"Spill {spill.name}: vapour as % of the LFL "
+                f"against time in {spill.where}, with the LFL alarm and the LFL (dashed).",
+                np.asarray(judged[0].times, dtype=float) / 60.0,
+                {z.zone: np.asarray(z.percent_lfl, dtype=float) for z in judged}, lines,
+                x_label="time after the spill [min]", y_label="% of the LFL",
+                title=f"Spill {spill.name}: % of the LFL by time"))
     if spill.outdoor is not None:
         od = spill.outdoor
         names = list(od.components)
@@ -880,6 +891,22 @@ def _tank_blocks(result, index, tank) -> list:
     return b
 
 
+def _flammability_row(z) -> list:
+    if not z.judged:
+        lfl = ["not judged: no LFL on record"] + [_NOT_SHOWN] * 5
+    else:
+        never = "never"
+        lfl = [_n(z.peak_percent_lfl), _minutes(z.peak_time),
+               _minutes(z.above_alarm_from, never),
+               _NOT_SHOWN if z.above_alarm_from is None else _minutes(z.back_below_alarm,
+                                                                      "not within the run"),
+               _minutes(z.above_lfl_from, never),
+               _NOT_SHOWN if z.above_lfl_from is None else _minutes(z.back_below_lfl,
+                                                                    "not within the run")]
+    return [z.zone, *lfl, f"{z.lowest_oxygen:.3g}",
+            _minutes(z.below_oxygen_alarm_from, "never")]
+
+
 def _spill_blocks(result, spill) -> list:
     b: list = [_Heading(3, f"Spill {spill.name} ({spill.liquid}, {spill.where})")]
     spec = _spill_input(result, spill)
@@ -904,6 +931,14 @@ def _spill_blocks(result, spill) -> list:
         rows.append(["Mass balance error", f"{ind.mass_balance_error:.2g}",
                      "largest |pool + air + ventilated − spilled| / spilled"])
     b.append(_Table(["quantity", "value", "note"], rows))
+    if spill.flammability:
+        b.append(_Para("Flammability and oxygen by zone (% of the LFL by Le Chatelier's rule "
+                       "over the components in the air; oxygen by displacement):"))
+        b.append(_Table(["zone", "highest % LFL", "at", "above the LFL alarm from",
+                         "back below the alarm", "above the LFL from", "back below the LFL",
+                         "lowest oxygen %", "below the oxygen alarm from"],
+                        [_flammability_row(z) for z in spill.flammability],
+                        numeric=(1, 2, 3, 4, 5, 6, 7, 8)))
     if spill.exposures:
         rows, cmp_rows = [], []
         for e in spill.exposures:
@@ -1302,6 +1337,21 @@ def _tank_dict(result, tank) -> dict:
     return out
 
 
+def _flammability_dict(z) -> dict:
+    """One zone's flammability verdicts; the first nine keys are a promise to scripts."""
+    return {
+        "zone": z.zone, "peak_percent_lfl": z.peak_percent_lfl, "peak_time_s": z.peak_time,
+        "above_alarm_from_s": z.above_alarm_from, "back_below_alarm_s": z.back_below_alarm,
+        "above_lfl_from_s": z.above_lfl_from, "back_below_lfl_s": z.back_below_lfl,
+        "lowest_oxygen_percent": z.lowest_oxygen,
+        "below_oxygen_alarm_from_s": z.below_oxygen_alarm_from,
+        "judged": z.judged, "lowest_oxygen_time_s": z.lowest_oxygen_time,
+        "back_above_oxygen_alarm_s": z.back_above_oxygen_alarm,
+        "above_ufl_from_s": z.rich_from, "back_below_ufl_s": z.back_below_ufl,
+        "alarm_percent_lfl": z.alarm_percent_lfl, "oxygen_alarm_percent": z.oxygen_alarm,
+    }
+
+
 def _spill_dict(result, spill) -> dict:
     spec = _spill_input(result, spill)
     run = spill.indoor or spill.outdoor
@@ -1347,6 +1397,7 @@ def _spill_dict(result, spill) -> dict:
             "distances_m": np.asarray(od.distances, dtype=float),
             "centreline": {k: {"volume_fraction": y[:, j], "ppm": y[:, j] * 1e6,
                                "concentration_kg_per_m3": c[:, j]} for j, k in enumerate(keys)}}
+    out["flammability"] = [_flammability_dict(z) for z in spill.flammability]
     out["exposures"] = [{
         "zone": e.zone, "substance": e.substance, "peak_ppm": e.peak,
         "peak_time_s": e.peak_time, "twa_8h_ppm": e.twa, "highest_15min_ppm": e.short_term,
@@ -1591,6 +1642,30 @@ def results_csv(result, *, generated_at=None) -> str:
                     value=ind.source_removed_time, unit="s")
             row(item, "evaporation", quantity="mass balance error",
                 value=ind.mass_balance_error, unit="1")
+        for z in spill.flammability:
+            alarm = f"alarm {al.percent_lfl:g} % LFL"
+            if z.judged:
+                row(item, "flammability", z.zone, "all vapour", "highest % of LFL",
+                    z.peak_percent_lfl, "%", alarm, al.source,
+                    z.peak_percent_lfl / al.percent_lfl, note=f"at {z.peak_time:.0f} s")
+                for quantity, value, limit in (
+                        ("above the LFL alarm from", z.above_alarm_from, alarm),
+                        ("back below the LFL alarm", z.back_below_alarm, alarm),
+                        ("above the LFL from", z.above_lfl_from, "100 % LFL"),
+                        ("back below the LFL", z.back_below_lfl, "100 % LFL")):
+                    if value is not None:
+                        row(item, "flammability", z.zone, "all vapour", quantity, value, "s",
+                            limit, al.source)
+            else:
+                row(item, "flammability", z.zone, "all vapour", "% of LFL",
+                    note="not judged: no component has a flammability limit on record")
+            row(item, "flammability", z.zone, "all vapour", "lowest oxygen", z.lowest_oxygen,
+                "%", f"oxygen alarm {al.oxygen_low:g} %", al.source,
+                note=f"at {z.lowest_oxygen_time:.0f} s")
+            if z.below_oxygen_alarm_from is not None:
+                row(item, "flammability", z.zone, "all vapour", "below the oxygen alarm from",
+                    z.below_oxygen_alarm_from, "s", f"oxygen alarm {al.oxygen_low:g} %",
+                    al.source)
         for e in spill.exposures:
             row(item, "exposure", e.zone, e.substance, "peak", e.peak, "ppm")
             row(item, "exposure", e.zone, e.substance, "peak time", e.peak_time, "s")

@@ -156,6 +156,8 @@ class SpillResult:
     distances : tuple of (limit label, distance [m] or None, note)
         Outdoors: how far the centreline stays above each limit.
     findings, warnings : tuple of str
+    flammability : tuple of ZoneFlammability
+        Indoors: % LFL, flammable state and oxygen of each zone's air over the run.
     """
 
     name: str
@@ -169,10 +171,14 @@ class SpillResult:
     findings: tuple[str, ...]
     warnings: tuple[str, ...]
     monte_carlo: object = None
+    flammability: tuple = ()
 
     @property
     def exceeded(self) -> bool:
         if any(ratio > 1 for e in self.exposures for _, _, ratio, _, _ in e.comparisons):
+            return True
+        if any(z.above_alarm_from is not None or z.below_oxygen_alarm_from is not None
+               for z in self.flammability):
             return True
         return any(d is None or (d or 0) > 0 for _, d, _ in self.distances)
 
@@ -391,6 +397,89 @@ def _zone_exposure(zone, key, times, ppm, limits, shift) -> ZoneExposure:
                         twa_lower_bound=covered < shift.duration - 1e-6)
 
 
+def _zone_flammability(indoor, zone, label, liq, alarms):
+    """% LFL, flammable state and oxygen of one zone of an indoor spill, over the run."""
+    from .exposure import zone_flammability
+    from .headspace import air_flammability, component_limits
+
+    air = air_flammability(indoor.volume_fraction(zone).T, component_limits(liq.components))
+    return zone_flammability(
+        label, indoor.times, air.percent_lfl, air.oxygen_percent, judged=air.judged,
+        percent_ufl=None if air.ufl_missing or not air.judged else air.percent_ufl,
+        alarm_percent_lfl=alarms.percent_lfl, oxygen_alarm=alarms.oxygen_low)
+
+
+def format_duration(seconds) -> str:
+    """A time from the spill as people read it: "40 s", "12 min", "3 h 20 min"."""
+    s = float(seconds)
+    if s < 60:
+        return f"{s:.0f} s"
+    minutes = round(s / 60.0)
+    if minutes < 120:
+        return f"{minutes} min"
+    hours, rest = divmod(minutes, 60)
+    return f"{hours} h {rest} min" if rest else f"{hours} h"
+
+
+_ZONE_WORDS = {"room": "The room air", "near field": "The air near the pool (near field)",
+               "far field": "The air of the rest of the room (far field)"}
+
+
+def _flammability_findings(zones, end) -> list[str]:
+    """Flammability and oxygen verdicts in plain words, worst zone first."""
+    out = []
+    for z in zones:
+        who = _ZONE_WORDS.get(z.zone, z.zone)
+        if not z.judged:
+            out.append(f"{who}: flammability not judged: no component has a flammability "
+                       "limit on record (it may still burn); enter the LFL from the safety "
+                       "data sheet.")
+        elif z.above_alarm_from is None:
+            out.append(f"{who} stays below the {z.alarm_percent_lfl:g} % LFL alarm (highest "
+                       f"{z.peak_percent_lfl:.3g} % of the LFL, at "
+                       f"{format_duration(z.peak_time)}).")
+        else:
+            text = (f"{who} passes {z.alarm_percent_lfl:g} % of the LFL at "
+                    f"{format_duration(z.above_alarm_from)} and ")
+            text += (f"stays above it until {format_duration(z.back_below_alarm)}"
+                     if z.back_below_alarm is not None
+                     else f"is still above it at the end of the run "
+                          f"({format_duration(end)})")
+            if z.above_lfl_from is not None:
+                until = (f"to {format_duration(z.back_below_lfl)}" if z.back_below_lfl
+                         is not None else "to the end of the run")
+                text += (f"; it is within the flammable range from "
+                         f"{format_duration(z.above_lfl_from)} {until}")
+                if z.rich_from is not None:
+                    back = (f"to {format_duration(z.back_below_ufl)}"
+                            if z.back_below_ufl is not None else "to the end of the run")
+                    text += (f" (above the UFL, too rich to burn but flammable again as it "
+                             f"dilutes, from {format_duration(z.rich_from)} {back})")
+            text += (f"; highest {z.peak_percent_lfl:,.3g} % of the LFL at "
+                     f"{format_duration(z.peak_time)}.")
+            if z.above_lfl_from is not None:
+                text += (" Remove ignition sources, keep people out, ventilate from a safe "
+                         "place and measure with a calibrated combustible-gas meter before "
+                         "anyone goes in.")
+            else:
+                text += (" Control ignition sources and measure with a calibrated "
+                         "combustible-gas meter before work goes on.")
+            out.append(text)
+        if z.below_oxygen_alarm_from is not None:
+            back = (f", back above it at {format_duration(z.back_above_oxygen_alarm)}"
+                    if z.back_above_oxygen_alarm is not None else
+                    ", not back above it within the run")
+            out.append(f"{who}: oxygen falls below the {z.oxygen_alarm:g} % alarm at "
+                       f"{format_duration(z.below_oxygen_alarm_from)}{back} (lowest "
+                       f"{z.lowest_oxygen:.3g} % at {format_duration(z.lowest_oxygen_time)}): "
+                       "oxygen-deficient; nobody enters without measurement and "
+                       "supplied-air protection.")
+        else:
+            out.append(f"{who}: oxygen stays above the {z.oxygen_alarm:g} % alarm (lowest "
+                       f"{z.lowest_oxygen:.3g} %).")
+    return out
+
+
 def _spill(scenario: Scenario, spill: dict) -> SpillResult:
     from .evaporation import mixture_evaporation_rates
     from .spill import indoor_spill, outdoor_spill
@@ -406,6 +495,7 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
     findings: list[str] = []
     exposures = []
     distances = []
+    flammability = []
     indoor = outdoor = None
     with warnings.catch_warnings(record=True) as caught:
         warnings.simplefilter("always")
@@ -431,6 +521,9 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
             zones = [("room", "far field" if two_zone else "room")]
             if two_zone:
                 zones.insert(0, ("near_field", "near field"))
+            flammability = [_zone_flammability(indoor, zone, label, liq, scenario.alarms)
+                            for zone, label in zones]
+            findings.extend(_flammability_findings(flammability, indoor.times[-1]))
             for zone, label in zones:
                 ppm = indoor.ppm(zone)
                 for j, c in enumerate(liq.components):
@@ -535,7 +628,7 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
         name=spill["name"], liquid=spill["liquid"], where=spill.get("room") or "outdoors",
         indoor=indoor, outdoor=outdoor, initial_rates=rates, exposures=tuple(exposures),
         distances=tuple(distances), findings=tuple(findings),
-        warnings=tuple(dict.fromkeys(notes)))
+        warnings=tuple(dict.fromkeys(notes)), flammability=tuple(flammability))
 
 
 def _density(liq) -> float:
