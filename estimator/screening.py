@@ -699,7 +699,7 @@ def _spill_monte_carlo(scenario, spill, result):
         inputs.get("mixing_factor", room["mixing_factor"]), inputs.get("mass", mass),
         scenario.limits, duration=spill["duration"], n=mc["samples"], seed=mc["seed"],
         include_method_uncertainty=mc["method_uncertainty"], pressure=scenario.pressure,
-        source_removed_at=spill.get("cleanup_after"))
+        source_removed_at=spill.get("cleanup_after"), lfl_alarm=scenario.alarms.percent_lfl)
 
 
 def _with_monte_carlo(result, mc, notes=()):

@@ -1212,7 +1212,7 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
                              duration=EIGHT_HOUR_SHIFT, n=10_000, seed=None,
                              include_method_uncertainty=True, *,
                              pressure=STANDARD_ATMOSPHERE,
-                             source_removed_at=None) -> MonteCarloResult:
+                             source_removed_at=None, lfl_alarm=10.0) -> MonteCarloResult:
     r"""A spill of pure liquid in a well-mixed room with uncertain inputs, by Monte Carlo.
 
     Pure liquids only (a mixture's pool changes composition as it weathers; use
@@ -1281,14 +1281,19 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
     source_removed_at : float, optional
         Time the pool is cleaned up, after which it no longer evaporates (the
         source ends at the earlier of this and the dry time). [s]
+    lfl_alarm : float
+        LFL alarm level the peak is compared with, 10 % by default (US OSHA 29
+        CFR 1910.146(b)). [% of LFL]
 
     Returns
     -------
     MonteCarloResult
         Outputs ``evaporation_rate`` [kg/s], ``pool_lifetime`` [s],
         ``peak_ppm``, ``twa_ppm``, ``short_term_ppm`` (highest 15-min average)
-        [ppm] and ``ratio to <limit label>`` [-]; exceedance of each limit
-        (ratio above 1).
+        [ppm], ``peak_percent_lfl`` [% of LFL] when the liquid has an LFL on
+        record, and ``ratio to <limit label>`` [-]; exceedance of each limit
+        (ratio above 1) and the probability that the peak reaches the LFL
+        alarm (``"<alarm> % LFL alarm"``).
 
     References
     ----------
@@ -1333,6 +1338,9 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
     period = _finite(duration, "duration")
     if period <= 0.0:
         raise InputError("duration", f"{period:g} s must be above 0")
+    alarm = _finite(lfl_alarm, "lfl_alarm")
+    if not 0.0 < alarm <= 100.0:
+        raise InputError("lfl_alarm", f"{alarm:g} must be above 0 and at most 100 % of the LFL")
     p_air = float(_check_pressures(np.asarray(_finite(pressure, "pressure")), "pressure"))
     limit_list = _limit_tuple(limits)
     if not isinstance(include_method_uncertainty, bool):
@@ -1407,6 +1415,13 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
     metric = {"TWA": "twa_ppm", "STEL": "short_term_ppm", "ceiling": "peak_ppm",
               "emergency": "peak_ppm"}
     exceedance = {}
+    if sub.lower_flammability_limit:
+        outputs["peak_percent_lfl"] = 100.0 * outputs["peak_ppm"] * 1e-6 / \
+            sub.lower_flammability_limit
+        units["peak_percent_lfl"] = "% LFL"
+    else:
+        notes.append(f"{sub.name} has no LFL on record: the peak is not compared with the "
+                     "LFL alarm (it may still burn; enter the LFL from the safety data sheet)")
     for lim, label in zip(limit_list, _unique_labels(limit_list)):
         if lim.substance != sub.key:
             notes.append(f"limit {label} is for {lim.substance}, not {sub.key}; it was "
@@ -1416,6 +1431,9 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
         outputs[f"ratio to {label}"] = ratio
         units[f"ratio to {label}"] = "-"
         exceedance[label] = float(np.mean(ratio > 1.0))
+    if "peak_percent_lfl" in outputs:
+        exceedance[f"{alarm:g} % LFL alarm"] = float(np.mean(
+            outputs["peak_percent_lfl"] >= alarm))
 
     capped = room.saturation_time < np.minimum(source_end, period)
     if np.any(capped):

@@ -167,3 +167,18 @@ def test_reports_and_summary_carry_the_flammability_figures(tmp_path, capsys):
     assert main(["run", str(path)]) == 0
     out = " ".join(capsys.readouterr().out.split())
     assert "passes 10 % of the LFL" in out and "within the flammable range from" in out
+
+
+def test_monte_carlo_gives_peak_percent_lfl_and_alarm_probability():
+    """The probabilistic indoor chain reports the percentiles of the peak % LFL and
+    the probability that the peak reaches the LFL alarm; acetone's LFL is 2.5 % by
+    volume (IEC 60079-20-1, from memory), so % LFL = ppm / 250."""
+    from estimator.uncertainty import Uniform, indoor_spill_monte_carlo
+
+    mc = indoor_spill_monte_carlo("acetone", 295.15, Uniform(1.0, 6.0), 0.15, 200.0, 0.1,
+                                  3.0, 20.0, n=2000, seed=5, lfl_alarm=10.0)
+    percent = mc.outputs["peak_percent_lfl"]
+    np.testing.assert_allclose(percent, mc.outputs["peak_ppm"] / 250.0, rtol=1e-9)
+    assert mc.exceedance["10 % LFL alarm"] == pytest.approx(float(np.mean(percent >= 10.0)))
+    assert 0.0 < mc.exceedance["10 % LFL alarm"] <= 1.0
+    assert mc.percentiles["peak_percent_lfl"][95] >= mc.percentiles["peak_percent_lfl"][50]
