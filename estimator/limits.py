@@ -30,6 +30,9 @@ __all__ = [
     "mg_per_m3_to_ppm",
     "compare",
     "additive_index",
+    "additive_terms",
+    "AdditiveIndex",
+    "LIMIT_CONVENTION",
     "vapor_hazard_ratio",
     "flammability_findings",
     "format_ppm",
@@ -111,9 +114,12 @@ class ExposureLimit:
     source : str
         Where the value comes from (jurisdiction, standard, company), required.
     volume_fraction : float
-        The limit as a volume fraction; a mg/m3 value is converted with the
-        24.45 L/mol convention (25 degC, 1 atm), as occupational limits are
-        defined. [-]
+        The limit as a volume fraction; a mg/m3 value is shown in ppm with the
+        24.45 L/mol convention (25 degC, 1 atm). Comparisons use
+        `volume_fraction_at`, which converts a mg/m3 value at the actual
+        temperature and pressure instead. [-]
+    molar_mass : float or None
+        Of the substance, for mg/m3 conversions. [kg/mol]
     """
 
     substance: str
@@ -122,10 +128,60 @@ class ExposureLimit:
     unit: str
     source: str
     volume_fraction: float
+    molar_mass: float | None = None
 
     @property
     def ppm(self) -> float:
+        """The limit in ppm (a mg/m3 value at the 24.45 L/mol convention). [ppm]"""
         return self.volume_fraction * 1e6
+
+    def volume_fraction_at(self, temperature=None, pressure=STANDARD_ATMOSPHERE):
+        """The volume fraction at which the air reaches this limit at given conditions.
+
+        A limit in ppm is a volume fraction at any temperature and pressure. A
+        limit in mg/m3 is a mass concentration: the air reaches it at the volume
+        fraction c R T / (P M) of the actual temperature and pressure, which is
+        the higher-ratio (conservative) reading in heat and at altitude. Without
+        a temperature the 24.45 L/mol convention is used.
+
+        Parameters
+        ----------
+        temperature : float or array_like, optional
+            Air temperature. [K]
+        pressure : float or array_like
+            Air pressure. [Pa]
+
+        Returns
+        -------
+        float or numpy.ndarray
+            [volume fraction]
+
+        Examples
+        --------
+        100 mg/m3 of toluene (92.14 g/mol) at 35 degC and 83.4 kPa (1600 m):
+
+        >>> lim = exposure_limit("toluene", "TWA", 100, "mg/m3", "illustrative")
+        >>> round(lim.volume_fraction_at(308.15, 83400.0) * 1e6, 1)
+        33.3
+        """
+        if self.unit == "ppm" or temperature is None or self.molar_mass is None:
+            if np.ndim(temperature) == 0:
+                return self.volume_fraction
+            return np.full(np.shape(temperature), self.volume_fraction)
+        t = np.asarray(temperature, dtype=float)
+        out = self.value * 1e-6 * GAS_CONSTANT * t / (np.asarray(pressure, dtype=float)
+                                                      * self.molar_mass)
+        return float(out) if out.ndim == 0 else out
+
+    def ppm_at(self, temperature=None, pressure=STANDARD_ATMOSPHERE):
+        """`volume_fraction_at` in ppm. [ppm]"""
+        return self.volume_fraction_at(temperature, pressure) * 1e6
+
+    def mass_concentration_at(self, temperature, pressure=STANDARD_ATMOSPHERE):
+        """The limit as a mass concentration at given conditions. [kg/m3]"""
+        if self.unit == "mg/m3":
+            return self.value * 1e-6
+        return self.volume_fraction * pressure * self.molar_mass / (GAS_CONSTANT * temperature)
 
     @property
     def label(self) -> str:
@@ -183,7 +239,15 @@ def exposure_limit(substance, kind: str, value, unit: str, source: str) -> Expos
     if fraction >= 1.0:
         raise InputError(f"{sub.name} {kind}", "the limit is above 100 % by volume; check "
                          "the value and unit")
-    return ExposureLimit(sub.key, kind, number, unit_key, source.strip(), fraction)
+    return ExposureLimit(sub.key, kind, number, unit_key, source.strip(), fraction,
+                         sub.molar_mass)
+
+#: How comparisons treat the unit of a limit, for reports.
+LIMIT_CONVENTION = (
+    "limits in ppm are compared with the volume fraction; limits in mg/m³ with the mass "
+    "concentration at the actual temperature and pressure (not first turned into ppm at "
+    "24.45 L/mol, the 25 °C, 1 atm convention, which is used only to show a mg/m³ limit "
+    "in ppm)")
 
 
 @dataclass(frozen=True)
@@ -233,8 +297,10 @@ class LimitComparison:
     def statement(self) -> str:
         lim = self.limit
         verb = "above" if self.exceeded else "below"
+        value = (f"{format_ppm(lim.ppm)} ppm" if lim.unit == "ppm"
+                 else f"{lim.value:g} mg/m³ (compared at the actual temperature and pressure)")
         return (f"{lim.substance} {format_ppm(self.concentration * 1e6)} ppm is "
-                f"{format_ratio(self.ratio)} the {lim.kind} of {format_ppm(lim.ppm)} ppm "
+                f"{format_ratio(self.ratio)} the {lim.kind} of {value} "
                 f"({lim.source}): {verb} it")
 
 
@@ -256,7 +322,8 @@ def format_ratio(ratio: float) -> str:
     return f"{r:.2g} of"
 
 
-def compare(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit]):
+def compare(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit],
+            temperature=None, pressure=STANDARD_ATMOSPHERE):
     """Ratio of each substance's concentration to each of its limits.
 
     Parameters
@@ -264,6 +331,9 @@ def compare(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit]
     concentrations : mapping
         Substance key -> concentration. [volume fraction]
     limits : iterable of ExposureLimit
+    temperature, pressure : float, optional
+        Conditions of the air, for limits entered in mg/m3 (see
+        `ExposureLimit.volume_fraction_at`). [K], [Pa]
 
     Returns
     -------
@@ -274,36 +344,100 @@ def compare(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit]
     for lim in limits:
         if lim.substance in concentrations:
             c = float(concentrations[lim.substance])
-            out.append(LimitComparison(lim, c, c / lim.volume_fraction))
+            out.append(LimitComparison(lim, c, c / lim.volume_fraction_at(temperature,
+                                                                           pressure)))
     return out
 
 
+@dataclass(frozen=True)
+class AdditiveIndex:
+    """Additive mixture exposure index and the limit each substance counted with.
+
+    Attributes
+    ----------
+    value : float
+        E = Σ C_i / L_i. [-]
+    kind : str
+        Kind of limit summed.
+    terms : tuple of (substance key, ExposureLimit, ratio)
+        One per substance: its lowest limit of the kind, and C_i / L_i.
+    """
+
+    value: float
+    kind: str
+    terms: tuple
+
+    @property
+    def statement(self) -> str:
+        used = "; ".join(f"{key} {_ratio_words(r)} its {lim.label}" for key, lim, r in
+                         self.terms)
+        return (f"additive index over {self.kind} limits {self.value:.3g} (each substance "
+                f"counted once, with its lowest {self.kind}: {used})")
+
+
+def _ratio_words(ratio: float) -> str:
+    return f"at {ratio:.3g} of"
+
+
+def additive_terms(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit],
+                   kind: str = "TWA", temperature=None,
+                   pressure=STANDARD_ATMOSPHERE) -> AdditiveIndex | None:
+    """Additive mixture exposure index E = Σ C_i / L_i, with the limit each term used.
+
+    Each substance counts once: where it has several limits of the kind (a
+    regulatory and an advisory TWA, say), the lowest at the air's conditions is
+    used, which gives the highest term. Common practice for substances with
+    similar effects on the same organs; an index above 1 means the mixture
+    exceeds the limit. US OSHA 29 CFR 1910.1000(d)(2)(i).
+
+    Returns
+    -------
+    AdditiveIndex or None
+        None when no substance present has a limit of that kind.
+    """
+    lowest: dict[str, ExposureLimit] = {}
+    for lim in limits:
+        if lim.kind != kind or lim.substance not in concentrations:
+            continue
+        held = lowest.get(lim.substance)
+        if held is None or (lim.volume_fraction_at(temperature, pressure)
+                            < held.volume_fraction_at(temperature, pressure)):
+            lowest[lim.substance] = lim
+    if not lowest:
+        return None
+    terms = tuple((key, lim, float(concentrations[key])
+                   / lim.volume_fraction_at(temperature, pressure))
+                  for key, lim in lowest.items())
+    return AdditiveIndex(float(sum(r for _, _, r in terms)), kind, terms)
+
+
 def additive_index(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit],
-                   kind: str = "TWA") -> float | None:
+                   kind: str = "TWA", temperature=None,
+                   pressure=STANDARD_ATMOSPHERE) -> float | None:
     """Additive mixture exposure index E = Σ C_i / L_i for limits of one kind.
 
-    Common practice for substances with similar effects on the same organs; an
-    index above 1 means the mixture exceeds the limit. US OSHA 29 CFR
-    1910.1000(d)(2)(i).
+    Each substance counts once, with its lowest limit of the kind (see
+    `additive_terms`, which also says which limit each term used). US OSHA 29
+    CFR 1910.1000(d)(2)(i).
 
     Returns
     -------
     float or None
         None when no substance present has a limit of that kind.
     """
-    terms = [float(concentrations[lim.substance]) / lim.volume_fraction
-             for lim in limits if lim.kind == kind and lim.substance in concentrations]
-    return sum(terms) if terms else None
+    index = additive_terms(concentrations, limits, kind, temperature, pressure)
+    return None if index is None else index.value
 
 
-def vapor_hazard_ratio(saturated_volume_fraction, limit: ExposureLimit) -> float:
+def vapor_hazard_ratio(saturated_volume_fraction, limit: ExposureLimit, temperature=None,
+                       pressure=STANDARD_ATMOSPHERE) -> float:
     """Saturated vapour concentration over an exposure limit.
 
     How many times the limit the air could reach at equilibrium: a measure of the
     potential for overexposure by vapour (Popendorf 1984, Am. Ind. Hyg. Assoc. J.
-    45(10), 719-726).
+    45(10), 719-726). A mg/m3 limit is taken at `temperature` and `pressure`.
     """
-    return float(saturated_volume_fraction) / limit.volume_fraction
+    return float(saturated_volume_fraction) / limit.volume_fraction_at(temperature, pressure)
 
 
 def flammability_findings(percent_lfl, oxygen_percent, alarms: FlammabilityAlarms,

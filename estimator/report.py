@@ -884,7 +884,7 @@ def _tank_blocks(result, index, tank) -> list:
         p = tank.purge
         rows.append([f"Purge time to {_n(p.target_volume_fraction * 1e6)} ppm",
                      _minutes(p.time) if p.reachable else "not reached",
-                     f"from {_n(p.initial_volume_fraction * 1e6)} ppm; floor "
+                     f"{p.case_words}; from {_n(p.initial_volume_fraction * 1e6)} ppm; floor "
                      f"{_n(p.floor_volume_fraction * 1e6)} ppm; {p.note}"])
     if rows:
         b.append(_Table(["quantity", "value", "note"], rows))
@@ -1229,7 +1229,9 @@ def _sample(n: int, peaks: list[np.ndarray]) -> tuple[np.ndarray, dict]:
 def _limit_dict(lim) -> dict:
     return {"substance": lim.substance, "kind": lim.kind, "value": lim.value,
             "unit": lim.unit, "source": lim.source, "label": lim.label,
-            "volume_fraction": lim.volume_fraction, "ppm": lim.ppm}
+            "volume_fraction": lim.volume_fraction, "ppm": lim.ppm,
+            "compared_as": ("volume fraction" if lim.unit == "ppm" else
+                            "mass concentration at the actual temperature and pressure")}
 
 
 def _headspace_dict(hs, comparisons=(), additive=None) -> dict:
@@ -1295,6 +1297,11 @@ def _tank_dict(result, tank) -> dict:
                                            and e.source == source), None),
              "uncertainty_basis": basis, "source": source, "why": why}
             for comp, method, desc, _, basis, source, why in _method_rows(h, t)]
+        terms = tank.additive_terms if case == "stated" else tank.worst_additive_terms
+        if terms is not None:
+            data["additive_index_twa_terms"] = [
+                {"substance": key, "limit": lim.label, "ratio": ratio}
+                for key, lim, ratio in terms.terms]
         out["cases"]["stated" if case == "stated" else "worst"] = data
     if tank.sweep is not None:
         sweep = _headspace_dict(tank.sweep)
@@ -1330,7 +1337,7 @@ def _tank_dict(result, tank) -> dict:
         "target_ppm": p.target_volume_fraction * 1e6,
         "floor_volume_fraction": p.floor_volume_fraction,
         "residual_evaporation_kg_per_s": p.residual_evaporation, "reachable": p.reachable,
-        "note": p.note}
+        "note": p.note, "case": p.case, "case_words": p.case_words, "volume_m3": p.volume}
     out["monte_carlo"] = _monte_carlo_dict(getattr(tank, "monte_carlo", None))
     out["findings"] = list(tank.findings)
     out["warnings"] = list(tank.warnings)
@@ -1611,7 +1618,7 @@ def results_csv(result, *, generated_at=None) -> str:
         if tank.purge is not None:
             p = tank.purge
             row(item, "tank", substance="all vapour", quantity="purge time", value=p.time,
-                unit="s", note=p.note)
+                unit="s", note=f"{p.case_words}; {p.note}")
             row(item, "tank", substance="all vapour", quantity="purge target",
                 value=p.target_volume_fraction * 1e6, unit="ppm")
         _monte_carlo_rows(row, item, getattr(tank, "monte_carlo", None))

@@ -602,6 +602,10 @@ def loads_scenario(text: str, source_path: str = "") -> Scenario:
     if not limits:
         r.assumptions.append("no exposure limits entered: only flammability and oxygen are "
                              "compared")
+    elif any(lim.unit == "mg/m3" for lim in limits):
+        from .limits import LIMIT_CONVENTION
+
+        r.assumptions.append(LIMIT_CONVENTION[:1].upper() + LIMIT_CONVENTION[1:])
 
     uncertain = []
     items = {t["name"].lower(): ("tank", t) for t in tanks}

@@ -27,7 +27,7 @@ from .headspace import (
 )
 from .limits import (
     LimitComparison,
-    additive_index,
+    additive_terms,
     compare,
     flammability_findings,
     vapor_hazard_ratio,
@@ -73,7 +73,9 @@ class TankResult:
         Over a range of temperatures, for tables and plots.
     comparisons, worst_comparisons : tuple of LimitComparison
     additive_index, worst_additive_index : float or None
-        Σ C_i/L_i over TWA limits.
+        Σ C_i/L_i over TWA limits, each substance once with its lowest TWA.
+    additive_terms, worst_additive_terms : AdditiveIndex or None
+        The same with the limit each substance counted with.
     hazard_ratios : dict
         Substance key -> vapour hazard ratio (saturated vapour / TWA) at the stated
         temperature.
@@ -110,6 +112,8 @@ class TankResult:
     findings: tuple[str, ...]
     warnings: tuple[str, ...]
     monte_carlo: object = None
+    additive_terms: object = None
+    worst_additive_terms: object = None
 
     @property
     def exceeded(self) -> bool:
@@ -267,17 +271,27 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         except UllageError as exc:
             notes.append(f"worst case at {worst_t - 273.15:.1f} degC not computed: {exc}")
     limits = scenario.limits
-    comparisons = tuple(compare(_concentrations(hs), limits))
-    worst_comparisons = tuple(compare(_concentrations(worst), limits)) if worst else ()
+    comparisons = tuple(compare(_concentrations(hs), limits, t, pressure))
+    worst_comparisons = (tuple(compare(_concentrations(worst), limits, worst_t, pressure))
+                         if worst else ())
     findings = _findings(hs, comparisons, scenario.alarms, f"At {t - 273.15:.1f} degC")
     if worst is not None:
         findings += _findings(worst, worst_comparisons, scenario.alarms,
                               f"At the worst case, {worst_t - 273.15:.1f} degC")
     ratios = {}
     y = _concentrations(hs)
-    for lim in limits:
-        if lim.kind == "TWA" and lim.substance in y:
-            ratios[lim.substance] = vapor_hazard_ratio(y[lim.substance], lim)
+    additive = additive_terms(y, limits, "TWA", t, pressure)
+    worst_additive = (additive_terms(_concentrations(worst), limits, "TWA", worst_t, pressure)
+                      if worst else None)
+    if additive is not None:
+        for key, lim, _ in additive.terms:
+            ratios[key] = vapor_hazard_ratio(y[key], lim, t, pressure)
+        several = len(additive.terms) > 1 or len(additive.terms) < sum(
+            1 for lim in limits if lim.kind == "TWA" and lim.substance in y)
+        if several:
+            findings.append(f"Headspace {additive.statement}"
+                            + (": above 1, the mixture exceeds it." if additive.value > 1
+                               else "."))
 
     lo = tank.get("sweep_from", t - 15.0)
     hi = tank.get("sweep_to", (worst_t or t) + 15.0)
@@ -332,7 +346,7 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
                                               tank["daily_high"], space, pressure)
             except UllageError as exc:
                 notes.append(f"thermal breathing: {exc}")
-        if tank.get("purge_rate") and space:
+        if tank.get("purge_rate") and tank.get("volume"):
             target = tank.get("purge_target")
             if target is None:
                 target = 0.01 * scenario.alarms.percent_lfl * float(hs.lfl_mixture) \
@@ -340,12 +354,11 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
             if target is None:
                 notes.append("purge not computed: give purge_target (no LFL to aim below)")
             else:
-                if tank.get("fill", 0.0) > 0 and not tank.get("residual_area"):
-                    notes.append("the purge time assumes the tank is first drained and "
-                                 "cleaned (no liquid left evaporating); give residual_area "
-                                 "for the liquid left in it")
+                holding = bool(tank.get("residual_area"))
                 try:
-                    purge = entry_purge(liquid_for_tank, t, space, tank["purge_rate"], target,
+                    purge = entry_purge(liquid_for_tank, t,
+                                        space if holding else tank["volume"],
+                                        tank["purge_rate"], target,
                                         tank.get("purge_mixing_factor", 1.0),
                                         tank.get("residual_area", 0.0), 0.1, pressure)
                 except UllageError as exc:
@@ -354,18 +367,20 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         notes.append("filling, breathing and purge are not computed for water with "
                      "dissolved volatiles")
     if purge is not None:
-        drained = ("" if tank.get("residual_area") else
-                   " once the tank is drained and cleaned")
+        case = f" (case computed: {purge.case_words}; give residual_area for liquid left in it)" \
+            if purge.case == "drained" else f" (case computed: {purge.case_words})"
         findings.append(
             f"Purging at the given rate reaches {purge.target_volume_fraction * 1e6:.3g} ppm in "
-            f"about {purge.time / 60:.0f} min{drained}: plan on that, then measure before "
-            "entry." if purge.reachable else purge.note[:1].upper() + purge.note[1:] + ".")
+            f"about {purge.time / 60:.0f} min{case}: plan on that, then measure before "
+            "entry." if purge.reachable
+            else purge.note[:1].upper() + purge.note[1:] + case + ".")
     return TankResult(
         name=tank["name"], liquid=tank["liquid"], temperature=t, worst_temperature=worst_t,
         pressure=pressure, headspace=hs, worst=worst, sweep=sweep, comparisons=comparisons,
         worst_comparisons=worst_comparisons,
-        additive_index=additive_index(_concentrations(hs), limits),
-        worst_additive_index=additive_index(_concentrations(worst), limits) if worst else None,
+        additive_index=None if additive is None else additive.value,
+        worst_additive_index=None if worst_additive is None else worst_additive.value,
+        additive_terms=additive, worst_additive_terms=worst_additive,
         hazard_ratios=ratios, flash_point=flash, alarm_temperature=alarm_t,
         inventory=inventory, filling=filling, breathing=breathing, purge=purge,
         findings=tuple(findings),
@@ -374,7 +389,8 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
     )
 
 
-def _zone_exposure(zone, key, times, ppm, limits, shift) -> ZoneExposure:
+def _zone_exposure(zone, key, times, ppm, limits, shift, temperature,
+                   pressure) -> ZoneExposure:
     from .exposure import first_time_above, max_rolling_average, peak, time_back_below
     from .exposure import time_weighted_average
 
@@ -390,9 +406,10 @@ def _zone_exposure(zone, key, times, ppm, limits, shift) -> ZoneExposure:
         if lim.substance != key:
             continue
         metric = {"TWA": twa, "STEL": short}.get(lim.kind, top.value)
-        first = first_time_above(times, ppm, lim.ppm)
-        back = time_back_below(times, ppm, lim.ppm) if first is not None else None
-        rows.append((lim.label, lim.ppm, metric / lim.ppm, first, back))
+        level = lim.ppm_at(temperature, pressure)
+        first = first_time_above(times, ppm, level)
+        back = time_back_below(times, ppm, level) if first is not None else None
+        rows.append((lim.label, level, metric / level, first, back))
     return ZoneExposure(zone, key, top.value, top.time, twa, short, tuple(rows),
                         twa_lower_bound=covered < shift.duration - 1e-6)
 
@@ -528,7 +545,8 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
                 ppm = indoor.ppm(zone)
                 for j, c in enumerate(liq.components):
                     exposures.append(_zone_exposure(label, c.key, indoor.times, ppm[:, j],
-                                                    scenario.limits, scenario.shift))
+                                                    scenario.limits, scenario.shift, t,
+                                                    pressure))
             gone = indoor.pool_gone_time
             removed = indoor.source_removed_time
             left = float(indoor.mass_remaining[-1].sum())
@@ -575,7 +593,7 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
                     continue
                 j = keys.index(lim.substance)
                 g = outdoor.emission_rate[j]
-                c_lim = lim.volume_fraction * pressure * liq.molar_masses[j] / (8.314462618 * t)
+                c_lim = lim.mass_concentration_at(t, pressure)
                 d = distance_to_concentration(g, wind, c_lim, stability, od["terrain"])
                 distances.append((lim.label, d.distance, d.note))
             findings.append(f"Source strength {1000 * outdoor.emission_rate.sum():.3g} g/s "

@@ -229,6 +229,11 @@ class EntryPurge:
         Evaporation rate of the residual liquid during the purge. [kg/s]
     reachable : bool
     note : str
+    case : str
+        "drained" (no liquid left: the whole tank volume is purged) or "holding
+        liquid" (the vapour space above the liquid, with its evaporation floor).
+    volume : float
+        Volume purged. [m3]
     """
 
     time: float
@@ -238,6 +243,17 @@ class EntryPurge:
     residual_evaporation: float
     reachable: bool
     note: str
+    case: str = "drained"
+    volume: float = math.nan
+
+    @property
+    def case_words(self) -> str:
+        """Which case was computed, in plain words."""
+        if self.case == "drained":
+            return (f"drained and cleaned tank: the whole {self.volume:.3g} m³ holds vapour "
+                    "and is purged")
+        return (f"tank still holding liquid: the {self.volume:.3g} m³ vapour space above it "
+                "is purged while the liquid keeps evaporating")
 
 
 def entry_purge(liquid, temperature, vapor_space, purge_rate, target_volume_fraction,
@@ -246,11 +262,14 @@ def entry_purge(liquid, temperature, vapor_space, purge_rate, target_volume_frac
     """Time for purge ventilation to bring a saturated vapour space below a target.
 
     The space starts at its equilibrium headspace and is purged with clean air
-    (well-mixed, mixing factor K >= 1 dividing the purge rate). A residual
-    liquid heel of `residual_area` keeps evaporating (Mackay-Matsugu at the
-    internal air speed), which sets a floor G K / Q; a target at or below it is
-    never reached. Purging is followed by measurement: this says how long to
-    plan for, not when the space is safe.
+    (well-mixed, mixing factor K >= 1 dividing the purge rate),
+    t = K V / Q ln(C0 / C). Two cases: a drained, clean tank (no
+    `residual_area`), where the whole tank volume holds vapour and must be
+    purged; and a tank still holding liquid, where the vapour space above it
+    is purged while the liquid of `residual_area` keeps evaporating
+    (Mackay-Matsugu at the internal air speed), which sets a floor G K / Q; a
+    target at or below it is never reached. Purging is followed by
+    measurement: this says how long to plan for, not when the space is safe.
 
     Parameters
     ----------
@@ -258,7 +277,8 @@ def entry_purge(liquid, temperature, vapor_space, purge_rate, target_volume_frac
     temperature : float
         [K]
     vapor_space : float
-        Volume being purged. [m3]
+        Volume being purged: the whole tank for a drained tank, the vapour space
+        above the liquid for a tank holding liquid. [m3]
     purge_rate : float
         Clean-air purge rate. [m3/s]
     target_volume_fraction : float
@@ -305,4 +325,5 @@ def entry_purge(liquid, temperature, vapor_space, purge_rate, target_volume_frac
                 f"purge rate, at or above the {target * 1e6:.3g} ppm target: it can never be "
                 "reached; remove the liquid or raise the purge rate")
     return EntryPurge(estimate.time, y0, target, float(floor), residual,
-                      estimate.reachable, note)
+                      estimate.reachable, note,
+                      "holding liquid" if residual > 0 else "drained", v)

@@ -1095,7 +1095,7 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
     else:
         notes.append("no component has a lower flammability limit on record: %LFL is not "
                      "computed (enter the limits from the safety data sheet)")
-    oxygen = 100.0 * OXYGEN_IN_AIR * (1.0 - y_total)
+    oxygen = np.clip(100.0 * OXYGEN_IN_AIR * (1.0 - y_total), 0.0, None)
     outputs["oxygen_percent"] = oxygen
     units["oxygen_percent"] = "% by volume"
     exceedance[f"oxygen below {oxygen_level:g} %"] = float(np.mean(oxygen < oxygen_level))
@@ -1106,7 +1106,7 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
             notes.append(f"limit {label} is for {lim.substance}, which is not in the liquid; "
                          "it was left out")
             continue
-        ratio = y[keys.index(lim.substance)] / lim.volume_fraction
+        ratio = y[keys.index(lim.substance)] / lim.volume_fraction_at(t, p_total)
         outputs[f"ratio to {label}"] = ratio
         units[f"ratio to {label}"] = "-"
         exceedance[label] = float(np.mean(ratio > 1.0))
@@ -1427,7 +1427,7 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
             notes.append(f"limit {label} is for {lim.substance}, not {sub.key}; it was "
                          "left out")
             continue
-        ratio = outputs[metric[lim.kind]] / lim.ppm
+        ratio = outputs[metric[lim.kind]] / lim.ppm_at(t, p_air)
         outputs[f"ratio to {label}"] = ratio
         units[f"ratio to {label}"] = "-"
         exceedance[label] = float(np.mean(ratio > 1.0))

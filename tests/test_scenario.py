@@ -255,4 +255,4 @@ def test_purge_finding_states_its_assumption():
         'purge_target = "10 ppm"\n'
     tank = run_scenario(loads_scenario(text)).tanks[0]
     assert any("measure before entry" in f and "drained" in f for f in tank.findings)
-    assert any("drained and cleaned" in w for w in tank.warnings)
+    assert any("drained and cleaned" in f and "whole 10 m³" in f for f in tank.findings)
