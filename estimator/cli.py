@@ -169,9 +169,22 @@ def _format_from_path(path):
 
 
 def _cmd_check(args) -> int:
+    from .screening import run_scenario
+
     scenario = _load(args.scenario)
-    print(f"{args.scenario}: valid scenario {scenario.title!r}: {len(scenario.tanks)} tank(s), "
-          f"{len(scenario.spills)} spill(s), {len(scenario.limits)} limit value(s)")
+    # every check `run` makes: the items are computed, nothing is written
+    result = run_scenario(scenario)
+    counts = (f"{len(scenario.tanks)} tank(s), {len(scenario.spills)} spill(s), "
+              f"{len(scenario.limits)} limit value(s)")
+    if result.errors:
+        print(f"{args.scenario}: scenario {scenario.title!r} ({counts}) has "
+              f"{len(result.errors)} item(s) that cannot be computed:", file=sys.stderr)
+        for item, message in result.errors:
+            print(textwrap.fill(f"{item}: {message}", width=78, initial_indent="  - ",
+                                subsequent_indent="    "), file=sys.stderr)
+        return EXIT_BAD_INPUT
+    print(f"{args.scenario}: valid scenario {scenario.title!r}: {counts}; every item "
+          "computes")
     if scenario.assumptions:
         print("Assumptions the run will make:")
         for a in scenario.assumptions:
@@ -191,12 +204,12 @@ def _cmd_sweep(args) -> int:
     high = parse_temperature(args.high, "--to")
     if high <= low:
         raise _BadInput("--to", "must be above --from")
-    step = parse_quantity(args.step, "temperature_difference", "--step", default_unit="K")
+    step = parse_quantity(args.step, "temperature_difference", "--step")
     if step <= 0:
         raise _BadInput("--step", "must be above zero")
     if (high - low) / step > 2000:
         raise _BadInput("--step", "gives more than 2000 rows; use a larger step")
-    pressure = parse_quantity(args.pressure, "pressure", "--pressure", default_unit="Pa")
+    pressure = parse_quantity(args.pressure, "pressure", "--pressure")
     grid = np.arange(low, high + step / 2, step)
     if args.liquid:
         hs = headspace(parse_liquid(args.liquid, args.basis, "liquid"), grid, pressure)
@@ -258,7 +271,7 @@ def _cmd_inventory(args) -> int:
     from .limits import format_ppm
     from .units import parse_quantity
 
-    pressure = parse_quantity(args.pressure, "pressure", "--pressure", default_unit="Pa")
+    pressure = parse_quantity(args.pressure, "pressure", "--pressure")
     result = screen_inventory(args.file, pressure=pressure)
     if args.output:
         write_inventory_csv(result, args.output)
@@ -361,9 +374,10 @@ def build_parser() -> argparse.ArgumentParser:
                    help="exit with 1 when any limit or alarm is exceeded")
     p.set_defaults(func=_cmd_run)
 
-    p = sub.add_parser("check", help="check a scenario file without running it",
-                       description="Check a scenario file and list the assumptions a run "
-                                   "would make.")
+    p = sub.add_parser("check", help="check a scenario file without writing a report",
+                       description="Check a scenario file with every check a run makes "
+                                   "(each item is computed, nothing is written) and list "
+                                   "the assumptions a run would make.")
     p.add_argument("scenario", help="scenario file (.toml)")
     p.set_defaults(func=_cmd_check)
 

@@ -579,6 +579,22 @@ def loads_scenario(text: str, source_path: str = "") -> Scenario:
         if "stability" not in outdoors and "daytime" not in outdoors:
             r.fail("outdoors", None, "daytime", "give the stability class, or daytime = true/false "
                    "with the insolation (day) or cloud_cover in oktas (night)")
+        if "stability" in outdoors:
+            from .outdoor import _classes
+
+            try:
+                _classes(outdoors["stability"])
+            except InputError as exc:
+                r.fail("outdoors", None, "stability", exc.reason)
+        else:
+            from .outdoor import stability_class
+
+            try:
+                stability_class(outdoors["wind_speed"], outdoors.get("daytime", True),
+                                outdoors.get("insolation"), outdoors.get("cloud_cover"))
+            except InputError as exc:
+                key = exc.field if exc.field in SCHEMA["outdoors"] else "daytime"
+                r.fail("outdoors", None, key, exc.reason)
         outdoors.setdefault("terrain", "open")
         outdoors.setdefault("wind_height", 10.0)
         outdoors.setdefault("receptors", [100.0, 300.0, 1000.0, 3000.0])

@@ -185,8 +185,8 @@ def parse_quantity(value, kind: str, field: str, *, default_unit: str | None = N
         else:
             raise InputError(
                 field,
-                f"{value!r} has no unit; add one, for example "
-                f"'{number:g} {_EXAMPLE_UNITS[kind]}'",
+                f"{value!r} has no unit; write the number with its unit, such as "
+                f"{_EXAMPLES[kind]}",
             )
     return _convert_scalar(number, _normalise_unit(unit, kind), target, field, value)
 
@@ -209,6 +209,28 @@ _EXAMPLE_UNITS = {
     "molar_mass": "g/mol",
     "molar_energy": "kJ/mol",
     "fraction": "percent",
+}
+
+
+#: Written-out examples for the "no unit" message, per kind.
+_EXAMPLES = {
+    "temperature": "'30 degC', '86 degF' or '303 K'",
+    "temperature_difference": "'5 K' or '9 delta_degF'",
+    "pressure": "'101.3 kPa', '14.7 psi' or '1 atm'",
+    "length": "'3 m' or '10 ft'",
+    "area": "'2 m2' or '20 ft2'",
+    "volume": "'200 L', '55 gal' or '10 m3'",
+    "time": "'40 min' or '2 h'",
+    "speed": "'0.2 m/s'",
+    "flow": "'0.5 m3/s', '400 cfm' or '1800 m3/h'",
+    "rate": "'4 1/h'",
+    "mass": "'20 kg' or '44 lb'",
+    "mass_rate": "'2 g/s'",
+    "mass_concentration": "'5 mg/L' or '75 mg/m3'",
+    "density": "'870 kg/m3'",
+    "molar_mass": "'92.1 g/mol'",
+    "molar_energy": "'38 kJ/mol'",
+    "fraction": "'40 %'",
 }
 
 
@@ -245,6 +267,10 @@ def _kind_of(target: str) -> str:
 def parse_temperature(value, field: str = "temperature") -> float:
     """Convert a temperature such as "35 degC", "95 degF" or "308 K" to kelvin.
 
+    Text must carry its unit: "30" alone is refused, because a person who writes
+    it means degrees Celsius or Fahrenheit far more often than kelvin. A number
+    (not text) is taken in kelvin, the SI unit of the Python API.
+
     Parameters
     ----------
     value : str or float
@@ -261,8 +287,11 @@ def parse_temperature(value, field: str = "temperature") -> float:
     --------
     >>> round(parse_temperature("95 degF"), 2)
     308.15
+    >>> parse_temperature(300.0)
+    300.0
     """
-    kelvin = parse_quantity(value, "temperature", field, default_unit="K")
+    kelvin = parse_quantity(value, "temperature", field,
+                            default_unit=None if isinstance(value, str) else "K")
     if kelvin <= 0.0:
         raise InputError(field, f"{value!r} is at or below absolute zero; check the unit")
     return kelvin

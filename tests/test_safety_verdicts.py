@@ -93,3 +93,63 @@ def test_scenario_states_the_mass_limit_convention():
     text = TANK + '\n[[limit]]\nsubstance = "toluene"\nTWA = "75 mg/m3"\nsource = "x"\n'
     scenario = loads_scenario(text)
     assert any("actual temperature and pressure" in a for a in scenario.assumptions)
+
+
+def test_scenario_temperature_without_unit_is_refused():
+    """`temperature = "30"` names no unit: refused with the key, not read as 30 K."""
+    text = TANK.replace('temperature = "25 degC"', 'temperature = "30"')
+    with pytest.raises(InputError, match=r"\[\[tank\]\] #1 temperature.*no unit"):
+        loads_scenario(text)
+
+
+@pytest.mark.parametrize("argv, field", [
+    (["sweep", "toluene", "--from", "300"], "--from"),
+    (["sweep", "toluene", "--to", "320"], "--to"),
+    (["sweep", "toluene", "--step", "5"], "--step"),
+    (["sweep", "toluene", "--pressure", "101325"], "--pressure"),
+])
+def test_command_line_quantity_without_unit_is_refused(argv, field, capsys):
+    """Command-line options with no unit exit 2 and name the option."""
+    from estimator.cli import main
+
+    assert main(argv) == 2
+    err = capsys.readouterr().err
+    assert field in err and "no unit" in err
+
+
+def test_check_runs_what_run_runs(tmp_path, capsys):
+    """`ullage check` fails where `ullage run` would: a daytime outdoor spill without
+    the insolation is refused at load, naming the key."""
+    from estimator.cli import main
+
+    path = tmp_path / "night.toml"
+    path.write_text("""
+[scenario]
+title = "x"
+[[liquid]]
+name = "t"
+substance = "toluene"
+[[spill]]
+name = "s"
+liquid = "t"
+volume = "10 L"
+temperature = "20 degC"
+outdoors = true
+[outdoors]
+wind_speed = "3 m/s"
+daytime = true
+""", encoding="utf-8")
+    assert main(["check", str(path)]) == 2
+    assert "insolation" in capsys.readouterr().err
+    assert main(["run", str(path)]) == 2
+
+
+def test_check_reports_items_that_cannot_be_computed(tmp_path, capsys):
+    """An item that loads but cannot be computed (a tank above the liquid's critical
+    temperature) makes `check` exit 2 with the item named, as `run` does."""
+    from estimator.cli import main
+
+    path = tmp_path / "hot.toml"
+    path.write_text(TANK.replace('"25 degC"', '"400 degC"'), encoding="utf-8")
+    assert main(["check", str(path)]) == 2
+    assert "tank T-1" in capsys.readouterr().err
