@@ -78,6 +78,7 @@ ROW_COLUMNS: tuple[str, ...] = (
     "lfl",
     "ufl",
     "flammability_source",
+    "flammability_note",
     "flash_point",
     "flash_point_source",
     "diffusion_volume",
@@ -926,11 +927,21 @@ def liquid_density(
     }
 
 
+#: Relative disagreement between the two compilations above which the lower LFL is
+#: used and both are recorded. [-] Chosen here: the two compilations agree within
+#: about 10-25 % for most liquids; beyond 30 % the gap exceeds the scatter of the
+#: test methods and the safe reading is the lower value.
+LFL_DISAGREEMENT = 0.30
+
+
 def flammability_limits(cas: str) -> dict[str, Any]:
     """Look up the lower and upper flammability limits in air.
 
     IEC 60079-20-1:2010 is preferred, NFPA 497 (2008) is the fallback; each
-    limit is taken separately, so the source may name both.
+    limit is taken separately, so the source may name both. Where both give an
+    LFL and they differ by more than `LFL_DISAGREEMENT` (relative to the lower),
+    the lower LFL is used and ``flammability_note`` records both with their
+    sources.
 
     Parameters
     ----------
@@ -940,23 +951,37 @@ def flammability_limits(cas: str) -> dict[str, Any]:
     Returns
     -------
     dict
-        ``lfl`` and ``ufl`` [volume fraction] and ``flammability_source``.
+        ``lfl`` and ``ufl`` [volume fraction], ``flammability_source`` and
+        ``flammability_note`` (None unless the compilations disagree).
     """
     _chemicals()
     from chemicals import safety
 
-    out: dict[str, Any] = {}
+    out: dict[str, Any] = {"flammability_note": None}
     sources: dict[str, str | None] = {}
     for col, label in (("LFL", "lfl"), ("UFL", "ufl")):
         out[label] = None
         sources[label.upper()] = None
+        found = []
         for df, src in ((safety.IEC_2010_data, SRC_IEC), (safety.NFPA_2008_data, SRC_NFPA)):
             row = _row(df, cas)
             v = _value(row[col]) if row is not None else None
             if v is not None and v > 0.0:
-                out[label] = v
-                sources[label.upper()] = src
-                break
+                found.append((v, src))
+        if not found:
+            continue
+        value, src = found[0]
+        if label == "lfl" and len(found) == 2:
+            low, high = sorted(found)
+            if (high[0] - low[0]) / low[0] > LFL_DISAGREEMENT:
+                value, src = low
+                out["flammability_note"] = (
+                    f"the two compilations disagree on the LFL by "
+                    f"{100 * (high[0] - low[0]) / low[0]:.0f} %: {100 * low[0]:.3g} % "
+                    f"({low[1]}) against {100 * high[0]:.3g} % ({high[1]}); the lower is "
+                    "used")
+        out[label] = value
+        sources[label.upper()] = src
     out["flammability_source"] = _join_sources(sources)
     return out
 

@@ -408,7 +408,7 @@ def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole"
     liq = make_liquid(liquid, basis, activity_coefficients)
     p_total = _check_pressure(pressure)
     estimates = _estimates(liq, temperature, "temperature")
-    notes = list(liq.warnings)
+    notes = list(liq.warnings) + [n for c in liq.components for n in c.notes]
     for e in estimates:
         notes.extend(e.warnings)
     p_sat = np.stack([np.asarray(e.pressure, dtype=float) for e in estimates])
@@ -496,7 +496,7 @@ def water_headspace(dissolved, temperature, pressure=STANDARD_ATMOSPHERE) -> Hea
     >>> round(float(hs.ppm[1]), 1)
     74.3
     """
-    from .henry import henry_constants, henry_partial_pressure
+    from .henry import check_dissolved_concentration, henry_constants, henry_partial_pressure
     from .mixtures import Liquid
     from .substances import as_substance
 
@@ -516,6 +516,7 @@ def water_headspace(dissolved, temperature, pressure=STANDARD_ATMOSPHERE) -> Hea
                              f"got {value!r}") from None
         if not np.isfinite(c) or c < 0:
             raise InputError(f"dissolved {sub.name}", "must be a concentration of 0 or more")
+        check_dissolved_concentration(sub.key, c, f"dissolved {sub.name}")
         constants = henry_constants(sub.key)
         with warnings.catch_warnings(record=True) as caught:
             warnings.simplefilter("always")

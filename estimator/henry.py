@@ -29,6 +29,8 @@ from .errors import ExtrapolationWarning, InputError, OutOfRangeError, UllageWar
 
 __all__ = [
     "henry_solubility",
+    "check_dissolved_concentration",
+    "SOLUBILITY_REFUSAL_FACTOR",
     "henry_partial_pressure",
     "dimensionless_henry",
     "henry_to_hcp",
@@ -469,6 +471,49 @@ def dilution_warnings(concentration, solubility=None, water_density=WATER_DENSIT
                 "mass; Henry's law is an infinite-dilution law and loses accuracy here, "
                 "and no solubility is on record to check for a separate liquid layer",)
     return ()
+
+
+#: A dissolved concentration more than this many times the compound's water solubility
+#: is refused rather than warned about. [-] 2, chosen here: tabulated solubilities
+#: near 25 degC scatter by tens of percent between sources and with temperature, so
+#: up to twice the solubility may still be a (supersaturated or warmer) solution;
+#: beyond it a separate liquid layer is certain and Henry's law does not apply.
+SOLUBILITY_REFUSAL_FACTOR = 2.0
+
+
+def check_dissolved_concentration(key: str, concentration: float,
+                                  field: str = "dissolved concentration") -> float:
+    """Refuse a dissolved concentration far above the compound's water solubility.
+
+    Parameters
+    ----------
+    key : str
+        Compound, as for `henry_constants`.
+    concentration : float
+        Dissolved compound per volume of water. [kg/m3]
+    field : str
+        Name of the input, for messages.
+
+    Returns
+    -------
+    float
+        The concentration. [kg/m3]
+
+    Raises
+    ------
+    InputError
+        Above `SOLUBILITY_REFUSAL_FACTOR` times the solubility on record.
+    """
+    c = float(concentration)
+    constants = henry_constants(key)
+    s = constants.solubility_298
+    if s is not None and c > SOLUBILITY_REFUSAL_FACTOR * s:
+        raise InputError(field, f"{c * 1000:g} mg/L is more than {SOLUBILITY_REFUSAL_FACTOR:g} "
+                         f"times the water solubility of {constants.name} (about "
+                         f"{s * 1000:g} mg/L near 25 °C): it cannot all be dissolved; a "
+                         "separate liquid layer is there, so screen that layer as a liquid "
+                         "instead of by Henry's law")
+    return c
 
 
 def _temperature_warnings(t: np.ndarray) -> tuple[str, ...]:

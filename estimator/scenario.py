@@ -452,6 +452,13 @@ def loads_scenario(text: str, source_path: str = "") -> Scenario:
         else:
             spec = {resolve("liquid", i, "dissolved_in_water", k): c
                     for k, c in v["dissolved_in_water"].items()}
+            from .henry import check_dissolved_concentration
+
+            for sub, c in spec.items():
+                try:
+                    check_dissolved_concentration(sub.key, c, sub.name)
+                except InputError as exc:
+                    r.fail("liquid", i, "dissolved_in_water", f"{exc.field}: {exc.reason}")
             entry.update(kind="water", spec=spec)
         gammas = v.get("activity_coefficients")
         if v.get("activity_estimate"):

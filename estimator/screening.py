@@ -616,6 +616,7 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
             except UllageError as exc:
                 notes.append(f"{model}: {exc}")
     notes.extend(str(w.message) for w in caught)
+    notes.extend(n for c in liq.components for n in c.notes)
     run = indoor or outdoor
     notes.extend(run.warnings)
     for e in exposures:

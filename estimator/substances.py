@@ -178,6 +178,8 @@ def _from_row(row: dict, origin: str) -> Substance:
         melting if melting is not None else 0.0,
         sources.get("enthalpy_of_vaporization", "")))
     synonyms = tuple(s.strip() for s in (row.get("synonyms") or "").split(";") if s.strip())
+    flammability_note = (row.get("flammability_note") or "").strip()
+    notes = ((f"{row['name'].strip()}: {flammability_note}",) if flammability_note else ())
     return Substance(
         key=row["key"].strip(),
         name=row["name"].strip(),
@@ -199,6 +201,7 @@ def _from_row(row: dict, origin: str) -> Substance:
         correlations=tuple(correlations),
         sources=MappingProxyType(sources),
         origin=origin,
+        notes=notes,
     )
 
 
@@ -479,4 +482,4 @@ def lookup_cas(cas: str) -> Substance:
     return Substance(**{**base.__dict__, "notes": (
         f"{base.name}: properties looked up by CAS number in the chemicals package "
         "(compiled data, sources named per value); check them against the "
-        "supplier's safety data sheet",)})
+        "supplier's safety data sheet",) + base.notes})

@@ -261,10 +261,13 @@ def test_water_headspace_henry_and_raoult():
 
 
 def test_water_headspace_flags_above_solubility():
-    """Toluene above its water solubility (about 0.5 g/L) is flagged as not dilute."""
+    """Toluene above its water solubility (about 0.5 g/L) is flagged as not dilute,
+    and refused at more than twice it."""
     from estimator.headspace import water_headspace
 
-    hs = water_headspace({"toluene": 2.0}, 298.15)
+    hs = water_headspace({"toluene": 0.8}, 298.15)
     assert any("solubility" in w for w in hs.warnings)
+    with pytest.raises(InputError, match="solubility"):
+        water_headspace({"toluene": 2.0}, 298.15)
     with pytest.raises(InputError, match="dissolved"):
         water_headspace({"toluene": -1.0}, 298.15)

@@ -153,3 +153,44 @@ def test_check_reports_items_that_cannot_be_computed(tmp_path, capsys):
     path.write_text(TANK.replace('"25 degC"', '"400 degC"'), encoding="utf-8")
     assert main(["check", str(path)]) == 2
     assert "tank T-1" in capsys.readouterr().err
+
+
+def test_lfl_compilations_that_disagree_use_the_lower_and_say_so():
+    """n-Butyl acetate: IEC 60079-20-1:2010 gives an LFL of 1.2 % and NFPA 497 (2008)
+    1.7 % (as carried by the chemicals package): 42 % apart, so the lower is used and
+    both are named in the substance's notes and in results."""
+    from estimator.headspace import headspace
+    from estimator.substances import substance
+
+    sub = substance("n-butyl acetate")
+    assert sub.lower_flammability_limit == pytest.approx(0.012)
+    (note,) = [n for n in sub.notes if "disagree" in n]
+    assert "1.2 %" in note and "1.7 %" in note and "IEC" in note and "NFPA" in note
+    assert any("disagree on the LFL" in w for w in headspace(sub, 298.15).warnings)
+
+
+def test_dissolved_far_above_solubility_is_refused():
+    """Benzene dissolves in water to about 1.78 g/L at 25 degC (Sander 2015 compilation
+    via the bundled Henry table; CRC Handbook gives 1.79 g/L, from memory): 5 g/L
+    cannot be a solution, so it is refused naming the solubility."""
+    from estimator.headspace import water_headspace
+
+    with pytest.raises(InputError, match=r"dissolved Benzene.*solubility.*mg/L"):
+        water_headspace({"benzene": 5.0}, 298.15)
+    text = """
+[scenario]
+title = "x"
+[[liquid]]
+name = "w"
+dissolved_in_water = { benzene = "5 g/L" }
+"""
+    with pytest.raises(InputError, match=r"dissolved_in_water.*solubility"):
+        loads_scenario(text)
+
+
+def test_oxygen_never_below_zero():
+    """Pure vapour displaces all the air: 0 % oxygen, never negative (common practice)."""
+    from estimator.headspace import headspace
+
+    hs = headspace("acetone", 340.0)  # above acetone's boiling point at 1 atm
+    assert float(hs.oxygen_percent) == pytest.approx(0.0, abs=1e-9)
