@@ -23,7 +23,12 @@ from .constants import (
 )
 from .errors import InputError, OutOfRangeError
 from .mixtures import Liquid, liquid as make_liquid
-from .vapor import VaporPressureEstimate, vapor_pressure_estimate
+from .vapor import (
+    SUBCOOLED_LIMIT,
+    VaporPressureEstimate,
+    component_vapor_pressure_estimates,
+    vapor_pressure_estimate,
+)
 
 __all__ = [
     "Headspace",
@@ -262,7 +267,7 @@ def _scalar(a):
 
 
 def _estimates(liq: Liquid, t, field) -> list[VaporPressureEstimate]:
-    return [vapor_pressure_estimate(c, t, field=field) for c in liq.components]
+    return component_vapor_pressure_estimates(liq.components, t, field)
 
 
 def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole",
@@ -458,8 +463,22 @@ class AboveAtLowestTemperature(OutOfRangeError):
         super().__init__(field, message)
 
 
+def lowest_liquid_temperature(components) -> float:
+    """Lowest temperature a liquid's vapour pressure is computed at. [K]
+
+    A pure liquid's melting point; for a mixture, the lowest temperature at which
+    some component is above its own melting point and none is more than
+    `estimator.vapor.SUBCOOLED_LIMIT` below its own (a subcooled component). 0
+    where no melting point is known.
+    """
+    melting = [c.melting_point or 0.0 for c in components]
+    if len(melting) < 2:
+        return melting[0] if melting else 0.0
+    return max(min(melting), max(melting) - SUBCOOLED_LIMIT)
+
+
 def _liquid_range(liq: Liquid) -> tuple[float, float]:
-    lo = max([c.melting_point or 0.0 for c in liq.components] + [120.0])
+    lo = max([lowest_liquid_temperature(liq.components)] + [120.0])
     hi = min([c.critical_temperature or 2000.0 for c in liq.components])
     return lo + 1e-6, hi - 1e-6
 
@@ -563,12 +582,18 @@ class FlashPointEstimate:
         Published closed-cup flash point of a pure liquid. [K]
     published_source : str
     note : str
+    flammable_whenever_liquid : bool
+        True for a pure liquid whose LFL temperature lies below its melting point:
+        `estimate` is then the subcooled-liquid estimate (a temperature at which
+        the liquid does not exist), and the vapour over the liquid is flammable at
+        every temperature at which it is liquid.
     """
 
     estimate: float
     published: float | None
     published_source: str
     note: str
+    flammable_whenever_liquid: bool = False
 
     @property
     def difference(self) -> float | None:
@@ -590,14 +615,57 @@ def estimated_flash_point(liquid, pressure=STANDARD_ATMOSPHERE, *, basis="mole",
     FlashPointEstimate
     """
     liq = make_liquid(liquid, basis, activity_coefficients)
-    estimate = temperature_for_percent_lfl(liq, 100.0, pressure)
+    note = ("temperature at which the saturated vapour reaches the LFL (Le Chatelier "
+            "for mixtures); closed-cup flash points usually lie a few kelvin higher")
+    whenever_liquid = False
+    try:
+        estimate = temperature_for_percent_lfl(liq, 100.0, pressure)
+    except AboveAtLowestTemperature:
+        if not liq.is_pure:
+            raise
+        estimate = _subcooled_lfl_temperature(liq.components[0], _check_pressure(pressure))
+        whenever_liquid = True
+        note = (f"the vapour over the liquid is flammable at every temperature at which it "
+                f"is liquid: the saturated vapour reaches the LFL at {estimate - 273.15:.1f} "
+                f"degC, below the melting point ({liq.components[0].melting_point - 273.15:.1f}"
+                " degC), by the vapour-pressure correlation extrapolated to the subcooled "
+                "liquid (an extrapolation, a temperature at which this liquid does not "
+                "exist); closed-cup flash points usually lie a few kelvin higher")
     published, source = None, ""
     if liq.is_pure:
         sub = liq.components[0]
         published = sub.flash_point
         source = sub.sources.get("flash_point", "")
     return FlashPointEstimate(
-        estimate=estimate, published=published, published_source=source,
-        note="temperature at which the saturated vapour reaches the LFL (Le Chatelier "
-             "for mixtures); closed-cup flash points usually lie a few kelvin higher",
+        estimate=estimate, published=published, published_source=source, note=note,
+        flammable_whenever_liquid=whenever_liquid,
     )
+
+
+#: How far below the melting point the LFL temperature of a pure liquid is sought on
+#: the extrapolated (subcooled) vapour-pressure curve. [K] Twice `SUBCOOLED_LIMIT`:
+#: the result only marks where the flammable range would start; the liquid freezes
+#: first.
+_SUBCOOLED_FLASH_SEARCH = 2.0 * SUBCOOLED_LIMIT
+
+
+def _subcooled_lfl_temperature(sub, pressure: float) -> float:
+    """Temperature at which the extrapolated vapour pressure of a pure liquid below its
+    melting point gives the LFL. [K]"""
+    from scipy.optimize import brentq
+
+    target = sub.lower_flammability_limit * pressure
+    tm = sub.melting_point
+    lo = tm - _SUBCOOLED_FLASH_SEARCH
+    correlation = vapor_pressure_estimate(sub, tm, field="temperature")
+    chosen = next(c for c in sub.correlations if c.method == correlation.method)
+
+    def f(t):
+        return math.log(float(chosen(t)) / target)
+
+    if f(lo) >= 0.0:
+        raise AboveAtLowestTemperature(
+            "temperature", f"{sub.name}: the extrapolated vapour pressure is above the LFL "
+            f"even {_SUBCOOLED_FLASH_SEARCH:g} K below the melting point; the vapour over "
+            "the liquid is flammable at every temperature at which it is liquid", tm)
+    return float(brentq(f, lo, tm, xtol=1e-6, maxiter=200))

@@ -310,9 +310,15 @@ class _Bounds:
 def _bounds(liq: Liquid) -> _Bounds:
     melting, melting_name = -math.inf, ""
     critical, critical_name = math.inf, ""
+    from .headspace import lowest_liquid_temperature
+
     for c in liq.components:
         if c.melting_point is not None and c.melting_point > melting:
             melting, melting_name = c.melting_point, c.name
+    if len(liq.components) > 1 and melting_name:
+        # components of a mixture may be subcooled (estimator.vapor.SUBCOOLED_LIMIT)
+        melting = lowest_liquid_temperature(liq.components)
+    for c in liq.components:
         if c.critical_temperature is not None and c.critical_temperature < critical:
             critical, critical_name = c.critical_temperature, c.name
     return _Bounds(melting, melting_name, critical, critical_name)
@@ -1672,6 +1678,11 @@ def _temperature_message(code: int, value: float, unit: str, bounds: _Bounds,
     if code == 3:
         return (f"{shown} is above the critical temperature of {bounds.critical_name}{whose} "
                 f"({_format_temperature(bounds.critical, unit)}): no liquid can exist there")
+    if not liq.is_pure:
+        return (f"{shown} is below {_format_temperature(bounds.melting, unit)}, the lowest "
+                "temperature computed for this mixture: a component is taken as a subcooled "
+                "liquid at most 25 K below its own melting point, and some component must "
+                f"be above its own (the highest melting point is {bounds.melting_name}'s)")
     return (f"{shown} is below the melting point of {bounds.melting_name}{whose} "
             f"({_format_temperature(bounds.melting, unit)}): it would be solid; ullage does "
             "not model sublimation")

@@ -1272,7 +1272,8 @@ def _tank_dict(result, tank) -> dict:
     fp = tank.flash_point
     out["flash_point"] = None if fp is None else {
         "estimate_k": fp.estimate, "published_k": fp.published,
-        "published_source": fp.published_source, "note": fp.note}
+        "published_source": fp.published_source, "note": fp.note,
+        "flammable_whenever_liquid": fp.flammable_whenever_liquid}
     out["alarm_temperature_k"] = tank.alarm_temperature
     out["hazard_ratios"] = dict(tank.hazard_ratios)
 

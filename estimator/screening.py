@@ -209,8 +209,10 @@ class ScenarioResult:
 
 def sweep_temperatures(liq, low: float, high: float, n: int = 41) -> np.ndarray:
     """Temperatures for a sweep, kept inside the liquid range of every component. [K]"""
+    from .headspace import lowest_liquid_temperature
+
     components = liq.components
-    lo = max([low] + [(c.melting_point or 0.0) + 0.5 for c in components])
+    lo = max(low, lowest_liquid_temperature(components) + 0.5)
     hi = min([high] + [(c.critical_temperature or 2000.0) - 1.0 for c in components])
     if hi <= lo:
         raise InputError("sweep", "the range lies outside the liquid range of the liquid")
@@ -305,6 +307,9 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         text = f"Estimated flash point {flash.estimate - 273.15:.1f} degC"
         if flash.published is not None:
             text += f" (published {flash.published - 273.15:.1f} degC, {flash.published_source})"
+        if flash.flammable_whenever_liquid:
+            text += (", below the melting point (a subcooled-liquid extrapolation): the vapour "
+                     "over this liquid is flammable at every temperature at which it is liquid")
         findings.append(text + ".")
     if alarm_t is not None:
         findings.append(f"The headspace reaches {scenario.alarms.percent_lfl:g} % of the LFL "
