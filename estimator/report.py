@@ -848,6 +848,14 @@ def _tank_blocks(result, index, tank) -> list:
         if fp.published is not None:
             text += f" (published {_celsius(fp.published)}, {fp.published_source})"
         rows.append(["Estimated flash point (saturated vapour at the LFL)", text, fp.note])
+    bt = getattr(tank, "boiling", None)
+    if bt is not None:
+        text = _celsius(bt.temperature)
+        if bt.uncertainty is not None:
+            text += f" ± {bt.uncertainty:.1g} K"
+        if tank.near_boiling:
+            text += " — " + " and ".join(tank.near_boiling) + " case within 5 K: near boiling"
+        rows.append([f"Boiling temperature at {bt.pressure / 1000:.4g} kPa", text, bt.method])
     if tank.alarm_temperature is not None:
         rows.append([f"Liquid temperature at {result.scenario.alarms.percent_lfl:g} % LFL",
                      _celsius(tank.alarm_temperature), ""])
@@ -1274,6 +1282,11 @@ def _tank_dict(result, tank) -> dict:
         "estimate_k": fp.estimate, "published_k": fp.published,
         "published_source": fp.published_source, "note": fp.note,
         "flammable_whenever_liquid": fp.flammable_whenever_liquid}
+    bt = getattr(tank, "boiling", None)
+    out["boiling_temperature"] = None if bt is None else {
+        "temperature_k": bt.temperature, "temperature_c": bt.temperature - 273.15,
+        "pressure_pa": bt.pressure, "uncertainty_k": bt.uncertainty, "method": bt.method,
+        "near_boiling": list(tank.near_boiling)}
     out["alarm_temperature_k"] = tank.alarm_temperature
     out["hazard_ratios"] = dict(tank.hazard_ratios)
 
@@ -1543,6 +1556,12 @@ def results_csv(result, *, generated_at=None) -> str:
             if fp.published is not None:
                 row(item, "tank", substance="liquid", quantity="published flash point",
                     value=fp.published, unit="K", note=fp.published_source)
+        bt = getattr(tank, "boiling", None)
+        if bt is not None:
+            row(item, "tank", substance="liquid", quantity=f"boiling temperature at "
+                f"{bt.pressure / 1000:.4g} kPa", value=bt.temperature, unit="K",
+                note=(("near boiling: " + ", ".join(tank.near_boiling) + "; ")
+                      if tank.near_boiling else "") + bt.method)
         if tank.alarm_temperature is not None:
             row(item, "tank", substance="liquid", quantity=f"temperature at "
                 f"{al.percent_lfl:g} % LFL", value=tank.alarm_temperature, unit="K")

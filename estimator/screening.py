@@ -86,6 +86,11 @@ class TankResult:
     warnings : tuple of str
     monte_carlo : MonteCarloResult or None
         Probabilistic screening, when the scenario gives uncertain inputs.
+    boiling : BoilingTemperature or None
+        Boiling temperature (bubble point of a mixture) at the tank's pressure.
+    near_boiling : tuple of str
+        The cases ("stated", "worst") whose temperature lies within
+        `NEAR_BOILING` of it, or above it.
     """
 
     name: str
@@ -110,6 +115,8 @@ class TankResult:
     findings: tuple[str, ...]
     warnings: tuple[str, ...]
     monte_carlo: object = None
+    boiling: object = None
+    near_boiling: tuple[str, ...] = ()
 
     @property
     def exceeded(self) -> bool:
@@ -219,6 +226,45 @@ def sweep_temperatures(liq, low: float, high: float, n: int = 41) -> np.ndarray:
     return np.linspace(lo, hi, n)
 
 
+#: A liquid this close to its boiling temperature is flagged. [K] 5 K: within it,
+#: small warming builds pressure in a closed tank, pushes vapour out of vents, and
+#: a release flashes in part (common practice for a screening margin).
+NEAR_BOILING = 5.0
+
+
+def _boiling_findings(liquid, water, pressure, cases, notes):
+    """The tank's boiling temperature, the cases within `NEAR_BOILING` of it, findings."""
+    from .headspace import boiling_temperature
+
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            boiling = boiling_temperature("water" if water else liquid, pressure)
+    except UllageError as exc:
+        notes.append(f"boiling temperature not computed: {exc}")
+        return None, (), []
+    kind = "bubble point" if not water and not liquid.is_pure else "boiling point"
+    if water:
+        kind = "boiling point of water; the dilute dissolved compounds neglected"
+    spread = (f" ± {boiling.uncertainty:.2g} K" if boiling.uncertainty is not None else "")
+    out = [f"The liquid boils at {boiling.celsius:.1f} degC{spread} at this tank's "
+           f"{pressure / 1000:.4g} kPa ({kind})."]
+    near = []
+    for case, label, temperature in cases:
+        if temperature is None:
+            continue
+        gap = boiling.temperature - temperature
+        if gap <= NEAR_BOILING:
+            near.append(case)
+            where = (f"{gap:.1f} K below it" if gap > 0 else
+                     f"{-gap:.1f} K above it: the liquid boils")
+            out.append(f"Near boiling: {label} ({temperature - 273.15:.1f} degC) is {where}. "
+                       "Expect pressure build-up in a closed tank, vapour pushed out of the "
+                       "vents, and flashing of a release; the equilibrium headspace model "
+                       "does not cover a boiling liquid.")
+    return boiling, tuple(near), out
+
+
 def _findings(hs: Headspace, comparisons, alarms, label: str) -> list[str]:
     from .limits import format_ppm
 
@@ -315,6 +361,11 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         findings.append(f"The headspace reaches {scenario.alarms.percent_lfl:g} % of the LFL "
                         f"at {alarm_t - 273.15:.1f} degC.")
 
+    boiling, near_boiling, said = _boiling_findings(
+        hs.liquid, water, pressure, [("stated", "the stated temperature", t),
+                                     ("worst", "the worst-case temperature", worst_t)], notes)
+    findings += said
+
     inventory = filling = breathing = purge = None
     space = None
     if tank.get("volume") is not None:
@@ -367,6 +418,7 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         worst_additive_index=additive_index(_concentrations(worst), limits) if worst else None,
         hazard_ratios=ratios, flash_point=flash, alarm_temperature=alarm_t,
         inventory=inventory, filling=filling, breathing=breathing, purge=purge,
+        boiling=boiling, near_boiling=near_boiling,
         findings=tuple(findings),
         warnings=tuple(dict.fromkeys(list(hs.warnings) + notes
                                      + (list(worst.warnings) if worst else []))),
