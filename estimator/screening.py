@@ -529,21 +529,21 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
             outdoor = outdoor_spill(liq, t, od["receptors"], wind_speed=wind,
                                     stability=stability, terrain=od["terrain"],
                                     spilled_volume=volume, model=spill["model"],
-                                    pressure=pressure, **geometry)
+                                    pressure=pressure, **geometry,
+                                    lfl_alarm_percent=scenario.alarms.percent_lfl)
             area = None
-            from .outdoor import distance_to_concentration
-
             for lim in scenario.limits:
                 keys = [c.key for c in liq.components]
                 if lim.substance not in keys:
                     continue
-                j = keys.index(lim.substance)
-                g = outdoor.emission_rate[j]
-                c_lim = lim.volume_fraction * pressure * liq.molar_masses[j] / (8.314462618 * t)
-                d = distance_to_concentration(g, wind, c_lim, stability, od["terrain"])
-                distances.append((lim.label, d.distance, d.note))
+                d, note = outdoor.distance_above(lim.volume_fraction, keys.index(lim.substance))
+                from .spill import MAX_OUTDOOR_DISTANCE
+
+                d = 0.0 if d is None else (None if d >= MAX_OUTDOOR_DISTANCE else d)
+                distances.append((lim.label, d, note))
             findings.append(f"Source strength {1000 * outdoor.emission_rate.sum():.3g} g/s "
                             f"(initial evaporation rate), stability class {stability}.")
+            findings += _outdoor_lfl_findings(outdoor)
         rates = {}
         area_for_rates = area if area is not None else None
         if area_for_rates is None:
@@ -593,6 +593,34 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
         indoor=indoor, outdoor=outdoor, initial_rates=rates, exposures=tuple(exposures),
         distances=tuple(distances), findings=tuple(findings),
         warnings=tuple(dict.fromkeys(notes)))
+
+
+def _outdoor_lfl_findings(outdoor) -> list[str]:
+    """Downwind flammability verdicts: distances to the LFL and the LFL alarm, the
+    saturation cap and the dense-gas criterion, in plain words."""
+    out = []
+    alarm = outdoor.lfl_alarm_percent
+    if np.any(np.isfinite(outdoor.lower_flammability_limits)):
+        for what, d, flags in (("the LFL", outdoor.distance_to_lfl, outdoor.lfl_flags),
+                               (f"{alarm:g} % of the LFL (the alarm level)",
+                                outdoor.distance_to_lfl_alarm, outdoor.lfl_alarm_flags)):
+            if d is None:
+                out.append(f"Downwind, the centreline is below {what} from the pool edge "
+                           f"({outdoor.pool_edge:.2g} m) on.")
+            else:
+                said = f" ({'; '.join(flags)})" if flags else ""
+                out.append(f"Downwind, the centreline is at or above {what} out to about "
+                           f"{d:,.0f} m{said}: remove ignition sources within that distance.")
+    if outdoor.capped_until is not None:
+        out.append(f"Near the pool, out to about {outdoor.capped_until:,.0f} m, the "
+                   "centreline is capped at the saturated vapour concentration over the "
+                   "pool (the most the pool can give).")
+    if outdoor.dense_gas is not None:
+        dg = outdoor.dense_gas
+        out.append(f"Britter-McQuaid dense-gas criterion {dg.value:.2g} (threshold "
+                   f"{dg.threshold:g}): " + ("density effects matter; use a dense-gas model."
+                                             if dg.dense else "density effects do not matter."))
+    return out
 
 
 def _density(liq) -> float:
