@@ -736,6 +736,10 @@ def screening_validity(wind_speed, distance, dense_gas=None) -> tuple[str, ...]:
     """
     u = np.asarray(wind_speed, dtype=float)
     x = np.asarray(distance, dtype=float)
+    if dense_gas is not None and not isinstance(dense_gas, DenseGasCriterion):
+        raise InputError("dense_gas", "give the Britter-McQuaid criterion of the release "
+                         "(estimator.outdoor.pool_source_criterion); a density ratio alone "
+                         "does not say whether density effects matter")
     notes = []
     if np.any(u < _CALM_WIND):
         notes.append(f"wind under {_CALM_WIND:g} m/s (near-calm): the plume meanders and "

@@ -194,3 +194,12 @@ def test_scenario_reports_lfl_distances_everywhere():
     assert "distance to the LFL alarm (10 % LFL)" in results_csv(result)
     plot = _spill_plots(result, 0, spill)[0]
     assert "logarithmic x axis" in plot.svg and "LFL alarm" in plot.svg
+
+
+def test_screening_validity_refuses_a_bare_density_ratio():
+    """The old density-ratio argument is refused with what to give instead."""
+    from estimator.outdoor import screening_validity
+
+    with pytest.raises(InputError, match="pool_source_criterion") as info:
+        screening_validity(2.0, 200.0, 3.2)
+    assert info.value.field == "dense_gas"
