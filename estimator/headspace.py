@@ -659,7 +659,8 @@ def _subcooled_lfl_temperature(sub, pressure: float) -> float:
     target = sub.lower_flammability_limit * pressure
     tm = sub.melting_point
     lo = tm - _SUBCOOLED_FLASH_SEARCH
-    correlation = vapor_pressure_estimate(sub, tm, field="temperature")
+    # the correlation the subcooled estimate uses (chosen 0.5 K above the melting point)
+    correlation = vapor_pressure_estimate(sub, tm - 1e-3, field="temperature", subcooled=True)
     chosen = next(c for c in sub.correlations if c.method == correlation.method)
 
     def f(t):
