@@ -818,9 +818,12 @@ def boiling_temperature(liquid, pressure, *, basis="mole",
         method = (f"{what} moved to {p_total / 1000:.4g} kPa: the temperature at which the "
                   f"saturated vapour pressure ({e.description}, {e.source}) equals it")
     else:
-        method = (f"{what} by Raoult's law with activity coefficients "
-                  f"({liq.activity_source}): sum of x_i gamma_i p_sat,i(T) = "
+        method = (f"{what} by Raoult's law, {liq.activity_source}: sum of x_i gamma_i "
+                  f"p_sat,i(T) = "
                   f"{p_total / 1000:.4g} kPa; vapour pressures by "
                   + ", ".join(f"{c.name} {e.description}" for c, e in
                               zip(liq.components, estimates)))
+    if u_t is not None:
+        method += ("; its uncertainty carries the vapour-pressure methods' stated "
+                   "uncertainty (validated over 0-60 degC) through the slope of the curve")
     return BoilingTemperature(t_b, p_total, method, u_t, u_p, tuple(dict.fromkeys(notes)))
