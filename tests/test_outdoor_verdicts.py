@@ -203,3 +203,18 @@ def test_screening_validity_refuses_a_bare_density_ratio():
     with pytest.raises(InputError, match="pool_source_criterion") as info:
         screening_validity(2.0, 200.0, 3.2)
     assert info.value.field == "dense_gas"
+
+
+def test_log_distance_axis_places_decades_evenly():
+    """On the logarithmic x axis, 10 m sits halfway between 1 m and 100 m (common
+    practice for a log scale), and the decades are labelled."""
+    import re
+
+    from estimator.plots import line_plot_svg
+
+    svg = line_plot_svg([1.0, 10.0, 100.0], {"c": [3.0, 2.0, 1.0]}, x_label="x [m]",
+                        y_label="ppm", title="t", log_x=True)
+    path = re.search(r'<path d="M([^"]+)"', svg).group(1)
+    xs = [float(p.split(",")[0]) for p in path.split(" L")]
+    assert xs[1] - xs[0] == pytest.approx(xs[2] - xs[1], abs=0.01)
+    assert "logarithmic x axis" in svg and ">100<" in svg
