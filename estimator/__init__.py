@@ -37,7 +37,7 @@ from .vapor import (
     vapor_pressure_estimate,
 )
 from .mixtures import Liquid, liquid
-from .headspace import headspace, temperature_for_concentration
+from .headspace import boiling_temperature, headspace, temperature_for_concentration
 from .evaporation import evaporation_rate
 from .indoor import well_mixed_room
 from .scenario import load_scenario, loads_scenario
@@ -59,6 +59,7 @@ __all__ = [
     "liquid",
     "headspace",
     "temperature_for_concentration",
+    "boiling_temperature",
     "evaporation_rate",
     "well_mixed_room",
     "load_scenario",

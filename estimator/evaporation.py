@@ -1216,14 +1216,15 @@ def _gamma_function(activity_coefficients, n: int):
 def _component_conductances(subs, t, area, wind, model, pressure):
     """Per component: vapour pressure [Pa], rate per pascal of driving force
     [kg/(s Pa)], and notes."""
-    from .vapor import vapor_pressure_estimate
+    from .vapor import component_vapor_pressure_estimates
 
     names = [s.name for s in subs]
     notes = []
     p_sat = np.empty(len(subs))
     per_pascal = np.empty(len(subs))
+    estimates = component_vapor_pressure_estimates(subs, t, "temperature")
     for i, sub in enumerate(subs):
-        estimate = vapor_pressure_estimate(sub, t, field="temperature")
+        estimate = estimates[i]
         p_sat[i] = float(estimate.pressure)
         notes += list(estimate.warnings) + list(sub.notes)
         k, _, _, _, more = _mass_transfer(sub, np.asarray(t), np.asarray(area),

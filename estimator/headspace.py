@@ -23,7 +23,12 @@ from .constants import (
 )
 from .errors import InputError, OutOfRangeError
 from .mixtures import Liquid, liquid as make_liquid
-from .vapor import VaporPressureEstimate, vapor_pressure_estimate
+from .vapor import (
+    SUBCOOLED_LIMIT,
+    VaporPressureEstimate,
+    component_vapor_pressure_estimates,
+    vapor_pressure_estimate,
+)
 
 __all__ = [
     "Headspace",
@@ -31,6 +36,8 @@ __all__ = [
     "temperature_for_concentration",
     "temperature_for_percent_lfl",
     "estimated_flash_point",
+    "boiling_temperature",
+    "BoilingTemperature",
     "water_headspace",
     "FlashPointEstimate",
     "barometric_pressure",
@@ -374,7 +381,7 @@ def _scalar(a):
 
 
 def _estimates(liq: Liquid, t, field) -> list[VaporPressureEstimate]:
-    return [vapor_pressure_estimate(c, t, field=field) for c in liq.components]
+    return component_vapor_pressure_estimates(liq.components, t, field)
 
 
 def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole",
@@ -559,8 +566,22 @@ class AboveAtLowestTemperature(OutOfRangeError):
         super().__init__(field, message)
 
 
+def lowest_liquid_temperature(components) -> float:
+    """Lowest temperature a liquid's vapour pressure is computed at. [K]
+
+    A pure liquid's melting point; for a mixture, the lowest temperature at which
+    some component is above its own melting point and none is more than
+    `estimator.vapor.SUBCOOLED_LIMIT` below its own (a subcooled component). 0
+    where no melting point is known.
+    """
+    melting = [c.melting_point or 0.0 for c in components]
+    if len(melting) < 2:
+        return melting[0] if melting else 0.0
+    return max(min(melting), max(melting) - SUBCOOLED_LIMIT)
+
+
 def _liquid_range(liq: Liquid) -> tuple[float, float]:
-    lo = max([c.melting_point or 0.0 for c in liq.components] + [120.0])
+    lo = max([lowest_liquid_temperature(liq.components)] + [120.0])
     hi = min([c.critical_temperature or 2000.0 for c in liq.components])
     return lo + 1e-6, hi - 1e-6
 
@@ -664,12 +685,18 @@ class FlashPointEstimate:
         Published closed-cup flash point of a pure liquid. [K]
     published_source : str
     note : str
+    flammable_whenever_liquid : bool
+        True for a pure liquid whose LFL temperature lies below its melting point:
+        `estimate` is then the subcooled-liquid estimate (a temperature at which
+        the liquid does not exist), and the vapour over the liquid is flammable at
+        every temperature at which it is liquid.
     """
 
     estimate: float
     published: float | None
     published_source: str
     note: str
+    flammable_whenever_liquid: bool = False
 
     @property
     def difference(self) -> float | None:
@@ -691,14 +718,213 @@ def estimated_flash_point(liquid, pressure=STANDARD_ATMOSPHERE, *, basis="mole",
     FlashPointEstimate
     """
     liq = make_liquid(liquid, basis, activity_coefficients)
-    estimate = temperature_for_percent_lfl(liq, 100.0, pressure)
+    note = ("temperature at which the saturated vapour reaches the LFL (Le Chatelier "
+            "for mixtures); closed-cup flash points usually lie a few kelvin higher")
+    whenever_liquid = False
+    try:
+        estimate = temperature_for_percent_lfl(liq, 100.0, pressure)
+    except AboveAtLowestTemperature:
+        if not liq.is_pure:
+            raise
+        estimate = _subcooled_lfl_temperature(liq.components[0], _check_pressure(pressure))
+        whenever_liquid = True
+        note = (f"the vapour over the liquid is flammable at every temperature at which it "
+                f"is liquid: the saturated vapour reaches the LFL at {estimate - 273.15:.1f} "
+                f"degC, below the melting point ({liq.components[0].melting_point - 273.15:.1f}"
+                " degC), by the vapour-pressure correlation extrapolated to the subcooled "
+                "liquid (an extrapolation, a temperature at which this liquid does not "
+                "exist); closed-cup flash points usually lie a few kelvin higher")
     published, source = None, ""
     if liq.is_pure:
         sub = liq.components[0]
         published = sub.flash_point
         source = sub.sources.get("flash_point", "")
     return FlashPointEstimate(
-        estimate=estimate, published=published, published_source=source,
-        note="temperature at which the saturated vapour reaches the LFL (Le Chatelier "
-             "for mixtures); closed-cup flash points usually lie a few kelvin higher",
+        estimate=estimate, published=published, published_source=source, note=note,
+        flammable_whenever_liquid=whenever_liquid,
     )
+
+
+#: How far below the melting point the LFL temperature of a pure liquid is sought on
+#: the extrapolated (subcooled) vapour-pressure curve. [K] Twice `SUBCOOLED_LIMIT`:
+#: the result only marks where the flammable range would start; the liquid freezes
+#: first.
+_SUBCOOLED_FLASH_SEARCH = 2.0 * SUBCOOLED_LIMIT
+
+
+def _subcooled_lfl_temperature(sub, pressure: float) -> float:
+    """Temperature at which the extrapolated vapour pressure of a pure liquid below its
+    melting point gives the LFL. [K]"""
+    from scipy.optimize import brentq
+
+    target = sub.lower_flammability_limit * pressure
+    tm = sub.melting_point
+    lo = tm - _SUBCOOLED_FLASH_SEARCH
+    # the correlation the subcooled estimate uses (chosen 0.5 K above the melting point)
+    correlation = vapor_pressure_estimate(sub, tm - 1e-3, field="temperature", subcooled=True)
+    chosen = next(c for c in sub.correlations if c.method == correlation.method)
+
+    def f(t):
+        return math.log(float(chosen(t)) / target)
+
+    if f(lo) >= 0.0:
+        raise AboveAtLowestTemperature(
+            "temperature", f"{sub.name}: the extrapolated vapour pressure is above the LFL "
+            f"even {_SUBCOOLED_FLASH_SEARCH:g} K below the melting point; the vapour over "
+            "the liquid is flammable at every temperature at which it is liquid", tm)
+    return float(brentq(f, lo, tm, xtol=1e-6, maxiter=200))
+
+
+@dataclass(frozen=True)
+class BoilingTemperature:
+    """The temperature at which a liquid boils at a given pressure.
+
+    ``float(result)`` is the temperature in kelvin.
+
+    Attributes
+    ----------
+    temperature : float
+        Boiling temperature (pure liquid) or bubble point (mixture). [K]
+    pressure : float
+        Absolute pressure it boils at. [Pa]
+    method : str
+        How it was found, in words.
+    uncertainty : float or None
+        Stated uncertainty of the temperature: the stated relative uncertainty of
+        the vapour pressure carried through the slope of the vapour-pressure curve,
+        u_T = u_p / (d ln p / dT); None where the method was not validated. [K]
+    relative_uncertainty : float or None
+        The stated relative uncertainty of the vapour pressure it rests on. [-]
+    warnings : tuple of str
+    """
+
+    temperature: float
+    pressure: float
+    method: str
+    uncertainty: float | None
+    relative_uncertainty: float | None
+    warnings: tuple[str, ...] = ()
+
+    def __float__(self) -> float:
+        return self.temperature
+
+    @property
+    def celsius(self) -> float:
+        """The temperature in degrees Celsius. [degC]"""
+        return self.temperature - 273.15
+
+
+def _bubble_pressure(liq: Liquid, temperature: float, methods=None):
+    """Σ x_i γ_i p_sat,i(T) [Pa] and the vapour-pressure estimates (each component by
+    the given method, or the best one)."""
+    if methods is None:
+        estimates = component_vapor_pressure_estimates(liq.components, temperature,
+                                                       "temperature")
+    else:
+        estimates = [vapor_pressure_estimate(c, temperature, m, subcooled=not liq.is_pure)
+                     for c, m in zip(liq.components, methods)]
+    p_sat = np.array([float(e.pressure) for e in estimates])
+    gamma = np.asarray(liq.activity_coefficients_at(temperature), dtype=float).reshape(-1)
+    return float(np.sum(liq.mole_fractions * gamma * p_sat)), estimates
+
+
+def boiling_temperature(liquid, pressure, *, basis="mole",
+                        activity_coefficients=None) -> BoilingTemperature:
+    r"""Temperature at which a liquid boils at a pressure: boiling point or bubble point.
+
+    A pure liquid boils where its saturated vapour pressure equals the pressure,
+    :math:`p_\mathrm{sat}(T) = P` (the normal boiling point moved to that
+    pressure); a mixture starts to boil at its bubble point,
+
+    .. math:: \sum_i x_i \gamma_i(T) \, p_{\mathrm{sat},i}(T) = P
+
+    (Raoult's law with the liquid's activity coefficients: entered, ideal, or the
+    UNIFAC estimate at each temperature). Each vapour pressure by the best method
+    the component has (`estimator.vapor.vapor_pressure_estimate`), subcooled
+    components of a mixture included. Solved by Brent's method on ln p between
+    the lowest liquid temperature and the lowest critical temperature.
+
+    Parameters
+    ----------
+    liquid : Liquid, Substance, str or mapping
+        As for `headspace`.
+    pressure : float
+        Absolute pressure: the site's barometric pressure, plus any gauge pressure
+        of a closed tank. [Pa]
+    basis : str
+        Basis of a mapping's fractions: "mole", "mass" or "volume".
+    activity_coefficients : mapping or array_like, optional
+        For Raoult's law; 1 (ideal solution) where not given.
+
+    Returns
+    -------
+    BoilingTemperature
+
+    Raises
+    ------
+    InputError
+        For a pressure that is not a number above 0 (field "pressure"), or one the
+        liquid does not boil at between its melting and critical temperatures.
+
+    References
+    ----------
+    Smith, J. M., Van Ness, H. C. & Abbott, M. M., Introduction to Chemical
+    Engineering Thermodynamics, VLE chapter (bubble-point calculation, modified
+    Raoult's law).
+
+    Examples
+    --------
+    Water at the 83.4 kPa of a site 1609 m above sea level (IAPWS-95: 94.62 degC):
+
+    >>> round(boiling_temperature("water", 83431.0).celsius, 1)
+    94.7
+    """
+    from scipy.optimize import brentq
+
+    liq = make_liquid(liquid, basis, activity_coefficients)
+    p_total = _check_pressure(pressure)
+    lo, hi = _liquid_range(liq)
+
+    def f(t):
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            return math.log(_bubble_pressure(liq, t)[0] / p_total)
+
+    what = "boiling point" if liq.is_pure else "bubble point"
+    if f(hi) < 0.0:
+        raise OutOfRangeError("pressure", f"{p_total / 1000:g} kPa: the liquid does not boil "
+                              "below the critical temperature (of a component) at this "
+                              "pressure; is the pressure absolute, in pascals?")
+    if f(lo) > 0.0:
+        raise OutOfRangeError("pressure", f"{p_total / 1000:g} kPa is below the vapour "
+                              f"pressure of the liquid at {lo - 273.15:.1f} degC, the lowest "
+                              "temperature it is liquid at: it would boil (or sublimate) at "
+                              "every temperature at which it is liquid")
+    t_b = float(brentq(f, lo, hi, xtol=1e-7, rtol=1e-12, maxiter=200))
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        _, estimates = _bubble_pressure(liq, t_b)
+    notes = list(liq.warnings) + [w for e in estimates for w in e.warnings]
+    methods = [e.method for e in estimates]
+    up, down = min(t_b + 0.01, hi), max(t_b - 0.01, lo)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        slope = math.log(_bubble_pressure(liq, up, methods)[0]
+                         / _bubble_pressure(liq, down, methods)[0]) / (up - down)  # [1/K]
+    relative = [e.relative_uncertainty for e in estimates]
+    u_p = None if any(r is None for r in relative) else max(relative)
+    u_t = None if u_p is None or slope <= 0 else math.log1p(u_p) / slope
+    if liq.is_pure:
+        e = estimates[0]
+        method = (f"{what} moved to {p_total / 1000:.4g} kPa: the temperature at which the "
+                  f"saturated vapour pressure ({e.description}, {e.source}) equals it")
+    else:
+        method = (f"{what} by Raoult's law, {liq.activity_source}: sum of x_i gamma_i "
+                  f"p_sat,i(T) = "
+                  f"{p_total / 1000:.4g} kPa; vapour pressures by "
+                  + ", ".join(f"{c.name} {e.description}" for c, e in
+                              zip(liq.components, estimates)))
+    if u_t is not None:
+        method += ("; its uncertainty carries the vapour-pressure methods' stated "
+                   "uncertainty (validated over 0-60 degC) through the slope of the curve")
+    return BoilingTemperature(t_b, p_total, method, u_t, u_p, tuple(dict.fromkeys(notes)))

@@ -310,9 +310,15 @@ class _Bounds:
 def _bounds(liq: Liquid) -> _Bounds:
     melting, melting_name = -math.inf, ""
     critical, critical_name = math.inf, ""
+    from .headspace import lowest_liquid_temperature
+
     for c in liq.components:
         if c.melting_point is not None and c.melting_point > melting:
             melting, melting_name = c.melting_point, c.name
+    if len(liq.components) > 1 and melting_name:
+        # components of a mixture may be subcooled (estimator.vapor.SUBCOOLED_LIMIT)
+        melting = lowest_liquid_temperature(liq.components)
+    for c in liq.components:
         if c.critical_temperature is not None and c.critical_temperature < critical:
             critical, critical_name = c.critical_temperature, c.name
     return _Bounds(melting, melting_name, critical, critical_name)
@@ -357,22 +363,27 @@ def _saturation_pressure(sub, t: np.ndarray):
     numpy call); otherwise each temperature gets the first correlation whose range
     covers it, as `estimator.vapor.vapor_pressure_estimate` chooses for a single
     temperature, and temperatures no correlation covers get the first one, flagged
-    as extrapolated.
+    as extrapolated. Below the melting point (a subcooled component of a mixture)
+    the correlation is chosen as at 0.5 K above the melting point and extrapolated,
+    as `vapor_pressure_estimate` does, and flagged as extrapolated.
     """
     correlations = sub.correlations
     first = correlations[0]
+    tm = sub.melting_point
+    subcooled = np.zeros(t.shape, dtype=bool) if tm is None else t < tm
+    t_pick = np.where(subcooled, (tm or 0.0) + 0.5, t)
     lo = -math.inf if first.tmin is None else first.tmin
     hi = math.inf if first.tmax is None else first.tmax
-    if t.size and lo <= t.min() and t.max() <= hi:
+    if t.size and lo <= t_pick.min() and t_pick.max() <= hi:
         return (np.asarray(first(t), dtype=float), np.zeros(t.shape, dtype=np.int8),
-                np.zeros(t.shape, dtype=bool))
+                subcooled)
     pressure = np.empty(t.shape)
     which = np.zeros(t.shape, dtype=np.int8)
     remaining = np.ones(t.shape, dtype=bool)
     for index, correlation in enumerate(correlations):
         lo = -math.inf if correlation.tmin is None else correlation.tmin
         hi = math.inf if correlation.tmax is None else correlation.tmax
-        chosen = remaining & (t >= lo) & (t <= hi)
+        chosen = remaining & (t_pick >= lo) & (t_pick <= hi)
         if chosen.any():
             pressure[chosen] = correlation(t[chosen])
             which[chosen] = index
@@ -381,7 +392,7 @@ def _saturation_pressure(sub, t: np.ndarray):
             break
     if remaining.any():
         pressure[remaining] = first(t[remaining])
-    return pressure, which, remaining
+    return pressure, which, remaining | subcooled
 
 
 @dataclass(frozen=True)
@@ -1672,6 +1683,11 @@ def _temperature_message(code: int, value: float, unit: str, bounds: _Bounds,
     if code == 3:
         return (f"{shown} is above the critical temperature of {bounds.critical_name}{whose} "
                 f"({_format_temperature(bounds.critical, unit)}): no liquid can exist there")
+    if not liq.is_pure:
+        return (f"{shown} is below {_format_temperature(bounds.melting, unit)}, the lowest "
+                "temperature computed for this mixture: a component is taken as a subcooled "
+                "liquid at most 25 K below its own melting point, and some component must "
+                f"be above its own (the highest melting point is {bounds.melting_name}'s)")
     return (f"{shown} is below the melting point of {bounds.melting_name}{whose} "
             f"({_format_temperature(bounds.melting, unit)}): it would be solid; ullage does "
             "not model sublimation")

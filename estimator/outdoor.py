@@ -27,6 +27,7 @@ from typing import NamedTuple
 
 import numpy as np
 
+from .constants import GAS_CONSTANT, MOLAR_MASS_AIR, STANDARD_GRAVITY
 from .errors import InputError, UllageWarning
 
 __all__ = [
@@ -45,6 +46,10 @@ __all__ = [
     "EndpointDistance",
     "wind_speed_at_height",
     "screening_validity",
+    "BRITTER_MCQUAID_CONTINUOUS",
+    "britter_mcquaid_continuous",
+    "DenseGasCriterion",
+    "pool_source_criterion",
 ]
 
 #: Pasquill-Gifford classes, very unstable (A) to moderately stable (F).
@@ -119,9 +124,11 @@ WIND_PROFILE_EXPONENTS = {
 #: 1 m/s, common practice: in near-calm the plume meanders and u -> 0 makes C blow up.
 _CALM_WIND = 1.0
 
-#: Vapour-to-air density ratio above which the release is flagged as dense. [-]
-#: A simple screening threshold chosen here; see `screening_validity`.
-_DENSE_RATIO = 1.5
+#: Britter & McQuaid's (1988) threshold for a continuous release: at or above it,
+#: density effects on the dispersion matter. [-] Workbook on the Dispersion of Dense
+#: Gases, HSE Contract Research Report 17/1988; also CCPS (1999), Guidelines for
+#: Consequence Analysis of Chemical Releases.
+BRITTER_MCQUAID_CONTINUOUS = 0.15
 
 
 # --------------------------------------------------------------------- helpers
@@ -545,19 +552,165 @@ def wind_speed_at_height(speed, height, reference_height=10.0, stability="D",
     return float(result) if result.ndim == 0 else result
 
 
-def screening_validity(wind_speed, distance, vapour_density_ratio=None) -> tuple[str, ...]:
+def britter_mcquaid_continuous(reduced_gravity, volume_rate, wind_speed,
+                               source_dimension=None) -> float:
+    r"""Britter & McQuaid's criterion for density effects in a continuous release.
+
+    .. math:: \frac{(g_0' q_0 / D)^{1/3}}{U}, \quad
+              g_0' = g \frac{\rho_0 - \rho_a}{\rho_a}, \quad
+              D = \sqrt{q_0 / U}
+
+    Density effects on the dispersion matter where it is at least
+    `BRITTER_MCQUAID_CONTINUOUS` (0.15); below, the release disperses as a
+    passive (neutrally buoyant) plume.
+
+    Parameters
+    ----------
+    reduced_gravity : float
+        g0', from the density rho_0 of the released gas (here the saturated
+        air-vapour mixture over the pool) and that of the air rho_a; at most 0
+        means not denser than air. [m/s2]
+    volume_rate : float
+        Continuous volume release rate q0 of that gas, above 0. [m3/s]
+    wind_speed : float
+        U, at 10 m, above 0. [m/s]
+    source_dimension : float, optional
+        D. By default the workbook's characteristic length of a continuous
+        release, (q0 / U)^(1/2). [m]
+
+    Returns
+    -------
+    float
+        The criterion's value; 0 for a release not denser than air. [-]
+
+    References
+    ----------
+    Britter, R. E. & McQuaid, J. (1988), Workbook on the Dispersion of Dense Gases,
+    HSE Contract Research Report 17/1988, Health and Safety Executive, Sheffield;
+    CCPS (1999), Guidelines for Consequence Analysis of Chemical Releases, AIChE,
+    section on dense-gas dispersion.
+
+    Examples
+    --------
+    >>> round(britter_mcquaid_continuous(4.28, 55.6, 10.9), 3)
+    0.433
+    """
+    g = float(reduced_gravity)
+    q = float(_positive_array("volume release rate", volume_rate, "m3/s"))
+    u = float(_positive_array("wind_speed", wind_speed, "m/s"))
+    if not math.isfinite(g):
+        raise InputError("reduced gravity", "must be a finite number in m/s2")
+    d = math.sqrt(q / u) if source_dimension is None else float(
+        _positive_array("source dimension", source_dimension, "m"))
+    if g <= 0.0:
+        return 0.0
+    return (g * q / d) ** (1.0 / 3.0) / u
+
+
+@dataclass(frozen=True)
+class DenseGasCriterion:
+    """Britter & McQuaid's criterion applied to the vapour-air mixture over a pool.
+
+    Attributes
+    ----------
+    value : float
+        (g0' q0 / D)^(1/3) / U. [-]
+    threshold : float
+        `BRITTER_MCQUAID_CONTINUOUS`. [-]
+    dense : bool
+        Whether density effects matter (value at or above the threshold).
+    mixture_density, air_density : float
+        Saturated air-vapour mixture over the pool, and air, at the pool
+        temperature and pressure. [kg/m3]
+    vapour_fraction : float
+        Vapour in the saturated mixture. [volume fraction]
+    reduced_gravity : float
+        g0'. [m/s2]
+    volume_rate : float
+        q0, of the saturated mixture. [m3/s]
+    source_dimension : float
+        D = (q0 / U)^(1/2). [m]
+    """
+
+    value: float
+    threshold: float
+    dense: bool
+    mixture_density: float
+    air_density: float
+    vapour_fraction: float
+    reduced_gravity: float
+    volume_rate: float
+    source_dimension: float
+
+    @property
+    def statement(self) -> str:
+        """The verdict in words."""
+        verdict = ("density effects matter: near the pool the vapour slumps and spreads "
+                   "along the ground as a dense gas, which this neutral-density plume does "
+                   "not represent; use a dense-gas model" if self.dense else
+                   "density effects do not matter; the plume disperses passively")
+        return (f"Britter-McQuaid criterion for a continuous release (g0' q0 / D)^(1/3) / U "
+                f"= {self.value:.2g} (threshold {self.threshold:g}; saturated vapour-air "
+                f"mixture over the pool {self.mixture_density:.3g} kg/m3 against air "
+                f"{self.air_density:.3g} kg/m3, q0 = {self.volume_rate:.2g} m3/s, D = "
+                f"{self.source_dimension:.2g} m): {verdict}")
+
+
+def pool_source_criterion(vapour_molar_rate, vapour_fraction, vapour_molar_mass,
+                          temperature, pressure, wind_speed) -> DenseGasCriterion:
+    """Britter & McQuaid's criterion for the vapour leaving a pool.
+
+    The source gas is the saturated air-vapour mixture over the pool: vapour at
+    its saturated volume fraction y_sat (Raoult's law over the liquid) in air, of
+    density rho_0 = P (y_sat M_v + (1 - y_sat) M_air) / (R T), released at
+    q0 = n R T / (P y_sat), where n is the evaporation rate in moles.
+
+    Parameters
+    ----------
+    vapour_molar_rate : float
+        Evaporation rate, above 0. [mol/s]
+    vapour_fraction : float
+        Saturated vapour fraction over the pool, above 0 and at most 1. [-]
+    vapour_molar_mass : float
+        Mean molar mass of the evaporating vapour. [kg/mol]
+    temperature : float
+        Pool and air temperature. [K]
+    pressure : float
+        Ambient pressure. [Pa]
+    wind_speed : float
+        At 10 m. [m/s]
+
+    Returns
+    -------
+    DenseGasCriterion
+    """
+    y = float(vapour_fraction)
+    if not (math.isfinite(y) and 0.0 < y <= 1.0):
+        raise InputError("vapour fraction", "must be above 0 and at most 1")
+    n = float(_positive_array("evaporation rate", vapour_molar_rate, "mol/s"))
+    t = float(_positive_array("temperature", temperature, "K"))
+    p = float(_positive_array("pressure", pressure, "Pa"))
+    molar_volume = GAS_CONSTANT * t / p
+    rho_air = MOLAR_MASS_AIR / molar_volume
+    rho_mix = (y * float(vapour_molar_mass) + (1.0 - y) * MOLAR_MASS_AIR) / molar_volume
+    g0 = STANDARD_GRAVITY * (rho_mix - rho_air) / rho_air
+    q0 = n * molar_volume / y
+    u = float(_positive_array("wind_speed", wind_speed, "m/s"))
+    value = britter_mcquaid_continuous(g0, q0, u)
+    return DenseGasCriterion(value, BRITTER_MCQUAID_CONTINUOUS,
+                             value >= BRITTER_MCQUAID_CONTINUOUS, rho_mix, rho_air, y, g0,
+                             q0, math.sqrt(q0 / u))
+
+
+def screening_validity(wind_speed, distance, dense_gas=None) -> tuple[str, ...]:
     """Plain statements of where the screening plume does not apply to a case.
 
     Checks:
 
     - wind under about 1 m/s (near-calm: the plume meanders, C ~ 1/u blows up);
     - distances under 100 m or beyond 10 km (outside Briggs's fitted range);
-    - vapour denser than air by a ratio above 1.5 (a simple screening threshold
-      chosen here; the proper test is a Richardson-number criterion, e.g. Britter
-      & McQuaid (1988), Workbook on the Dispersion of Dense Gases, HSE Contract
-      Research Report 17/1988). Pass the density ratio of the vapour-air mixture
-      leaving the source if known; the pure vapour's molar-mass ratio M / M_air is
-      the conservative choice;
+    - density effects, where Britter & McQuaid's criterion for a continuous
+      release says they matter (`pool_source_criterion`), with its value;
     - always: buildings, terrain and other obstacles are not modelled, and the
       result is a roughly 10-minute average on the plume axis.
 
@@ -567,8 +720,8 @@ def screening_validity(wind_speed, distance, vapour_density_ratio=None) -> tuple
         Wind speed used. [m/s]
     distance : float or array_like
         Distance(s) of interest. [m]
-    vapour_density_ratio : float, optional
-        Density of the released vapour (or vapour-air mixture) over that of air. [-]
+    dense_gas : DenseGasCriterion, optional
+        The criterion for this release; warned about only where it is dense.
 
     Returns
     -------
@@ -577,23 +730,23 @@ def screening_validity(wind_speed, distance, vapour_density_ratio=None) -> tuple
 
     Examples
     --------
-    >>> notes = screening_validity(0.5, 50.0, 3.2)
+    >>> notes = screening_validity(0.5, 50.0)
     >>> len(notes)
-    4
+    3
     """
     u = np.asarray(wind_speed, dtype=float)
     x = np.asarray(distance, dtype=float)
+    if dense_gas is not None and not isinstance(dense_gas, DenseGasCriterion):
+        raise InputError("dense_gas", "give the Britter-McQuaid criterion of the release "
+                         "(estimator.outdoor.pool_source_criterion); a density ratio alone "
+                         "does not say whether density effects matter")
     notes = []
     if np.any(u < _CALM_WIND):
         notes.append(f"wind under {_CALM_WIND:g} m/s (near-calm): the plume meanders and "
                      "pools, and the Gaussian plume model does not apply; treat the "
                      "result as unreliable and consider a puff or dense-gas model")
-    if vapour_density_ratio is not None:
-        ratio = float(vapour_density_ratio)
-        if ratio > _DENSE_RATIO:
-            notes.append(f"the vapour is {ratio:.2g} times as dense as air: near the source "
-                         "it slumps and spreads along the ground as a dense gas, which this "
-                         "neutral-density plume does not represent; use a dense-gas model")
+    if dense_gas is not None and dense_gas.dense:
+        notes.append(dense_gas.statement)
     if np.any(x < BRIGGS_RANGE[0]):
         notes.append("distances under 100 m lie outside the range of the dispersion "
                      "coefficients; near the source the result depends on the source size "

@@ -245,7 +245,7 @@ def _legend(out: list, rows, left: float, legend_top: float, font: float) -> Non
 
 def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
                   hlines: dict | None = None, log_y: bool = False, width: int = 720,
-                  height: int = 360) -> str:
+                  height: int = 360, log_x: bool = False) -> str:
     """A line plot as a self-contained SVG document.
 
     Parameters
@@ -266,6 +266,9 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
         concentrations that span decades.
     width, height : int
         Size. [px]
+    log_x : bool
+        Logarithmic x axis (for downwind distances from a pool's edge to
+        kilometres); x values at or below zero are left out.
 
     Returns
     -------
@@ -305,12 +308,27 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
     if x_hi <= x_lo:
         pad = abs(x_lo) * 0.5 or 1.0
         x_lo, x_hi = x_lo - pad, x_hi + pad
-    x_ticks = nice_ticks(x_lo, x_hi, 7)
-    x_step = x_ticks[1] - x_ticks[0] if len(x_ticks) > 1 else 1.0
-    x_ticks = [t for t in x_ticks if x_lo - 1e-9 * abs(x_step) <= t <= x_hi + 1e-9 * abs(x_step)]
+    positive_x = finite_x[finite_x > 0]
+    if log_x and positive_x.size >= 2 and positive_x.max() > positive_x.min():
+        x_lo, x_hi = float(positive_x.min()), float(positive_x.max())
+        major, _ = log_ticks(x_lo, x_hi)
+        x_ticks = [t for t in major if x_lo * (1 - 1e-9) <= t <= x_hi * (1 + 1e-9)]
+        x_step = None
+        span_x = math.log10(x_hi) - math.log10(x_lo)
 
-    def px(value):
-        return left + (value - x_lo) / (x_hi - x_lo) * plot_w
+        def px(value):
+            if not value > 0:
+                return float("nan")
+            return left + (math.log10(value) - math.log10(x_lo)) / span_x * plot_w
+    else:
+        log_x = False
+        x_ticks = nice_ticks(x_lo, x_hi, 7)
+        x_step = x_ticks[1] - x_ticks[0] if len(x_ticks) > 1 else 1.0
+        x_ticks = [t for t in x_ticks
+                   if x_lo - 1e-9 * abs(x_step) <= t <= x_hi + 1e-9 * abs(x_step)]
+
+        def px(value):
+            return left + (value - x_lo) / (x_hi - x_lo) * plot_w
 
     # y range and scale
     values = np.concatenate([y[np.isfinite(y) & np.isfinite(xs)] for y in ys.values()]
@@ -357,7 +375,7 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
 
     digest = hashlib.sha1()
     for part in (title, x_label, y_label, repr(sorted(lines.items())), repr(labels),
-                 str(log_y), f"{width}x{height}"):
+                 str(log_y) + str(log_x), f"{width}x{height}"):
         digest.update(part.encode("utf-8", "replace"))
     digest.update(xs.tobytes())
     for y in ys.values():
@@ -370,7 +388,8 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
         f'font-size="{font:g}">',
         f"<title>{_text(title)}</title>",
         f"<desc>{_text(y_label)} against {_text(x_label)}"
-        + ("; logarithmic y axis" if log_y else "") + "</desc>",
+        + ("; logarithmic y axis" if log_y else "")
+        + ("; logarithmic x axis" if log_x else "") + "</desc>",
         f'<rect x="0" y="0" width="{width}" height="{height}" fill="#ffffff"/>',
         f'<defs><clipPath id="{clip_id}"><rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
         f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}"/></clipPath></defs>',
@@ -448,7 +467,8 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
         segments, current = [], []
         for i in keep:
             xv, yv = xs[i], y[i]
-            if not math.isfinite(xv) or math.isnan(yv) or (not log_y and not math.isfinite(yv)):
+            if (not math.isfinite(xv) or math.isnan(yv) or (log_x and not xv > 0)
+                    or (not log_y and not math.isfinite(yv))):
                 if current:
                     segments.append(current)
                 current = []

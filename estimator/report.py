@@ -326,11 +326,11 @@ def _wants_log(series: dict, hlines: dict) -> bool:
     return positive.size > 1 and float(positive.max()) / float(positive.min()) > 100.0
 
 
-def _plot(name, caption, x, series, hlines, *, x_label, y_label, title):
+def _plot(name, caption, x, series, hlines, *, x_label, y_label, title, log_x=False):
     from .plots import line_plot_svg
 
     svg = line_plot_svg(x, series, x_label=x_label, y_label=y_label, title=title,
-                        hlines=hlines, log_y=_wants_log(series, hlines))
+                        hlines=hlines, log_y=_wants_log(series, hlines), log_x=log_x)
     return _Plot(name, caption, svg)
 
 
@@ -412,38 +412,44 @@ def _spill_plots(result, index, spill) -> list:
         x = distances
         series = {name: y[:, j] for j, name in enumerate(names)}
         reach = [d for _, d, _ in spill.distances if d is not None and math.isfinite(d)]
-        hi = max(list(distances) + reach) if distances.size else 0.0
-        lo = float(distances.min()) if distances.size else 0.0
+        reach += [d for d in (getattr(od, "distance_to_lfl", None),
+                              getattr(od, "distance_to_lfl_alarm", None)) if d is not None]
+        hi = 1.5 * max(list(distances) + reach) if distances.size else 0.0
+        lo = float(getattr(od, "pool_edge", 0.0) or (distances.min() if distances.size else 0.0))
         if hi <= lo:
             hi = 10.0 * lo
-        if hi > lo > 0:
-            try:
-                from .outdoor import ground_level_centerline
-
-                grid = np.geomspace(lo, hi, 120)
-                dense = {}
-                conc = np.asarray(od.concentration, dtype=float)
-                with warnings.catch_warnings():
-                    warnings.simplefilter("ignore")
-                    for j, name in enumerate(names):
-                        scale = np.divide(y[:, j], conc[:, j], out=np.zeros_like(y[:, j]),
-                                          where=conc[:, j] > 0)
-                        factor = float(scale[scale > 0][0]) if np.any(scale > 0) else 0.0
-                        dense[name] = factor * np.asarray(ground_level_centerline(
-                            float(od.emission_rate[j]), od.wind_speed, grid, od.stability,
-                            od.terrain), dtype=float)
-                x, series = grid, dense
-            except Exception:  # fall back to the receptors the run computed
-                x = distances
+        lfl_lines = {}
+        if hi > lo > 0 and od.volume_rates is not None:
+            # the plot starts at the pool's edge, so that every limit line's crossing shows
+            grid = np.geomspace(lo, hi, 160)
+            profile = od.centreline(grid) * 1e6
+            x, series = grid, {name: profile[:, j] for j, name in enumerate(names)}
+            lfl = od.lower_flammability_limits
+            fuel = np.isfinite(lfl)
+            if np.any(fuel):
+                fraction = od.fraction_of_lfl(grid)
+                total = profile[:, fuel].sum(axis=1)
+                if len(names) > 1:
+                    series["all flammable vapour"] = total
+                # the mixture's LFL in ppm (Le Chatelier over the plume's composition)
+                lfl_ppm = float(np.median(np.divide(total, fraction, out=np.full_like(
+                    total, np.nan), where=fraction > 0)))
+                if math.isfinite(lfl_ppm):
+                    lfl_lines = {"LFL": lfl_ppm,
+                                 f"{od.lfl_alarm_percent:g} % LFL alarm":
+                                     lfl_ppm * od.lfl_alarm_percent / 100.0}
         hlines = {_short_limit(lim): lim.ppm for lim in _limits_of(result, set(keys))}
+        hlines.update(lfl_lines)
         if np.asarray(x).size >= 2:
             out.append(_plot(
                 f"{stem}-centreline-distance", f"Spill {spill.name}: ground-level centreline "
                 f"concentration against downwind distance (stability class {od.stability}, "
-                f"{od.terrain} terrain, {od.wind_speed:.2g} m/s at 10 m), with the exposure "
-                "limits (dashed).", x, series, hlines, x_label="downwind distance [m]",
+                f"{od.terrain} terrain, {od.wind_speed:.2g} m/s at 10 m) from the pool's edge, "
+                "capped at the saturated vapour concentration over the pool, with the "
+                "exposure limits, the LFL and the LFL alarm (dashed).", x, series, hlines,
+                x_label="downwind distance [m]",
                 y_label="centreline concentration [ppm by volume]",
-                title=f"Spill {spill.name}: centreline by distance"))
+                title=f"Spill {spill.name}: centreline by distance", log_x=True))
     return out
 
 
@@ -859,6 +865,14 @@ def _tank_blocks(result, index, tank) -> list:
         if fp.published is not None:
             text += f" (published {_celsius(fp.published)}, {fp.published_source})"
         rows.append(["Estimated flash point (saturated vapour at the LFL)", text, fp.note])
+    bt = getattr(tank, "boiling", None)
+    if bt is not None:
+        text = _celsius(bt.temperature)
+        if bt.uncertainty is not None:
+            text += f" ± {bt.uncertainty:.1g} K"
+        if tank.near_boiling:
+            text += " — " + " and ".join(tank.near_boiling) + " case within 5 K: near boiling"
+        rows.append([f"Boiling temperature at {bt.pressure / 1000:.4g} kPa", text, bt.method])
     if tank.alarm_temperature is not None:
         rows.append([f"Liquid temperature at {result.scenario.alarms.percent_lfl:g} % LFL",
                      _celsius(tank.alarm_temperature), ""])
@@ -905,6 +919,43 @@ def _flammability_row(z) -> list:
                                                                     "not within the run")]
     return [z.zone, *lfl, f"{z.lowest_oxygen:.3g}",
             _minutes(z.below_oxygen_alarm_from, "never")]
+
+
+def _outdoor_distance_text(distance, flags, edge) -> str:
+    if distance is None:
+        return f"never (below it from the pool edge, {edge:.2g} m, on)"
+    text = f"{distance:,.0f} m"
+    return text + (f" ({'; '.join(flags)})" if flags else "")
+
+
+def _outdoor_flammability_blocks(od) -> list:
+    """Downwind flammability: % LFL on the centreline, distances to the LFL and the
+    alarm, the saturation cap and the dense-gas criterion."""
+    rows = []
+    if od.percent_lfl is not None and np.any(np.isfinite(od.lower_flammability_limits)):
+        rows.append(["Distance to the LFL (Le Chatelier over the plume's components)",
+                     _outdoor_distance_text(od.distance_to_lfl, od.lfl_flags, od.pool_edge), ""])
+        rows.append([f"Distance to the LFL alarm ({od.lfl_alarm_percent:g} % LFL)",
+                     _outdoor_distance_text(od.distance_to_lfl_alarm, od.lfl_alarm_flags,
+                                            od.pool_edge), ""])
+        rows.append(["% of the LFL at the distances asked for",
+                     "; ".join(f"{d:,.0f} m: {_n(p)} %" for d, p in
+                               zip(np.asarray(od.distances, dtype=float), od.percent_lfl)), ""])
+    if od.saturation_volume_fraction is not None:
+        rows.append(["Centreline capped at the saturated vapour concentration over the pool",
+                     "nowhere beyond the pool edge" if od.capped_until is None else
+                     f"out to {od.capped_until:,.0f} m",
+                     f"{_n(1e6 * float(np.sum(od.saturation_volume_fraction)))} ppm of vapour "
+                     "in all (Raoult's law at the pool temperature)"])
+    if od.dense_gas is not None:
+        dg = od.dense_gas
+        rows.append(["Britter-McQuaid criterion, continuous release",
+                     f"{dg.value:.2g} (threshold {dg.threshold:g}): "
+                     + ("density effects matter" if dg.dense else "passive dispersion"),
+                     dg.statement])
+    if not rows:
+        return []
+    return [_Para("Flammability downwind:"), _Table(["quantity", "value", "note"], rows)]
 
 
 def _spill_blocks(result, spill) -> list:
@@ -974,6 +1025,7 @@ def _spill_blocks(result, spill) -> list:
         b.append(_Para(f"Ground-level centreline downwind, from an initial evaporation rate "
                        f"of {_n(float(np.sum(od.emission_rate)) * 1000)} g/s:"))
         b.append(_Table(["distance", "substance", "ppm", "mg/m3"], rows, numeric=(0, 2, 3)))
+        b += _outdoor_flammability_blocks(od)
     if spill.distances:
         rows = []
         for label, d, note in spill.distances:
@@ -1314,7 +1366,13 @@ def _tank_dict(result, tank) -> dict:
     fp = tank.flash_point
     out["flash_point"] = None if fp is None else {
         "estimate_k": fp.estimate, "published_k": fp.published,
-        "published_source": fp.published_source, "note": fp.note}
+        "published_source": fp.published_source, "note": fp.note,
+        "flammable_whenever_liquid": fp.flammable_whenever_liquid}
+    bt = getattr(tank, "boiling", None)
+    out["boiling_temperature"] = None if bt is None else {
+        "temperature_k": bt.temperature, "temperature_c": bt.temperature - 273.15,
+        "pressure_pa": bt.pressure, "uncertainty_k": bt.uncertainty, "method": bt.method,
+        "near_boiling": list(tank.near_boiling)}
     out["alarm_temperature_k"] = tank.alarm_temperature
     out["hazard_ratios"] = dict(tank.hazard_ratios)
 
@@ -1402,6 +1460,26 @@ def _spill_dict(result, spill) -> dict:
             "stability": od.stability, "terrain": od.terrain, "wind_speed_m_per_s": od.wind_speed,
             "emission_rate_kg_per_s": {k: v for k, v in zip(keys, np.atleast_1d(od.emission_rate))},
             "distances_m": np.asarray(od.distances, dtype=float),
+            "pool_edge_m": od.pool_edge,
+            "distance_to_lfl_m": od.distance_to_lfl,
+            "distance_to_lfl_alarm_m": od.distance_to_lfl_alarm,
+            "lfl_alarm_percent": od.lfl_alarm_percent,
+            "distance_to_lfl_flags": list(od.lfl_flags),
+            "distance_to_lfl_alarm_flags": list(od.lfl_alarm_flags),
+            "percent_lfl": (None if od.percent_lfl is None
+                            else np.asarray(od.percent_lfl, dtype=float)),
+            "saturation_volume_fraction": (
+                None if od.saturation_volume_fraction is None else
+                {k: v for k, v in zip(keys, np.atleast_1d(od.saturation_volume_fraction))}),
+            "saturation_cap_until_m": od.capped_until,
+            "dense_gas": None if od.dense_gas is None else {
+                "criterion": "Britter-McQuaid continuous release (g0' q0 / D)^(1/3) / U",
+                "value": od.dense_gas.value, "threshold": od.dense_gas.threshold,
+                "density_effects_matter": od.dense_gas.dense,
+                "mixture_density_kg_per_m3": od.dense_gas.mixture_density,
+                "air_density_kg_per_m3": od.dense_gas.air_density,
+                "volume_rate_m3_per_s": od.dense_gas.volume_rate,
+                "source_dimension_m": od.dense_gas.source_dimension},
             "centreline": {k: {"volume_fraction": y[:, j], "ppm": y[:, j] * 1e6,
                                "concentration_kg_per_m3": c[:, j]} for j, k in enumerate(keys)}}
     out["flammability"] = [_flammability_dict(z) for z in spill.flammability]
@@ -1488,6 +1566,26 @@ def results_json(result, *, generated_at=None, indent: int = 2) -> str:
 
 # ---------------------------------------------------------------------------
 # CSV
+
+def _outdoor_flammability_rows(row, item, od) -> None:
+    """CSV rows of the downwind flammability verdicts."""
+    if od.percent_lfl is not None and np.any(np.isfinite(od.lower_flammability_limits)):
+        for what, d, flags in (("distance to the LFL", od.distance_to_lfl, od.lfl_flags),
+                               (f"distance to the LFL alarm ({od.lfl_alarm_percent:g} % LFL)",
+                                od.distance_to_lfl_alarm, od.lfl_alarm_flags)):
+            row(item, "flammability", "outdoors", "all vapour", what, d, "m",
+                note="never reached (below it at the pool edge)" if d is None
+                else "; ".join(flags))
+        for d, p in zip(np.asarray(od.distances, dtype=float), od.percent_lfl):
+            row(item, "flammability", f"{d:g} m downwind", "all vapour", "% of the LFL", p, "%")
+    if od.capped_until is not None:
+        row(item, "centreline", "outdoors", "all vapour",
+            "capped at the saturated vapour concentration out to", od.capped_until, "m")
+    if od.dense_gas is not None:
+        row(item, "dense gas", "outdoors", "all vapour", "Britter-McQuaid criterion",
+            od.dense_gas.value, "1", limit=f"{od.dense_gas.threshold:g}",
+            note="density effects matter" if od.dense_gas.dense else "passive dispersion")
+
 
 def results_csv(result, *, generated_at=None) -> str:
     """A tidy long table of the results: one row per item, case, substance and quantity.
@@ -1600,6 +1698,12 @@ def results_csv(result, *, generated_at=None) -> str:
             if fp.published is not None:
                 row(item, "tank", substance="liquid", quantity="published flash point",
                     value=fp.published, unit="K", note=fp.published_source)
+        bt = getattr(tank, "boiling", None)
+        if bt is not None:
+            row(item, "tank", substance="liquid", quantity=f"boiling temperature at "
+                f"{bt.pressure / 1000:.4g} kPa", value=bt.temperature, unit="K",
+                note=(("near boiling: " + ", ".join(tank.near_boiling) + "; ")
+                      if tank.near_boiling else "") + bt.method)
         if tank.alarm_temperature is not None:
             row(item, "tank", substance="liquid", quantity=f"temperature at "
                 f"{al.percent_lfl:g} % LFL", value=tank.alarm_temperature, unit="K")
@@ -1711,6 +1815,7 @@ def results_csv(result, *, generated_at=None) -> str:
                     case = f"{d:g} m downwind"
                     row(item, "centreline", case, key, "concentration", y[i, j], "ppm")
                     row(item, "centreline", case, key, "concentration", c[i, j], "mg/m3")
+            _outdoor_flammability_rows(row, item, od)
         for label, d, note in spill.distances:
             lim = next((lim for lim in scenario.limits if lim.label == label), None)
             row(item, "distance", "outdoors", lim.substance if lim else "",

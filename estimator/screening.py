@@ -88,6 +88,11 @@ class TankResult:
     warnings : tuple of str
     monte_carlo : MonteCarloResult or None
         Probabilistic screening, when the scenario gives uncertain inputs.
+    boiling : BoilingTemperature or None
+        Boiling temperature (bubble point of a mixture) at the tank's pressure.
+    near_boiling : tuple of str
+        The cases ("stated", "worst") whose temperature lies within
+        `NEAR_BOILING` of it, or above it.
     """
 
     name: str
@@ -114,6 +119,8 @@ class TankResult:
     monte_carlo: object = None
     additive_terms: object = None
     worst_additive_terms: object = None
+    boiling: object = None
+    near_boiling: tuple[str, ...] = ()
 
     @property
     def exceeded(self) -> bool:
@@ -184,6 +191,8 @@ class SpillResult:
         if any(z.above_alarm_from is not None or z.below_oxygen_alarm_from is not None
                for z in self.flammability):
             return True
+        if self.outdoor is not None and getattr(self.outdoor, "distance_to_lfl_alarm", None):
+            return True
         return any(d is None or (d or 0) > 0 for _, d, _ in self.distances)
 
 
@@ -219,12 +228,53 @@ class ScenarioResult:
 
 def sweep_temperatures(liq, low: float, high: float, n: int = 41) -> np.ndarray:
     """Temperatures for a sweep, kept inside the liquid range of every component. [K]"""
+    from .headspace import lowest_liquid_temperature
+
     components = liq.components
-    lo = max([low] + [(c.melting_point or 0.0) + 0.5 for c in components])
+    lo = max(low, lowest_liquid_temperature(components) + 0.5)
     hi = min([high] + [(c.critical_temperature or 2000.0) - 1.0 for c in components])
     if hi <= lo:
         raise InputError("sweep", "the range lies outside the liquid range of the liquid")
     return np.linspace(lo, hi, n)
+
+
+#: A liquid this close to its boiling temperature is flagged. [K] 5 K: within it,
+#: small warming builds pressure in a closed tank, pushes vapour out of vents, and
+#: a release flashes in part (common practice for a screening margin).
+NEAR_BOILING = 5.0
+
+
+def _boiling_findings(liquid, water, pressure, cases, notes):
+    """The tank's boiling temperature, the cases within `NEAR_BOILING` of it, findings."""
+    from .headspace import boiling_temperature
+
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            boiling = boiling_temperature("water" if water else liquid, pressure)
+    except UllageError as exc:
+        notes.append(f"boiling temperature not computed: {exc}")
+        return None, (), []
+    kind = "bubble point" if not water and not liquid.is_pure else "boiling point"
+    if water:
+        kind = "boiling point of water; the dilute dissolved compounds neglected"
+    spread = (f" ± {boiling.uncertainty:.2g} K" if boiling.uncertainty is not None else "")
+    out = [f"The liquid boils at {boiling.celsius:.1f} degC{spread} at this tank's "
+           f"{pressure / 1000:.4g} kPa ({kind})."]
+    near = []
+    for case, label, temperature in cases:
+        if temperature is None:
+            continue
+        gap = boiling.temperature - temperature
+        if gap <= NEAR_BOILING:
+            near.append(case)
+            where = (f"{gap:.1f} K below it" if gap > 0 else
+                     f"{-gap:.1f} K above it: the liquid boils")
+            out.append(f"Near boiling: {label} ({temperature - 273.15:.1f} degC) is {where}. "
+                       "Expect pressure build-up in a closed tank, vapour pushed out of the "
+                       "vents, and flashing of a release; the equilibrium headspace model "
+                       "does not cover a boiling liquid.")
+    return boiling, tuple(near), out
 
 
 def _findings(hs: Headspace, comparisons, alarms, label: str) -> list[str]:
@@ -325,10 +375,18 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         text = f"Estimated flash point {flash.estimate - 273.15:.1f} degC"
         if flash.published is not None:
             text += f" (published {flash.published - 273.15:.1f} degC, {flash.published_source})"
+        if flash.flammable_whenever_liquid:
+            text += (", below the melting point (a subcooled-liquid extrapolation): the vapour "
+                     "over this liquid is flammable at every temperature at which it is liquid")
         findings.append(text + ".")
     if alarm_t is not None:
         findings.append(f"The headspace reaches {scenario.alarms.percent_lfl:g} % of the LFL "
                         f"at {alarm_t - 273.15:.1f} degC.")
+
+    boiling, near_boiling, said = _boiling_findings(
+        hs.liquid, water, pressure, [("stated", "the stated temperature", t),
+                                     ("worst", "the worst-case temperature", worst_t)], notes)
+    findings += said
 
     inventory = filling = breathing = purge = None
     space = None
@@ -383,6 +441,7 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         additive_terms=additive, worst_additive_terms=worst_additive,
         hazard_ratios=ratios, flash_point=flash, alarm_temperature=alarm_t,
         inventory=inventory, filling=filling, breathing=breathing, purge=purge,
+        boiling=boiling, near_boiling=near_boiling,
         findings=tuple(findings),
         warnings=tuple(dict.fromkeys(list(hs.warnings) + notes
                                      + (list(worst.warnings) if worst else []))),
@@ -583,21 +642,22 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
             outdoor = outdoor_spill(liq, t, od["receptors"], wind_speed=wind,
                                     stability=stability, terrain=od["terrain"],
                                     spilled_volume=volume, model=spill["model"],
-                                    pressure=pressure, **geometry)
+                                    pressure=pressure, **geometry,
+                                    lfl_alarm_percent=scenario.alarms.percent_lfl)
             area = None
-            from .outdoor import distance_to_concentration
-
             for lim in scenario.limits:
                 keys = [c.key for c in liq.components]
                 if lim.substance not in keys:
                     continue
-                j = keys.index(lim.substance)
-                g = outdoor.emission_rate[j]
-                c_lim = lim.mass_concentration_at(t, pressure)
-                d = distance_to_concentration(g, wind, c_lim, stability, od["terrain"])
-                distances.append((lim.label, d.distance, d.note))
+                d, note = outdoor.distance_above(
+                    lim.volume_fraction_at(t, pressure), keys.index(lim.substance))
+                from .spill import MAX_OUTDOOR_DISTANCE
+
+                d = 0.0 if d is None else (None if d >= MAX_OUTDOOR_DISTANCE else d)
+                distances.append((lim.label, d, note))
             findings.append(f"Source strength {1000 * outdoor.emission_rate.sum():.3g} g/s "
                             f"(initial evaporation rate), stability class {stability}.")
+            findings += _outdoor_lfl_findings(outdoor)
         rates = {}
         area_for_rates = area if area is not None else None
         if area_for_rates is None:
@@ -648,6 +708,34 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
         indoor=indoor, outdoor=outdoor, initial_rates=rates, exposures=tuple(exposures),
         distances=tuple(distances), findings=tuple(findings),
         warnings=tuple(dict.fromkeys(notes)), flammability=tuple(flammability))
+
+
+def _outdoor_lfl_findings(outdoor) -> list[str]:
+    """Downwind flammability verdicts: distances to the LFL and the LFL alarm, the
+    saturation cap and the dense-gas criterion, in plain words."""
+    out = []
+    alarm = outdoor.lfl_alarm_percent
+    if np.any(np.isfinite(outdoor.lower_flammability_limits)):
+        for what, d, flags in (("the LFL", outdoor.distance_to_lfl, outdoor.lfl_flags),
+                               (f"{alarm:g} % of the LFL (the alarm level)",
+                                outdoor.distance_to_lfl_alarm, outdoor.lfl_alarm_flags)):
+            if d is None:
+                out.append(f"Downwind, the centreline is below {what} from the pool edge "
+                           f"({outdoor.pool_edge:.2g} m) on.")
+            else:
+                said = f" ({'; '.join(flags)})" if flags else ""
+                out.append(f"Downwind, the centreline is at or above {what} out to about "
+                           f"{d:,.0f} m{said}: remove ignition sources within that distance.")
+    if outdoor.capped_until is not None:
+        out.append(f"Near the pool, out to about {outdoor.capped_until:,.0f} m, the "
+                   "centreline is capped at the saturated vapour concentration over the "
+                   "pool (the most the pool can give).")
+    if outdoor.dense_gas is not None:
+        dg = outdoor.dense_gas
+        out.append(f"Britter-McQuaid dense-gas criterion {dg.value:.2g} (threshold "
+                   f"{dg.threshold:g}): " + ("density effects matter; use a dense-gas model."
+                                             if dg.dense else "density effects do not matter."))
+    return out
 
 
 def _density(liq) -> float:

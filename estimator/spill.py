@@ -12,7 +12,7 @@ plume (`outdoor_spill`).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -27,6 +27,7 @@ from .evaporation import (
     spill_pool_area,
 )
 from .mixtures import liquid as make_liquid
+from .outdoor import ground_level_centerline
 
 __all__ = ["IndoorSpill", "indoor_spill", "OutdoorSpill", "outdoor_spill",
            "liquid_mixture_density"]
@@ -374,7 +375,8 @@ class OutdoorSpill:
     distances : numpy.ndarray
         [m]
     concentration : numpy.ndarray
-        Ground-level centreline, shape (distances, components). [kg/m3]
+        Ground-level centreline, shape (distances, components), capped at the
+        saturated vapour concentration over the pool. [kg/m3]
     volume_fraction : numpy.ndarray
         Same, as volume fractions at the air temperature and pressure. [-]
     stability : str
@@ -383,6 +385,33 @@ class OutdoorSpill:
         At 10 m. [m/s]
     warnings : tuple of str
         Validity statements of the screening method.
+    pool_area : float
+        [m2]
+    pool_edge : float
+        Where the centreline is first evaluated: the pool radius, at least 1 m. [m]
+    volume_rates : numpy.ndarray
+        Per component, the emission as vapour at the air temperature and
+        pressure. [m3/s]
+    saturation_volume_fraction : numpy.ndarray
+        Per component, its Raoult partial pressure over the pool / pressure: the
+        most the pool can give. [-]
+    capped_until : float or None
+        The plume formula gives more than that out to this distance; there the
+        centreline is capped at it. None: nowhere beyond the pool edge. [m]
+    lower_flammability_limits : numpy.ndarray
+        Per component, NaN where none. [volume fraction]
+    percent_lfl : numpy.ndarray
+        Centreline % of the LFL (Le Chatelier over the components) at `distances`. [%]
+    lfl_alarm_percent : float
+        The site's alarm level. [% LFL]
+    distance_to_lfl, distance_to_lfl_alarm : float or None
+        How far the centreline stays at or above the LFL and the alarm level; None
+        where it is below them at the pool edge. [m]
+    lfl_flags, lfl_alarm_flags : tuple of str
+        Validity flags of those distances (outside Briggs's range, within the
+        capped zone, near-calm wind, dense gas).
+    dense_gas : DenseGasCriterion or None
+        Britter-McQuaid criterion for the saturated vapour-air mixture over the pool.
     """
 
     components: tuple[str, ...]
@@ -394,18 +423,126 @@ class OutdoorSpill:
     terrain: str
     wind_speed: float
     warnings: tuple[str, ...]
+    pool_area: float = float("nan")
+    pool_edge: float = 1.0
+    volume_rates: np.ndarray | None = None
+    saturation_volume_fraction: np.ndarray | None = None
+    capped_until: float | None = None
+    lower_flammability_limits: np.ndarray | None = None
+    percent_lfl: np.ndarray | None = None
+    lfl_alarm_percent: float = 10.0
+    distance_to_lfl: float | None = None
+    distance_to_lfl_alarm: float | None = None
+    lfl_flags: tuple[str, ...] = ()
+    lfl_alarm_flags: tuple[str, ...] = ()
+    dense_gas: object = None
+
+    def centreline(self, distances) -> np.ndarray:
+        """Capped centreline volume fractions, shape (distances, components). [-]"""
+        from .outdoor import _centerline, _classes, _terrain
+
+        x = np.atleast_1d(np.asarray(distances, dtype=float))
+        shape = _centerline(1.0, self.wind_speed, x, _classes(self.stability),
+                            _terrain(self.terrain))
+        plume = shape[:, None] * self.volume_rates[None, :]
+        return np.minimum(plume, self.saturation_volume_fraction[None, :])
+
+    def fraction_of_lfl(self, distances) -> np.ndarray:
+        """Centreline fuel concentration over the mixture LFL (1 = at the LFL). [-]"""
+        y = self.centreline(distances)
+        lfl = self.lower_flammability_limits
+        fuel = np.isfinite(lfl)
+        return np.sum(np.where(fuel, y / np.where(fuel, lfl, 1.0), 0.0), axis=1)
+
+    def distance_above(self, level, component=None):
+        """Distance out to which the capped centreline stays at or above a level.
+
+        Parameters
+        ----------
+        level : float
+            A volume fraction of `component`, or a fraction of the LFL (1 = the LFL)
+            when `component` is None. [-]
+        component : int, optional
+
+        Returns
+        -------
+        (float or None, str)
+            The distance [m] (None where the centreline is below the level at the
+            pool edge; `MAX_OUTDOOR_DISTANCE` where it is still above it there),
+            and a note.
+        """
+        if component is None:
+            def value(x):
+                return float(self.fraction_of_lfl(x)[0])
+        else:
+            def value(x):
+                return float(self.centreline(x)[0, component])
+        return _crossing(value, float(level), self.pool_edge)
+
+
+#: Farthest distance searched for a crossing. [m]
+MAX_OUTDOOR_DISTANCE = 1e5
+
+
+def _crossing(value, level: float, edge: float):
+    """Where a falling function of distance passes `level` (see `OutdoorSpill.distance_above`)."""
+    from scipy.optimize import brentq
+
+    if not (level > 0) or value(edge) < level:
+        return None, f"below it from the pool edge ({edge:.2g} m) on"
+    if value(MAX_OUTDOOR_DISTANCE) >= level:
+        return MAX_OUTDOOR_DISTANCE, (f"still above it at {MAX_OUTDOOR_DISTANCE:,.0f} m, the "
+                                      "farthest distance searched")
+
+    def f(log_x):
+        v = value(math.exp(log_x))
+        return math.log(max(v, 1e-300) / level)
+
+    x = math.exp(brentq(f, math.log(edge), math.log(MAX_OUTDOOR_DISTANCE), xtol=1e-10,
+                        maxiter=200))
+    return x, "the centreline falls to it here"
+
+
+def _distance_flags(distance, capped_until, wind_speed, dense_gas) -> list[str]:
+    """Validity flags of a distance on the screening plume."""
+    from .outdoor import BRIGGS_RANGE
+
+    flags = []
+    if distance is None:
+        return flags
+    if distance < BRIGGS_RANGE[0]:
+        flags.append("under 100 m, outside the range of the dispersion coefficients")
+    if distance > BRIGGS_RANGE[1]:
+        flags.append("beyond 10 km, outside the range of the dispersion coefficients")
+    if capped_until is not None and distance <= capped_until:
+        flags.append("within the zone where the centreline is capped at the saturated "
+                     "vapour concentration")
+    if wind_speed < 1.0:
+        flags.append("near-calm wind: the plume model does not apply")
+    if dense_gas is not None and dense_gas.dense:
+        flags.append(f"dense gas (Britter-McQuaid criterion {dense_gas.value:.2g} >= "
+                     f"{dense_gas.threshold:g}): a dense-gas model is needed")
+    return flags
 
 
 def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
                   terrain="open", spilled_volume=None, area=None, dike_area=None,
                   depth=UNDIKED_SPILL_DEPTH, model="mackay-matsugu",
                   pressure=STANDARD_ATMOSPHERE, basis="mass",
-                  activity_coefficients=None) -> OutdoorSpill:
+                  activity_coefficients=None, lfl_alarm_percent=10.0) -> OutdoorSpill:
     """Initial evaporation rate of a pool outdoors and its ground-level plume.
 
     The pool's initial rate (the highest, before the volatile components
     deplete) is taken as a continuous ground-level source, a conservative
     screening choice. Dispersion by `estimator.outdoor.ground_level_centerline`.
+    The centreline of each component is capped at its saturated vapour fraction
+    over the pool (its Raoult partial pressure over the pressure): the plume
+    formula, a point source, gives more than the pool can near it, and the cap
+    is stated with the distance out to which it applies. The distances to the
+    LFL and to the LFL alarm use Le Chatelier's rule over the components in the
+    plume; density effects are judged by Britter & McQuaid's criterion for the
+    saturated vapour-air mixture over the pool
+    (`estimator.outdoor.pool_source_criterion`).
 
     Parameters
     ----------
@@ -422,29 +559,92 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
         "open" or "urban".
     spilled_volume, area, dike_area, depth
         Pool geometry, as for `indoor_spill` (area, or volume spread to depth).
+    lfl_alarm_percent : float
+        The site's LFL alarm level, above 0 and at most 100. [% LFL]
 
     Returns
     -------
     OutdoorSpill
     """
     from .evaporation import mixture_evaporation_rates
-    from .outdoor import ground_level_centerline, screening_validity
+    from .outdoor import _centerline, _classes, _terrain, pool_source_criterion
+    from .outdoor import screening_validity
+    from .vapor import component_vapor_pressure_estimates
 
     liq = make_liquid(liquid, basis, activity_coefficients)
+    alarm = _positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
+    if alarm > 100.0:
+        raise InputError("LFL alarm", f"{alarm:g} % is above 100 % of the LFL; give the "
+                         "alarm as a percentage of the LFL, such as 10")
     if area is None:
         if spilled_volume is None:
             raise InputError("pool area", "give the pool area or the spilled volume")
         area = spill_pool_area(_positive(spilled_volume, "spilled volume", "m3"),
                                dike_area, depth)
+    area = _positive(area, "pool area", "m2")
+    t = float(temperature)
     rates = mixture_evaporation_rates(liq.components, liq.mole_fractions, temperature, area,
                                       wind_speed, liq.activity_coefficients, model, pressure)
     g = np.asarray(getattr(rates, "rates", rates), dtype=float)
     x = np.atleast_1d(np.asarray(distances, dtype=float))
-    conc = np.stack([np.atleast_1d(ground_level_centerline(gi, wind_speed, x, stability,
-                                                           terrain)) for gi in g], axis=1)
-    y = conc * GAS_CONSTANT * float(temperature) / (liq.molar_masses * pressure)
-    vapour_molar_mass = float(np.sum(g) / np.sum(g / liq.molar_masses)) if g.sum() > 0 else 0.0
-    notes = list(screening_validity(wind_speed, x, vapour_molar_mass / 0.0289644))
+    classes, land = _classes(stability), _terrain(terrain)
+    for gi in g:  # checks the inputs and warns outside the fitted range, as before
+        ground_level_centerline(gi, wind_speed, x, stability, terrain)
+    u = float(wind_speed)
+    molar_volume = GAS_CONSTANT * t / float(pressure)
+    volume_rates = g / liq.molar_masses * molar_volume
+    estimates = component_vapor_pressure_estimates(liq.components, t, "temperature")
+    p_sat = np.array([float(e.pressure) for e in estimates])
+    gamma = np.asarray(liq.activity_coefficients_at(t), dtype=float).reshape(-1)
+    y_sat = np.minimum(liq.mole_fractions * gamma * p_sat / float(pressure), 1.0)
+    edge = max(1.0, math.sqrt(area / math.pi))
+    lfl = np.array([c.lower_flammability_limit or np.nan for c in liq.components], dtype=float)
+    notes = []
+    dense = None
+    if g.sum() > 0 and y_sat.sum() > 0:
+        mean_molar_mass = float(np.sum(y_sat * liq.molar_masses) / np.sum(y_sat))
+        dense = pool_source_criterion(float(np.sum(g / liq.molar_masses)),
+                                      float(min(y_sat.sum(), 1.0)), mean_molar_mass, t,
+                                      float(pressure), u)
+    # where the cap applies
+    capped_until = None
+    shape_edge = float(_centerline(1.0, u, edge, classes, land))
+    for j in range(len(g)):
+        if volume_rates[j] * shape_edge > y_sat[j] > 0:
+            def over(log_x, j=j):
+                return math.log(float(_centerline(1.0, u, math.exp(log_x), classes, land))
+                                * volume_rates[j] / y_sat[j])
+            from scipy.optimize import brentq
+
+            xj = math.exp(brentq(over, math.log(edge), math.log(MAX_OUTDOOR_DISTANCE),
+                                 xtol=1e-10, maxiter=200))
+            capped_until = xj if capped_until is None else max(capped_until, xj)
+    run = OutdoorSpill(liq.names, g, x, np.zeros((x.size, g.size)), np.zeros((x.size, g.size)),
+                       str(stability), terrain, u, (), float(area), edge, volume_rates, y_sat,
+                       capped_until, lfl, None, alarm, None, None, (), (), dense)
+    y = run.centreline(x)
+    conc = y * liq.molar_masses[None, :] / molar_volume
+    percent = 100.0 * run.fraction_of_lfl(x)
+    if capped_until is not None:
+        notes.append(
+            f"the plume formula gives more vapour than the pool can saturate the air with "
+            f"out to about {capped_until:,.0f} m: there the centreline is capped at the "
+            f"saturated vapour concentration over the pool ({1e6 * y_sat.sum():,.0f} ppm of "
+            "vapour in all, each component at its Raoult partial pressure); the real plume "
+            "near the pool is not resolved by this point-source model")
+    d_lfl = d_alarm = None
+    if np.any(np.isfinite(lfl)):
+        d_lfl, _ = run.distance_above(1.0)
+        d_alarm, _ = run.distance_above(alarm / 100.0)
+    else:
+        notes.append("no component has a lower flammability limit on record: the distances "
+                     "to the LFL are not judged")
+    notes += list(screening_validity(u, x, dense))
+    if dense is not None and not dense.dense:
+        notes.append(dense.statement)
     notes += list(getattr(rates, "warnings", ()))
-    return OutdoorSpill(liq.names, g, x, conc, y, str(stability), terrain, float(wind_speed),
-                        tuple(dict.fromkeys(notes)))
+    return replace(run, concentration=conc, volume_fraction=y, percent_lfl=percent,
+                   distance_to_lfl=d_lfl, distance_to_lfl_alarm=d_alarm,
+                   lfl_flags=tuple(_distance_flags(d_lfl, capped_until, u, dense)),
+                   lfl_alarm_flags=tuple(_distance_flags(d_alarm, capped_until, u, dense)),
+                   warnings=tuple(dict.fromkeys(notes)))

@@ -881,12 +881,14 @@ def _unique_labels(limits) -> list[str]:
     return labels
 
 
-def _saturation_estimate(sub, temperature):
-    """Vapour-pressure estimate over the sampled temperatures, with a hint on failure."""
+def _saturation_estimate(sub, temperature, subcooled=False):
+    """Vapour-pressure estimate over the sampled temperatures, with a hint on failure
+    (`subcooled` for a component of a mixture, see `estimator.vapor`)."""
     from .vapor import vapor_pressure_estimate
 
     try:
-        return vapor_pressure_estimate(sub, temperature, field="temperature")
+        return vapor_pressure_estimate(sub, temperature, field="temperature",
+                                       subcooled=subcooled)
     except OutOfRangeError as error:
         hint = ("; bound the temperature distribution to the liquid range"
                 if np.size(temperature) > 1 else "")
@@ -1056,7 +1058,16 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
     x = _composition_samples(liq, composition, composition_basis, count, rng, inputs,
                              input_samples)
 
-    estimates = [_saturation_estimate(c, t) for c in liq.components]
+    if not liq.is_pure:
+        from .vapor import component_vapor_pressure_estimates
+
+        try:  # refuses a wholly frozen mixture with its reason
+            component_vapor_pressure_estimates(liq.components, np.min(t), "temperature")
+        except OutOfRangeError as error:
+            raise OutOfRangeError(error.field, error.reason + "; bound the temperature "
+                                  "distribution to the liquid range") from None
+    estimates = [_saturation_estimate(c, t, subcooled=not liq.is_pure)
+                 for c in liq.components]
     p_sat = np.stack([np.asarray(e.pressure, dtype=float) for e in estimates])
     for i, (c, e) in enumerate(zip(liq.components, estimates)):
         notes.extend(e.warnings)

@@ -36,6 +36,9 @@ __all__ = [
     "vapor_pressure_estimate",
     "VaporPressureEstimate",
     "METHODS",
+    "SUBCOOLED_LIMIT",
+    "SUBCOOLED_UNCERTAINTY_PER_KELVIN",
+    "component_vapor_pressure_estimates",
 ]
 
 #: Trouton's constant, the entropy of vaporization at the normal boiling point of
@@ -586,7 +589,29 @@ class VaporPressureEstimate:
     warnings: tuple[str, ...] = ()
 
 
-def _check_temperature(substance, t: np.ndarray, field: str) -> tuple[float, float]:
+#: How far below its own melting point a component of a liquid mixture may be taken
+#: as a subcooled liquid. [K] 25 K: the liquid correlation is extrapolated below
+#: the melting point, which assumes the liquid's enthalpy of vaporization keeps its
+#: trend; over 0-25 K below the melting point ullage's correlations stay within 7 %
+#: (after their offset at the melting point) of an independent extrapolation, the
+#: Wagner equation of Poling et al. (2001), Appendix A, for the table compounds that
+#: melt near room temperature (acetic acid, formic acid, benzene, p-xylene,
+#: cyclohexanone, dimethyl carbonate), and water within 3 % of Murphy & Koop (2005)
+#: for supercooled water. Farther below, the subcooled liquid's heat capacity departs
+#: from the trend (water's rises steeply towards 228 K) and the component would
+#: most likely crystallise out of the mixture: refused.
+SUBCOOLED_LIMIT = 25.0
+
+#: Extra relative uncertainty of a subcooled-liquid vapour pressure per kelvin below
+#: the melting point. [1/K] 1 % per kelvin, added to the method's stated
+#: uncertainty: about three times the largest drift (7 % over 25 K) between the
+#: extrapolated correlations and the Wagner extrapolation of Poling et al. (2001)
+#: for the compounds named at `SUBCOOLED_LIMIT`, because both are extrapolations.
+SUBCOOLED_UNCERTAINTY_PER_KELVIN = 0.01
+
+
+def _check_temperature(substance, t: np.ndarray, field: str,
+                       subcooled: bool = False) -> tuple[float, float]:
     if t.size == 0:
         raise InputError(field, "no temperatures given")
     lo = float(np.min(t))
@@ -604,7 +629,13 @@ def _check_temperature(substance, t: np.ndarray, field: str) -> tuple[float, flo
             field, f"{hi:g} K is above the critical temperature of {substance.name} "
             f"({tc:g} K): no liquid can exist there, so it has no vapour pressure")
     tm = substance.melting_point
-    if tm is not None and lo < tm:
+    if tm is not None and subcooled and lo < tm - SUBCOOLED_LIMIT:
+        raise OutOfRangeError(
+            field, f"{lo:g} K is {tm - lo:.1f} K below the melting point of {substance.name} "
+            f"({tm:g} K): a component of a mixture is taken as a subcooled liquid down to "
+            f"{SUBCOOLED_LIMIT:g} K below its melting point only; farther below it would "
+            "crystallise out of the liquid, which ullage does not model")
+    if tm is not None and lo < tm and not subcooled:
         raise OutOfRangeError(
             field, f"{lo:g} K is below the melting point of {substance.name} "
             f"({tm:g} K): it would be solid; ullage does not model sublimation")
@@ -627,7 +658,8 @@ def _choose(substance, lo: float, hi: float, method: str | None):
 
 
 def vapor_pressure_estimate(substance, temperature, method: str | None = None,
-                            field: str = "temperature") -> VaporPressureEstimate:
+                            field: str = "temperature",
+                            subcooled: bool = False) -> VaporPressureEstimate:
     """Saturated vapour pressure with the method used, its uncertainty and warnings.
 
     The best method the substance has data for is chosen: the first of its
@@ -648,24 +680,60 @@ def vapor_pressure_estimate(substance, temperature, method: str | None = None,
         Force one method (a key of `METHODS`).
     field : str
         Name of the temperature input, for messages.
+    subcooled : bool
+        Allow temperatures down to `SUBCOOLED_LIMIT` below the melting point: the
+        subcooled-liquid vapour pressure of a component dissolved in a liquid
+        mixture, the liquid correlation extrapolated below the melting point, with
+        a warning and the stated uncertainty widened by
+        `SUBCOOLED_UNCERTAINTY_PER_KELVIN` per kelvin below it. A pure liquid
+        below its melting point is solid and always refused (no sublimation).
 
     Returns
     -------
     VaporPressureEstimate
+
+    References
+    ----------
+    Poling, B. E., Prausnitz, J. M. & O'Connell, J. P. (2001), The Properties of
+    Gases and Liquids, 5th ed., McGraw-Hill, ch. 7 (range of each vapour-pressure
+    equation) and Appendix A (Wagner coefficients, used to judge the subcooled
+    extrapolation); Murphy, D. M. & Koop, T. (2005), Q. J. R. Meteorol. Soc. 131,
+    1539-1565 (supercooled water).
     """
     from .substances import as_substance
 
     sub = as_substance(substance)
     t = _as_float_array(temperature)
-    lo, hi = _check_temperature(sub, t, field)
-    correlation = _choose(sub, lo, hi, method)
+    lo, hi = _check_temperature(sub, t, field, subcooled)
+    tm = sub.melting_point
+    below = tm is not None and lo < tm
+    # the correlation is chosen for the liquid range; below it, it is extrapolated
+    # (0.5 K above the melting point, as table ranges start at the triple point)
+    if below:
+        correlation = _choose(sub, tm + 0.5, max(hi, tm + 0.5), method)
+    else:
+        correlation = _choose(sub, lo, hi, method)
     notes = []
-    if lo < correlation.tmin or hi > correlation.tmax:
+    if below:
+        notes.append(
+            f"{sub.name}: {tm - lo:.1f} K below its melting point ({tm - 273.15:.1f} degC), "
+            "taken as a subcooled liquid in the mixture: its vapour pressure is the "
+            f"{METHODS[correlation.method]} extrapolated below the melting point, with "
+            f"{100 * SUBCOOLED_UNCERTAINTY_PER_KELVIN:g} % added to the stated uncertainty "
+            f"per kelvin below it (+{100 * SUBCOOLED_UNCERTAINTY_PER_KELVIN * (tm - lo):.0f} "
+            "%); it may crystallise out of the liquid, which is not modelled")
+    elif lo < correlation.tmin or hi > correlation.tmax:
         notes.append(
             f"{sub.name}: {lo:.1f}-{hi:.1f} K lies outside the {correlation.tmin:.1f}-"
             f"{correlation.tmax:.1f} K range of the {METHODS[correlation.method]}; "
             "the value is an extrapolation")
     relative, basis = method_uncertainty().get(correlation.method, (None, "not validated"))
+    if below:
+        extra = SUBCOOLED_UNCERTAINTY_PER_KELVIN * (tm - lo)
+        relative = extra + (relative or 0.0)
+        basis += (f"; plus {100 * extra:.0f} % for the extrapolation {tm - lo:.1f} K below "
+                  "the melting point (1 % per kelvin, from comparison with the Wagner "
+                  "extrapolation of Poling et al. and, for water, Murphy & Koop 2005)")
     return VaporPressureEstimate(
         pressure=correlation(temperature),
         method=correlation.method,
@@ -676,6 +744,56 @@ def vapor_pressure_estimate(substance, temperature, method: str | None = None,
         valid_range=(correlation.tmin, correlation.tmax),
         warnings=tuple(notes),
     )
+
+
+def component_vapor_pressure_estimates(components, temperature,
+                                       field: str = "temperature"
+                                       ) -> list[VaporPressureEstimate]:
+    """Vapour-pressure estimates of the components of a liquid, pure or mixed.
+
+    In a mixture a component below its own melting point is taken as a subcooled
+    liquid (see `vapor_pressure_estimate`, ``subcooled=True``) as long as some
+    component is above its own melting point at every temperature given; when
+    every component is below its own, the whole liquid would freeze: refused. A
+    pure liquid below its melting point is refused.
+
+    Parameters
+    ----------
+    components : sequence of Substance
+    temperature : float or array_like
+        [K]
+    field : str
+        Name of the temperature input, for messages.
+
+    Returns
+    -------
+    list of VaporPressureEstimate
+        In the order of `components`.
+
+    Examples
+    --------
+    5 % benzene (melts at 5.5 degC) in toluene at 0 degC:
+
+    >>> from estimator.substances import substance
+    >>> est = component_vapor_pressure_estimates(
+    ...     [substance("benzene"), substance("toluene")], 273.15)
+    >>> round(est[0].pressure, -1), est[0].warnings[0][:38]
+    (3500.0, 'Benzene: 5.5 K below its melting point')
+    """
+    subs = list(components)
+    if len(subs) < 2:
+        return [vapor_pressure_estimate(s, temperature, field=field) for s in subs]
+    t = _as_float_array(temperature)
+    lo = float(np.min(t)) if t.size else math.nan
+    melting = [s.melting_point if s.melting_point is not None else -math.inf for s in subs]
+    if math.isfinite(lo) and lo > 0 and lo < min(melting):
+        lowest = subs[int(np.argmin(melting))]
+        raise OutOfRangeError(
+            field, f"{lo:g} K is below the melting point of every component (the lowest is "
+            f"{lowest.name}'s, {lowest.melting_point:g} K): the whole liquid would freeze; "
+            "ullage does not model sublimation")
+    return [vapor_pressure_estimate(s, temperature, field=field, subcooled=True)
+            for s in subs]
 
 
 def vapor_pressure(substance, temperature, method: str | None = None):

@@ -21,9 +21,13 @@ from estimator.headspace import headspace, site_pressure, temperature_for_concen
 from estimator.indoor import purge_time, well_mixed_room
 from estimator.inventory import screen_inventory
 from estimator.limits import exposure_limit
-from estimator.outdoor import briggs_sigmas, ground_level_centerline
+from estimator.outdoor import (
+    briggs_sigmas,
+    britter_mcquaid_continuous,
+    ground_level_centerline,
+)
 from estimator.scenario import ScenarioError, loads_scenario
-from estimator.spill import indoor_spill
+from estimator.spill import indoor_spill, outdoor_spill
 from estimator.tank import vapor_space_volume
 from estimator.units import parse_quantity, parse_temperature
 
@@ -116,6 +120,24 @@ API = [
     ("full tank", lambda: vapor_space_volume(10.0, 1.0), InputError, "fill level",
      "no vapour space"),
     ("unknown stability class", lambda: briggs_sigmas(500.0, "G"), ValueError, "", "A"),
+    ("boiling at zero pressure", lambda: estimator.boiling_temperature("toluene", 0.0),
+     InputError, "pressure", "above zero"),
+    ("boiling at a pressure in bar", lambda: estimator.boiling_temperature("water", 1.2),
+     InputError, "pressure", "pascals"),
+    ("boiling at NaN pressure", lambda: estimator.boiling_temperature("water", NAN),
+     InputError, "pressure", "above zero"),
+    ("boiling above the critical pressure", lambda: estimator.boiling_temperature(
+        "acetone", 9e6), OutOfRangeError, "pressure", "does not boil below the critical"),
+    ("mixture wholly frozen", lambda: headspace({"benzene": 0.5, "p-xylene": 0.5}, 273.15),
+     OutOfRangeError, "temperature", "whole liquid would freeze"),
+    ("component too far below its melting point", lambda: headspace(
+        {"p-xylene": 0.1, "toluene": 0.9}, 250.0), OutOfRangeError, "temperature",
+     "25 K below its melting point"),
+    ("LFL alarm above 100 %", lambda: outdoor_spill(
+        "toluene", 293.15, [100.0], wind_speed=2.0, stability="D", area=1.0,
+        lfl_alarm_percent=150.0), InputError, "LFL alarm", "above 100 %"),
+    ("Britter-McQuaid zero release rate", lambda: britter_mcquaid_continuous(1.0, 0.0, 2.0),
+     InputError, "volume release rate", "above 0"),
     ("zero wind plume", lambda: ground_level_centerline(1.0, 0.0, 500.0, "D"), InputError,
      "wind_speed", ""),
     ("user substance molar mass in g/mol",

@@ -209,13 +209,6 @@ def test_flash_point_median_is_a_few_kelvin_below():
     assert -4.0 < float(np.median(diffs)) < -1.0
 
 
-@pytest.mark.parametrize("key", FREEZES_ABOVE_LFL_TEMPERATURE)
-def test_flash_point_below_melting_point_is_explained(key):
-    """Where the LFL temperature lies below the melting point, the reason is given."""
-    with pytest.raises(OutOfRangeError, match="lowest temperature the liquid exists"):
-        estimated_flash_point(key)
-
-
 @pytest.mark.parametrize(
     "liquid, temperature, pressure, exc, fragment",
     [

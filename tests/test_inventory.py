@@ -512,3 +512,20 @@ def test_csv_export_is_atomic(tmp_path, monkeypatch):
     assert os.listdir(tmp_path) == ["screened.csv"]
     back = pd.read_csv(path, encoding="utf-8-sig")
     assert len(back) == len(result.table)
+
+
+def test_subcooled_component_rows_are_computed():
+    """Mixed xylenes at 5 degC (p-xylene melts at 13.3 degC) and 5 % benzene in toluene
+    at 0 degC are computed, equal to the headspace function (itself checked against the
+    Wagner extrapolation of Poling et al. in test_subcooled); pure benzene at 0 degC and
+    a mixture below every melting point are refused."""
+    liquids = ["o-xylene 20%, m-xylene 44%, p-xylene 20%, ethylbenzene 16%",
+               "benzene 5%, toluene 95%", "benzene", "benzene 50%, p-xylene 50%"]
+    t = np.array([278.15, 273.15, 273.15, 273.15])
+    hs = headspace_arrays(liquids, t, basis="mass")
+    assert hs.valid.tolist() == [True, True, False, False]
+    single = headspace({"o-xylene": 0.2, "m-xylene": 0.44, "p-xylene": 0.2,
+                        "ethylbenzene": 0.16}, 278.15, basis="mass")
+    assert hs.ppm[0] == pytest.approx(single.total_ppm, rel=1e-9)
+    single = headspace({"benzene": 0.05, "toluene": 0.95}, 273.15, basis="mass")
+    assert hs.ppm[1] == pytest.approx(single.total_ppm, rel=1e-9)

@@ -203,11 +203,18 @@ def test_wind_speed_at_height_vectorised():
 
 
 def test_screening_validity_statements():
-    """Calm, near, far and dense cases are each flagged; an ordinary case only notes obstacles."""
-    ordinary = screening_validity(3.0, np.array([200.0, 2000.0]), 1.1)
+    """Calm, near, far and dense cases are each flagged; an ordinary case only notes
+    obstacles; a release the Britter-McQuaid criterion judges passive is not flagged."""
+    from estimator.outdoor import pool_source_criterion
+
+    passive = pool_source_criterion(0.01, 0.02, 0.092, 298.15, 101325.0, 5.0)
+    dense = pool_source_criterion(10.0, 0.5, 0.092, 298.15, 101325.0, 1.5)
+    assert not passive.dense and dense.dense
+    ordinary = screening_validity(3.0, np.array([200.0, 2000.0]), passive)
     assert len(ordinary) == 1 and "obstacles" in ordinary[0]
-    text = " ".join(screening_validity(0.5, np.array([50.0, 20000.0]), 3.0))
-    for fragment in ("near-calm", "under 100 m", "beyond 10 km", "dense gas", "obstacles"):
+    text = " ".join(screening_validity(0.5, np.array([50.0, 20000.0]), dense))
+    for fragment in ("near-calm", "under 100 m", "beyond 10 km", "dense gas", "obstacles",
+                     f"= {dense.value:.2g}"):
         assert fragment in text
 
 

@@ -145,4 +145,4 @@ def test_outdoor_plume_uses_initial_rate():
     assert run.emission_rate[0] == pytest.approx(g, rel=1e-9)
     np.testing.assert_allclose(run.concentration[:, 0],
                                ground_level_centerline(g, 2.0, [100.0, 500.0], "D"))
-    assert any("dense" in w for w in run.warnings)
+    assert any("Britter-McQuaid criterion" in w for w in run.warnings)

@@ -627,3 +627,19 @@ def test_report_from_the_page_carries_the_probabilistic_results():
     assert "Tank T-3: headspace, cumulative distribution" in report
     for label, p in mc.exceedance.items():
         assert f"<td>{label}</td><td class=\"num\">{100 * p:.3g} %</td>" in report
+
+
+def test_outdoor_page_shows_lfl_distances_of_the_core():
+    """The outdoor page shows the distances to the LFL and the alarm the core computes."""
+    from estimator.report import result_to_dict
+
+    at = page("spill_outdoors.py")
+    load_demo(at, WAREHOUSE)
+    assert not at.exception
+    result = run_scenario(load_scenario(WAREHOUSE))
+    i = next(i for i, s in enumerate(result.spills) if s.outdoor)
+    od = result_to_dict(result)["spills"][i]["outdoor"]
+    shown = metric(at, "Distance to the LFL")
+    assert shown == f"{od['distance_to_lfl_m']:,.0f} m"
+    assert metric(at, "Distance to 10 % LFL") == f"{od['distance_to_lfl_alarm_m']:,.0f} m"
+    assert metric(at, "Britter-McQuaid criterion").startswith(f"{od['dense_gas']['value']:.2g}")

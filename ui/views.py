@@ -396,8 +396,33 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
     run = spill.outdoor
     distance = _display(np.asarray(run.distances, dtype=float), "length", units)
     ppm = np.asarray(run.volume_fraction, dtype=float) * 1e6
-    frames = [pd.DataFrame({"distance": distance, "ppm": ppm[:, j], "series": name})
+    # the plotted profile starts at the pool's edge, so every limit line's crossing shows
+    reach = [d for d in (run.distance_to_lfl, run.distance_to_lfl_alarm) if d is not None]
+    reach += [d for _, d, _ in spill.distances if d]
+    far = max([float(np.max(run.distances))] + [1.5 * d for d in reach])
+    grid = np.geomspace(run.pool_edge, max(far, 2.0 * run.pool_edge), 120)
+    profile = run.centreline(grid) * 1e6
+    shown = _display(grid, "length", units)
+    frames = [pd.DataFrame({"distance": shown, "ppm": profile[:, j], "series": name})
               for j, name in enumerate(run.components)]
+    lines = _limit_lines(scenario.limits, set(_keys(scenario)))
+    fuel = np.isfinite(run.lower_flammability_limits)
+    if np.any(fuel):
+        fraction = run.fraction_of_lfl(grid)
+        total = profile[:, fuel].sum(axis=1)
+        if len(run.components) > 1:
+            frames.append(pd.DataFrame({"distance": shown, "ppm": total,
+                                        "series": "all flammable vapour"}))
+        lfl_ppm = float(np.median(total[fraction > 0] / fraction[fraction > 0]))
+        lines += [{"ppm": lfl_ppm, "limit": f"LFL {format_ppm(lfl_ppm)} ppm"},
+                  {"ppm": lfl_ppm * run.lfl_alarm_percent / 100.0,
+                   "limit": f"{run.lfl_alarm_percent:g} % LFL alarm"}]
+
+    def reach_text(d, flags):
+        if d is None:
+            return "never (below it at the pool edge)"
+        return _quantity_text(d, "length", units, ",.0f") + (
+            f" ({'; '.join(flags)})" if flags else "")
     rows = []
     for r in receptors:
         i = int(np.argmin(np.abs(distance - r)))
@@ -418,10 +443,23 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
         "rates_text": _rates_text(spill),
         "series": pd.concat(frames, ignore_index=True),
         "receptors": pd.DataFrame(rows), "distances": pd.DataFrame(distances),
-        "limit_lines": _limit_lines(scenario.limits, set(_keys(scenario))),
+        "limit_lines": lines,
         "findings": list(spill.findings), "warnings": list(spill.warnings),
         "assumptions": list(scenario.assumptions),
         "distance_unit": unit_label("length", units),
+        "flammable": bool(np.any(fuel)),
+        "lfl_text": reach_text(run.distance_to_lfl, run.lfl_flags),
+        "alarm_label": f"Distance to {run.lfl_alarm_percent:g} % LFL",
+        "alarm_text": reach_text(run.distance_to_lfl_alarm, run.lfl_alarm_flags),
+        "dense_text": (None if run.dense_gas is None else
+                       f"{run.dense_gas.value:.2g} ("
+                       + ("dense" if run.dense_gas.dense else "passive") + ")"),
+        "dense_statement": None if run.dense_gas is None else run.dense_gas.statement,
+        "cap_text": (None if run.capped_until is None else
+                     "Near the pool, out to "
+                     + _quantity_text(run.capped_until, "length", units, ",.0f")
+                     + ", the centreline is capped at the saturated vapour concentration "
+                     "over the pool (the most the pool can give)."),
     }
 
 

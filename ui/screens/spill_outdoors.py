@@ -71,6 +71,20 @@ def show(view: dict) -> None:
     a.metric("Source strength", view["source_text"], help="initial evaporation rate")
     b.metric("Stability class", view["stability"])
     c.metric("Wind at 10 m", view["wind_text"])
+    if view["flammable"]:
+        a, b, c = st.columns(3)
+        a.metric("Distance to the LFL", view["lfl_text"].split(" (")[0],
+                 help=view["lfl_text"])
+        b.metric(view["alarm_label"], view["alarm_text"].split(" (")[0],
+                 help=view["alarm_text"])
+        if view["dense_text"]:
+            c.metric("Britter-McQuaid criterion", view["dense_text"],
+                     help=view["dense_statement"])
+        for text in (view["lfl_text"], view["alarm_text"]):
+            if " (" in text:
+                st.caption(text)
+    if view["cap_text"]:
+        st.caption(view["cap_text"])
     if len(view["distances"]):
         st.markdown("**How far the centreline stays above each limit**")
         shared.table(view["distances"])
