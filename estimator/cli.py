@@ -18,10 +18,6 @@ EXIT_OK = 0
 EXIT_LIMIT = 1
 EXIT_BAD_INPUT = 2
 
-#: Where the demo scenarios live in a checkout.
-DEMO_DIR = Path(__file__).resolve().parents[1] / "scenarios"
-
-
 def _cautions_block() -> str:
     lines = ["", "Cautions:"]
     for caution in CAUTIONS:
@@ -122,9 +118,11 @@ def _summary(result) -> str:
 
 
 def _load(path):
+    from .samples import demo_scenario
     from .scenario import load_scenario
 
-    return load_scenario(path)
+    demo = None if Path(path).exists() else demo_scenario(path)
+    return load_scenario(demo or path)
 
 
 def _render(result, fmt: str) -> str:
@@ -297,38 +295,54 @@ def _cmd_inventory(args) -> int:
 
 
 def _cmd_demo(args) -> int:
+    from .samples import demo_scenarios
     from .screening import run_scenario
 
-    files = sorted(DEMO_DIR.glob("*.toml"))
+    files = demo_scenarios()
     if not files:
-        raise _BadInput("demo", f"no demo scenarios found in {DEMO_DIR.name}/; run from a "
-                        "checkout of ullage")
+        raise _BadInput("demo", "no demo scenarios are in this installation; reinstall "
+                        "ullage (pip install ullage)")
     for path in files:
         result = run_scenario(_load(path))
         print(f"=== {path.name} ===")
         sys.stdout.write(_summary(result))
         print()
-    print("Run one with `ullage run scenarios/NAME.toml --output report.html` for the full "
-          "report with plots.")
+    print(f"Run one with `ullage run {files[0].stem} --output report.html` for the full "
+          "report with plots (a demo's name or any scenario file).")
     return EXIT_OK
 
 
-def _cmd_app(args) -> int:
-    import subprocess
-
-    script = Path(__file__).resolve().parents[1] / "ui" / "app.py"
-    if not script.exists():
-        raise _BadInput("app", "the browser front end (ui/app.py) is not in this installation")
-    command = [sys.executable, "-m", "streamlit", "run", str(script),
-               "--server.address", args.address, "--server.port", str(args.port),
-               "--server.headless", "true", "--browser.gatherUsageStats", "false",
-               "--client.toolbarMode", "minimal"]
-    print(f"ullage: serving on http://{args.address}:{args.port} (Ctrl-C to stop)",
-          file=sys.stderr)
+def _port(text: str) -> int:
+    """A TCP port number from the command line."""
     try:
-        return subprocess.call(command)
-    except KeyboardInterrupt:
-        return EXIT_OK
+        number = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"{text!r} is not a port number; give a whole "
+                                         "number from 1 to 65535, such as 8501") from None
+    if not 1 <= number <= 65535:
+        raise argparse.ArgumentTypeError(f"{number} is outside 1-65535; give a port such "
+                                         "as 8501")
+    return number
+
+
+def _cmd_app(args) -> int:
+    import os
+
+    try:
+        from ullage_ui import launch
+    except ImportError:
+        raise _BadInput("app", "the browser front end (package ullage_ui) is not in this "
+                        "installation; reinstall ullage (pip install ullage)") from None
+    command = launch.command(["--server.address", args.address,
+                              "--server.port", str(args.port)])
+    print(f"ullage: serving on http://{args.address}:{args.port} (Ctrl-C to stop)",
+          file=sys.stderr, flush=True)
+    sys.stdout.flush()
+    if os.name == "posix":
+        # Become the server: its process id is this command's, so Ctrl-C, SIGTERM,
+        # SIGHUP (the terminal closing) and `kill PID` reach it directly.
+        os.execv(command[0], command)
+    return launch.forwarding_call(command)
 
 
 class _Parser(argparse.ArgumentParser):
@@ -353,7 +367,7 @@ def build_parser() -> argparse.ArgumentParser:
     p = sub.add_parser("run", help="run a scenario file and report the results",
                        description="Run a scenario and print a readable summary, or write "
                                    "the report as Markdown, HTML, JSON or CSV.")
-    p.add_argument("scenario", help="scenario file (.toml)")
+    p.add_argument("scenario", help="scenario file (.toml), or a demo's name")
     p.add_argument("--format", choices=["text", "markdown", "html", "json", "csv"],
                    help="output format (default: from --output's extension, else text)")
     p.add_argument("--output", "-o", help="write to this file instead of standard output")
@@ -400,8 +414,8 @@ def build_parser() -> argparse.ArgumentParser:
     p.set_defaults(func=_cmd_substances)
 
     p = sub.add_parser("demo", help="run the bundled demo scenarios",
-                       description="Run the demo scenarios in scenarios/ and print their "
-                                   "summaries.")
+                       description="Run the invented demo scenarios that ship with ullage "
+                                   "and print their summaries.")
     p.set_defaults(func=_cmd_demo)
 
     p = sub.add_parser("app", help="start the browser front end",
@@ -409,7 +423,7 @@ def build_parser() -> argparse.ArgumentParser:
                                    "only; give --address 0.0.0.0 to share it on a network "
                                    "deliberately.")
     p.add_argument("--address", default="127.0.0.1", help="address to listen on")
-    p.add_argument("--port", type=int, default=8501, help="port")
+    p.add_argument("--port", type=_port, default=8501, help="port (default 8501)")
     p.set_defaults(func=_cmd_app)
     return parser
 

@@ -17,8 +17,6 @@ import pandas as pd
 
 from estimator.units import convert
 
-ROOT = Path(__file__).resolve().parents[1]
-SCENARIO_FOLDER = ROOT / "scenarios"
 EXAMPLE_INVENTORY = Path(__file__).resolve().with_name("example_inventory.csv")
 
 #: Largest scenario upload read. [bytes]
@@ -321,7 +319,10 @@ def reset_defaults(state) -> None:
 
 
 def demo_files() -> list[Path]:
-    return sorted(SCENARIO_FOLDER.glob("*.toml"))
+    """The demo scenarios that ship with ullage (package data of `estimator`)."""
+    from estimator.samples import demo_scenarios
+
+    return demo_scenarios()
 
 
 # ---------------------------------------------------------------- scenario -> inputs

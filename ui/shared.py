@@ -15,8 +15,8 @@ import streamlit as st
 from estimator import CAUTIONS
 from estimator.errors import UllageError
 
-from ui import case, views
-from ui.case import key, system, unit_label
+from ullage_ui import case, views
+from ullage_ui.case import key, system, unit_label
 
 #: What to do, by the block an error points at.
 ADVICE = {
