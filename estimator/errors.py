@@ -40,7 +40,8 @@ class InputError(UllageError, ValueError):
 class UnknownSubstanceError(InputError):
     """A substance key that matches no name, synonym or CAS number."""
 
-    def __init__(self, field: str, key: str, suggestions: Iterable[str] = ()):
+    def __init__(self, field: str, key: str, suggestions: Iterable[str] = (),
+                 reason: str | None = None):
         self.key = key
         self.suggestions = tuple(suggestions)
         hint = (
@@ -49,7 +50,7 @@ class UnknownSubstanceError(InputError):
             else "run `ullage substances` to list what is known, or define the "
             "substance from its safety data sheet"
         )
-        super().__init__(field, f"no substance is known as {key!r}; {hint}")
+        super().__init__(field, f"{reason or f'no substance is known as {key!r}'}; {hint}")
 
 
 class OutOfRangeError(InputError):
