@@ -1316,6 +1316,6 @@ def suggestion_names() -> dict[str, str]:
     names: dict[str, str] = {}
     for cas in sorted(wanted):
         meta = db.search_CAS(cas, autoload=True)
-        if meta and meta.common_name:
+        if meta and meta.common_name and not re.fullmatch(r"[\d-]+", meta.common_name):
             names.setdefault(meta.common_name, cas)
     return names

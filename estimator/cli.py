@@ -46,12 +46,11 @@ def _cmd_substances(args) -> int:
     if args.text:
         try:
             hits = [substance(args.text)]
-        except UllageError:
-            hits = search_substances(args.text)
-        if not hits:
-            print(f"ullage: nothing matches {args.text!r}; run `ullage substances` to list "
-                  "all", file=sys.stderr)
-            return EXIT_BAD_INPUT
+        except UllageError as exc:
+            hits = [] if _looks_like_cas(args.text) else search_substances(args.text)
+            if not hits:
+                print(f"ullage: {exc.reason}", file=sys.stderr)
+                return EXIT_BAD_INPUT
         if len(hits) == 1:
             print(_describe(hits[0]))
             return EXIT_OK
@@ -59,35 +58,67 @@ def _cmd_substances(args) -> int:
         hits = list(all_substances())
     print(f"{'key':<26} {'CAS':<12} {'name':<32} {'Tb [degC]':>9}")
     for s in hits:
-        print(f"{s.key:<26} {s.cas:<12} {s.name[:32]:<32} {s.boiling_point - 273.15:9.1f}")
-    print(f"\n{len(hits)} substance(s). `ullage substances NAME` shows one in full.")
+        mark = "  (property library)" if s.origin == "lookup" else ""
+        print(f"{s.key:<26} {s.cas:<12} {s.name[:32]:<32} "
+              f"{s.boiling_point - 273.15:9.1f}{mark}")
+    print(f"\n{len(hits)} substance(s). `ullage substances NAME` shows one in full; any "
+          "name, synonym or CAS number the property library (chemicals) knows works too.")
     return EXIT_OK
 
 
+def _looks_like_cas(text: str) -> bool:
+    import re
+
+    return re.fullmatch(r"\s*\d{2,7}-\d{2}-\d\s*", text) is not None
+
+
+#: Shown for a value the data do not hold.
+NOT_ON_RECORD = "not on record: enter it from the safety data sheet"
+
+
 def _describe(s) -> str:
-    def celsius(k):
-        return "-" if k is None else f"{k - 273.15:.1f} degC"
+    from .vapor import method_uncertainty
+
+    def celsius(k, missing="-"):
+        return missing if k is None else f"{k - 273.15:.1f} degC"
 
     def percent(v):
         return "-" if v is None else f"{100 * v:.3g} %"
 
+    stated = method_uncertainty()
+
+    def method(c):
+        u = stated.get(c.method)
+        if u is None:
+            return c.method
+        return f"{c.method} (±{100 * u[0]:.2g} %)" if u[0] < 0.1 else \
+            f"{c.method} (±{100 * u[0]:.0f} %)"
+
+    flammability = (NOT_ON_RECORD if s.lower_flammability_limit is None else
+                    f"{percent(s.lower_flammability_limit)} / "
+                    f"{percent(s.upper_flammability_limit)}")
     rows = [
         ("name", s.name), ("key", s.key), ("CAS", s.cas), ("formula", s.formula),
+        ("data from", {"table": "ullage's curated table",
+                       "lookup": "the property library (chemicals), not the curated "
+                                 "table: check against the safety data sheet",
+                       "user": "values you entered"}.get(s.origin, s.origin)),
         ("synonyms", "; ".join(s.synonyms) or "-"),
         ("molar mass", f"{1000 * s.molar_mass:.2f} g/mol"),
         ("normal boiling point", celsius(s.boiling_point)),
         ("melting point", celsius(s.melting_point)),
         ("critical temperature", celsius(s.critical_temperature)),
         ("liquid density", "-" if s.liquid_density is None else f"{s.liquid_density:.0f} kg/m3"),
-        ("LFL / UFL in air", f"{percent(s.lower_flammability_limit)} / "
-                             f"{percent(s.upper_flammability_limit)}"),
-        ("flash point", celsius(s.flash_point)),
-        ("vapour-pressure methods", ", ".join(c.method for c in s.correlations)),
+        ("LFL / UFL in air", flammability),
+        ("flash point", celsius(s.flash_point, NOT_ON_RECORD)),
+        ("vapour-pressure methods", ", ".join(method(c) for c in s.correlations)),
     ]
     out = [f"{label:<26} {value}" for label, value in rows]
+    out.append("  (± stated uncertainty of each method: 95 % of validation points within it)")
     out.append("\nSources:")
     out += [f"  {group}: {source}" for group, source in s.sources.items()]
-    return "\n".join(out)
+    out += [textwrap.fill("note: " + n, width=78, subsequent_indent="      ") for n in s.notes]
+    return "\n".join(out) + "\n" + _cautions_block()
 
 
 def _summary(result) -> str:

@@ -41,10 +41,10 @@ class UnknownSubstanceError(InputError):
     """A substance key that matches no name, synonym or CAS number."""
 
     def __init__(self, field: str, key: str, suggestions: Iterable[str] = (),
-                 reason: str | None = None):
+                 reason: str | None = None, hint: str | None = None):
         self.key = key
         self.suggestions = tuple(suggestions)
-        hint = (
+        hint = hint or (
             "did you mean " + ", ".join(repr(s) for s in self.suggestions) + "?"
             if self.suggestions
             else "run `ullage substances` to list what is known, or define the "

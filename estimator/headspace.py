@@ -297,6 +297,7 @@ def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole"
     p_total = _check_pressure(pressure)
     estimates = _estimates(liq, temperature, "temperature")
     notes = list(liq.warnings)
+    notes.extend(n for c in liq.components if c.origin == "lookup" for n in c.notes)
     for e in estimates:
         notes.extend(e.warnings)
     p_sat = np.stack([np.asarray(e.pressure, dtype=float) for e in estimates])

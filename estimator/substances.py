@@ -304,39 +304,42 @@ def _known_name(cas: str) -> str | None:
 
 def _bad_check_digit(text: str, field: str) -> UnknownSubstanceError:
     expected = cas_check_digit(text)
-    hints = []
+    hints, labels = [], []
     for candidate in _cas_neighbours(text):
         name = _known_name(candidate)
         if name is not None:
-            hints.append(f"{candidate} ({name})")
+            hints.append(candidate)
+            labels.append(f"{candidate} ({name})")
         if len(hints) == 3:
             break
     return UnknownSubstanceError(
         field, text, hints,
         reason=f"{text!r} is not a valid CAS number: its check digit (the last digit) "
-               f"should be {expected} for the digits before it, so a digit is mistyped")
+               f"should be {expected} for the digits before it, so a digit is mistyped",
+        hint=("did you mean " + " or ".join(labels) + "?") if labels else
+             "check the number on the safety data sheet")
 
 
-def _name_hints(text: str) -> list[str]:
-    """Up to three close matches of `text` among the table's keys, names and synonyms
+def _name_hints(text: str, n: int = 3) -> list[str]:
+    """Up to `n` close matches of `text` among the table's keys, names and synonyms
     and the library's compound names, closest first (the table's key on a tie)."""
     by_key, _ = _table()
     labels = {label: s.key for s in by_key.values() for label in (s.key, s.name, *s.synonyms)}
     scored = []  # (-similarity, 0 table / 1 library, hint, CAS)
-    for label in suggest(text, sorted(labels), n=6):
+    for label in suggest(text, sorted(labels), n=2 * n):
         sub = by_key[labels[label]]
         scored.append((-_similarity(text, label), 0, sub.key, sub.cas))
     lib = _library()
     if lib is not None:
         pool = lib.suggestion_names()
-        for name in suggest(text, pool, n=6):
+        for name in suggest(text, pool, n=2 * n):
             scored.append((-_similarity(text, name), 1, name, pool[name]))
     hints, seen = [], set()
     for _, _, hint, cas in sorted(scored):
         if cas not in seen and hint not in hints:
             hints.append(hint)
             seen.add(cas)
-    return hints[:3]
+    return hints[:n]
 
 
 def _similarity(a: str, b: str) -> float:
@@ -421,25 +424,15 @@ def search_substances(text: str, limit: int = 10) -> list[Substance]:
                              for label in (s.key, s.name, s.cas, *s.synonyms))
     ]
     if len(found) < limit and needle:
-        labels = {}
-        for s in by_key.values():
-            for label in (s.key, s.name, *s.synonyms):
-                labels[label] = s
-        for hint in suggest(text, labels, n=limit):
-            if labels[hint] not in found:
-                found.append(labels[hint])
-    lib = _library()
-    if len(found) < limit and needle and lib is not None:
         known = {s.cas for s in found}
-        pool = lib.suggestion_names()
-        for name in suggest(text, pool, n=limit):
-            if pool[name] in known or len(found) >= limit:
-                continue
+        for hint in _name_hints(text, n=limit):
             try:
-                found.append(substance(pool[name]))
+                sub = substance(hint)
             except UllageError:
                 continue
-            known.add(pool[name])
+            if sub.cas not in known and sub not in found:
+                found.append(sub)
+                known.add(sub.cas)
     return found[:limit]
 
 
