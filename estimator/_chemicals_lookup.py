@@ -1254,8 +1254,21 @@ def cas_is_known(cas: str) -> bool:
     return bool(_identifier_db().search_CAS(cas.strip(), autoload=True))
 
 
-def _index_of(df) -> set[str]:
-    return set() if df is None else {str(c) for c in df.index}
+def _cas_text(value) -> str:
+    """A CAS number as text with dashes (some tables index it as an integer)."""
+    text = str(value)
+    if text.isdigit():
+        from chemicals.identifiers import int_to_CAS
+
+        return int_to_CAS(int(text))
+    return text
+
+
+def _index_of(df, mask=None) -> set[str]:
+    if df is None:
+        return set()
+    index = df.index if mask is None else df.index[mask]
+    return {_cas_text(c) for c in index}
 
 
 def boiling_point_cas() -> set[str]:
@@ -1268,7 +1281,7 @@ def boiling_point_cas() -> set[str]:
     for method in BOILING_POINT_SOURCES:
         df = phase_change.Tb_sources.get(method)
         if df is not None and "Tb" in df.columns:
-            out |= {str(c) for c in df.index[df["Tb"].astype(float) > 0.0]}
+            out |= _index_of(df, df["Tb"].astype(float) > 0.0)
     return out
 
 
@@ -1301,8 +1314,8 @@ def flammability_cas() -> tuple[set[str], set[str]]:
     safety.LFL(CASRN="67-64-1")  # loads the tables
     lfl, flash = set(), set()
     for df in (safety.IEC_2010_data, safety.NFPA_2008_data):
-        lfl |= {str(c) for c in df.index[df["LFL"].astype(float) > 0.0]}
-        flash |= {str(c) for c in df.index[df["T_flash"].astype(float) > 0.0]}
+        lfl |= _index_of(df, df["LFL"].astype(float) > 0.0)
+        flash |= _index_of(df, df["T_flash"].astype(float) > 0.0)
     return lfl, flash
 
 
