@@ -49,7 +49,7 @@ def _cmd_substances(args) -> int:
         except UllageError as exc:
             hits = [] if _looks_like_cas(args.text) else search_substances(args.text)
             if not hits:
-                print(f"ullage: {exc.reason}", file=sys.stderr)
+                print(f"ullage: nothing matches {args.text!r}: {exc.reason}", file=sys.stderr)
                 return EXIT_BAD_INPUT
         if len(hits) == 1:
             print(_describe(hits[0]))
