@@ -90,3 +90,12 @@ def test_demo_command_runs_every_demo(capsys, monkeypatch, tmp_path):
     for path in demo_scenarios():
         assert f"=== {path.name} ===" in out
     assert "calibrated" in out
+
+
+def test_browser_demo_list_is_the_package_data():
+    """The browser's "load a demo" lists the same files `ullage demo` runs."""
+    pytest.importorskip("streamlit")
+    from ullage_ui import case
+
+    assert case.demo_files() == demo_scenarios()
+    assert case.EXAMPLE_INVENTORY.is_file()
