@@ -1227,3 +1227,133 @@ def lookup(
     except ValueError:
         row.update({"diffusion_volume": None, "diffusion_volume_source": None})
     return row
+
+
+# ---------------------------------------------------------------- identifiers
+
+
+def _identifier_db():
+    """The identifier database of ``chemicals`` (names, synonyms, CAS numbers)."""
+    _chemicals()
+    from chemicals.identifiers import get_pubchem_db
+
+    return get_pubchem_db()
+
+
+@functools.cache
+def cas_of_name(name: str) -> str | None:
+    """The CAS number of a name or synonym in the identifier database of ``chemicals``.
+
+    Only names are matched (as given, lower case, without spaces, without spaces
+    and hyphens), never formulas, SMILES strings or other identifiers: "CO" is
+    not read as methanol's SMILES, nor "C6H14" as one of five hexane isomers.
+
+    Parameters
+    ----------
+    name : str
+        A name or synonym, such as "isohexane" or "butyl cellosolve".
+
+    Returns
+    -------
+    str or None
+        The CAS number, or None if the name is not in the database.
+    """
+    db = _identifier_db()
+    text = " ".join(str(name).split())
+    if not text:
+        return None
+    bare = text.replace(" ", "")
+    hyphened = text.replace(" ", "-")
+    for variant in dict.fromkeys([text, text.lower(), hyphened, hyphened.lower(), bare,
+                                  bare.lower(), bare.replace("-", ""),
+                                  bare.replace("-", "").lower()]):
+        hit = db.search_name(variant, autoload=True)
+        if hit:
+            return hit.CASs
+    return None
+
+
+@functools.cache
+def cas_is_known(cas: str) -> bool:
+    """Whether the identifier database of ``chemicals`` has this CAS number."""
+    return bool(_identifier_db().search_CAS(cas.strip(), autoload=True))
+
+
+def _cas_text(value) -> str:
+    """A CAS number as text with dashes (some tables index it as an integer)."""
+    text = str(value)
+    if text.isdigit():
+        from chemicals.identifiers import int_to_CAS
+
+        return int_to_CAS(int(text))
+    return text
+
+
+def _index_of(df, mask=None) -> set[str]:
+    if df is None:
+        return set()
+    index = df.index if mask is None else df.index[mask]
+    return {_cas_text(c) for c in index}
+
+
+def boiling_point_cas() -> set[str]:
+    """CAS numbers with a normal boiling point in a source of :data:`BOILING_POINT_SOURCES`."""
+    _chemicals()
+    from chemicals import phase_change
+
+    phase_change.Tb("7732-18-5")  # loads the tables
+    out = _index_of(phase_change.Hvap_data_CRC)
+    for method in BOILING_POINT_SOURCES:
+        df = phase_change.Tb_sources.get(method)
+        if df is not None and "Tb" in df.columns:
+            out |= _index_of(df, df["Tb"].astype(float) > 0.0)
+    return out
+
+
+def correlation_cas() -> set[str]:
+    """CAS numbers with a DIPPR-101 or Antoine vapour-pressure correlation in a
+    source that :func:`dippr_vapor_pressure` or :func:`antoine_vapor_pressure` reads."""
+    _chemicals()
+    from chemicals import vapor_pressure
+
+    out: set[str] = set()
+    for df in (vapor_pressure.Psat_data_Perrys2_8, vapor_pressure.Psat_data_VDI_PPDS_3,
+               vapor_pressure.Psat_data_Alcock_elements,
+               vapor_pressure.Psat_data_AntoinePoling,
+               vapor_pressure.Psat_data_Landolt_Antoine):
+        out |= _index_of(df)
+    for cas, compound in _chemsep_database().items():
+        el = compound.find("VaporPressure")
+        if el is not None and el.find("eqno") is not None \
+                and el.find("eqno").get("value") == "101":
+            out.add(cas)
+    return out
+
+
+def flammability_cas() -> tuple[set[str], set[str]]:
+    """CAS numbers with a lower flammability limit, and with a flash point, in
+    IEC 60079-20-1:2010 or NFPA 497 (2008)."""
+    _chemicals()
+    from chemicals import safety
+
+    safety.LFL(CASRN="67-64-1")  # loads the tables
+    lfl, flash = set(), set()
+    for df in (safety.IEC_2010_data, safety.NFPA_2008_data):
+        lfl |= _index_of(df, df["LFL"].astype(float) > 0.0)
+        flash |= _index_of(df, df["T_flash"].astype(float) > 0.0)
+    return lfl, flash
+
+
+@functools.cache
+def suggestion_names() -> dict[str, str]:
+    """Names of the library's compounds that have a boiling point and a
+    vapour-pressure correlation (the liquids tanks and drums commonly hold),
+    mapped to their CAS numbers: the pool for close-match suggestions."""
+    db = _identifier_db()
+    wanted = boiling_point_cas() & correlation_cas()
+    names: dict[str, str] = {}
+    for cas in sorted(wanted):
+        meta = db.search_CAS(cas, autoload=True)
+        if meta and meta.common_name and not re.fullmatch(r"[\d-]+", meta.common_name):
+            names.setdefault(meta.common_name, cas)
+    return names

@@ -18,10 +18,6 @@ EXIT_OK = 0
 EXIT_LIMIT = 1
 EXIT_BAD_INPUT = 2
 
-#: Where the demo scenarios live in a checkout.
-DEMO_DIR = Path(__file__).resolve().parents[1] / "scenarios"
-
-
 def _cautions_block() -> str:
     lines = ["", "Cautions:"]
     for caution in CAUTIONS:
@@ -50,12 +46,11 @@ def _cmd_substances(args) -> int:
     if args.text:
         try:
             hits = [substance(args.text)]
-        except UllageError:
-            hits = search_substances(args.text)
-        if not hits:
-            print(f"ullage: nothing matches {args.text!r}; run `ullage substances` to list "
-                  "all", file=sys.stderr)
-            return EXIT_BAD_INPUT
+        except UllageError as exc:
+            hits = [] if _looks_like_cas(args.text) else search_substances(args.text)
+            if not hits:
+                print(f"ullage: nothing matches {args.text!r}: {exc.reason}", file=sys.stderr)
+                return EXIT_BAD_INPUT
         if len(hits) == 1:
             print(_describe(hits[0]))
             return EXIT_OK
@@ -63,35 +58,67 @@ def _cmd_substances(args) -> int:
         hits = list(all_substances())
     print(f"{'key':<26} {'CAS':<12} {'name':<32} {'Tb [degC]':>9}")
     for s in hits:
-        print(f"{s.key:<26} {s.cas:<12} {s.name[:32]:<32} {s.boiling_point - 273.15:9.1f}")
-    print(f"\n{len(hits)} substance(s). `ullage substances NAME` shows one in full.")
+        mark = "  (property library)" if s.origin == "lookup" else ""
+        print(f"{s.key:<26} {s.cas:<12} {s.name[:32]:<32} "
+              f"{s.boiling_point - 273.15:9.1f}{mark}")
+    print(f"\n{len(hits)} substance(s). `ullage substances NAME` shows one in full; any "
+          "name, synonym or CAS number the property library (chemicals) knows works too.")
     return EXIT_OK
 
 
+def _looks_like_cas(text: str) -> bool:
+    import re
+
+    return re.fullmatch(r"\s*\d{2,7}-\d{2}-\d\s*", text) is not None
+
+
+#: Shown for a value the data do not hold.
+NOT_ON_RECORD = "not on record: enter it from the safety data sheet"
+
+
 def _describe(s) -> str:
-    def celsius(k):
-        return "-" if k is None else f"{k - 273.15:.1f} degC"
+    from .vapor import method_uncertainty
+
+    def celsius(k, missing="-"):
+        return missing if k is None else f"{k - 273.15:.1f} degC"
 
     def percent(v):
         return "-" if v is None else f"{100 * v:.3g} %"
 
+    stated = method_uncertainty()
+
+    def method(c):
+        u = stated.get(c.method)
+        if u is None:
+            return c.method
+        return f"{c.method} (±{100 * u[0]:.2g} %)" if u[0] < 0.1 else \
+            f"{c.method} (±{100 * u[0]:.0f} %)"
+
+    flammability = (NOT_ON_RECORD if s.lower_flammability_limit is None else
+                    f"{percent(s.lower_flammability_limit)} / "
+                    f"{percent(s.upper_flammability_limit)}")
     rows = [
         ("name", s.name), ("key", s.key), ("CAS", s.cas), ("formula", s.formula),
+        ("data from", {"table": "ullage's curated table",
+                       "lookup": "the property library (chemicals), not the curated "
+                                 "table: check against the safety data sheet",
+                       "user": "values you entered"}.get(s.origin, s.origin)),
         ("synonyms", "; ".join(s.synonyms) or "-"),
         ("molar mass", f"{1000 * s.molar_mass:.2f} g/mol"),
         ("normal boiling point", celsius(s.boiling_point)),
         ("melting point", celsius(s.melting_point)),
         ("critical temperature", celsius(s.critical_temperature)),
         ("liquid density", "-" if s.liquid_density is None else f"{s.liquid_density:.0f} kg/m3"),
-        ("LFL / UFL in air", f"{percent(s.lower_flammability_limit)} / "
-                             f"{percent(s.upper_flammability_limit)}"),
-        ("flash point", celsius(s.flash_point)),
-        ("vapour-pressure methods", ", ".join(c.method for c in s.correlations)),
+        ("LFL / UFL in air", flammability),
+        ("flash point", celsius(s.flash_point, NOT_ON_RECORD)),
+        ("vapour-pressure methods", ", ".join(method(c) for c in s.correlations)),
     ]
     out = [f"{label:<26} {value}" for label, value in rows]
+    out.append("  (± stated uncertainty of each method: 95 % of validation points within it)")
     out.append("\nSources:")
     out += [f"  {group}: {source}" for group, source in s.sources.items()]
-    return "\n".join(out)
+    out += [textwrap.fill("note: " + n, width=78, subsequent_indent="      ") for n in s.notes]
+    return "\n".join(out) + "\n" + _cautions_block()
 
 
 def _summary(result) -> str:
@@ -122,9 +149,11 @@ def _summary(result) -> str:
 
 
 def _load(path):
+    from .samples import demo_scenario
     from .scenario import load_scenario
 
-    return load_scenario(path)
+    demo = None if Path(path).exists() else demo_scenario(path)
+    return load_scenario(demo or path)
 
 
 def _render(result, fmt: str) -> str:
@@ -310,38 +339,54 @@ def _cmd_inventory(args) -> int:
 
 
 def _cmd_demo(args) -> int:
+    from .samples import demo_scenarios
     from .screening import run_scenario
 
-    files = sorted(DEMO_DIR.glob("*.toml"))
+    files = demo_scenarios()
     if not files:
-        raise _BadInput("demo", f"no demo scenarios found in {DEMO_DIR.name}/; run from a "
-                        "checkout of ullage")
+        raise _BadInput("demo", "no demo scenarios are in this installation; reinstall "
+                        "ullage (pip install ullage)")
     for path in files:
         result = run_scenario(_load(path))
         print(f"=== {path.name} ===")
         sys.stdout.write(_summary(result))
         print()
-    print("Run one with `ullage run scenarios/NAME.toml --output report.html` for the full "
-          "report with plots.")
+    print(f"Run one with `ullage run {files[0].stem} --output report.html` for the full "
+          "report with plots (a demo's name or any scenario file).")
     return EXIT_OK
 
 
-def _cmd_app(args) -> int:
-    import subprocess
-
-    script = Path(__file__).resolve().parents[1] / "ui" / "app.py"
-    if not script.exists():
-        raise _BadInput("app", "the browser front end (ui/app.py) is not in this installation")
-    command = [sys.executable, "-m", "streamlit", "run", str(script),
-               "--server.address", args.address, "--server.port", str(args.port),
-               "--server.headless", "true", "--browser.gatherUsageStats", "false",
-               "--client.toolbarMode", "minimal"]
-    print(f"ullage: serving on http://{args.address}:{args.port} (Ctrl-C to stop)",
-          file=sys.stderr)
+def _port(text: str) -> int:
+    """A TCP port number from the command line."""
     try:
-        return subprocess.call(command)
-    except KeyboardInterrupt:
-        return EXIT_OK
+        number = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"{text!r} is not a port number; give a whole "
+                                         "number from 1 to 65535, such as 8501") from None
+    if not 1 <= number <= 65535:
+        raise argparse.ArgumentTypeError(f"{number} is outside 1-65535; give a port such "
+                                         "as 8501")
+    return number
+
+
+def _cmd_app(args) -> int:
+    import os
+
+    try:
+        from ullage_ui import launch
+    except ImportError:
+        raise _BadInput("app", "the browser front end (package ullage_ui) is not in this "
+                        "installation; reinstall ullage (pip install ullage)") from None
+    command = launch.command(["--server.address", args.address,
+                              "--server.port", str(args.port)])
+    print(f"ullage: serving on http://{args.address}:{args.port} (Ctrl-C to stop)",
+          file=sys.stderr, flush=True)
+    sys.stdout.flush()
+    if os.name == "posix":
+        # Become the server: its process id is this command's, so Ctrl-C, SIGTERM,
+        # SIGHUP (the terminal closing) and `kill PID` reach it directly.
+        os.execv(command[0], command)
+    return launch.forwarding_call(command)
 
 
 class _Parser(argparse.ArgumentParser):
@@ -366,7 +411,7 @@ def build_parser() -> argparse.ArgumentParser:
     p = sub.add_parser("run", help="run a scenario file and report the results",
                        description="Run a scenario and print a readable summary, or write "
                                    "the report as Markdown, HTML, JSON or CSV.")
-    p.add_argument("scenario", help="scenario file (.toml)")
+    p.add_argument("scenario", help="scenario file (.toml), or a demo's name")
     p.add_argument("--format", choices=["text", "markdown", "html", "json", "csv"],
                    help="output format (default: from --output's extension, else text)")
     p.add_argument("--output", "-o", help="write to this file instead of standard output")
@@ -414,8 +459,8 @@ def build_parser() -> argparse.ArgumentParser:
     p.set_defaults(func=_cmd_substances)
 
     p = sub.add_parser("demo", help="run the bundled demo scenarios",
-                       description="Run the demo scenarios in scenarios/ and print their "
-                                   "summaries.")
+                       description="Run the invented demo scenarios that ship with ullage "
+                                   "and print their summaries.")
     p.set_defaults(func=_cmd_demo)
 
     p = sub.add_parser("app", help="start the browser front end",
@@ -423,7 +468,7 @@ def build_parser() -> argparse.ArgumentParser:
                                    "only; give --address 0.0.0.0 to share it on a network "
                                    "deliberately.")
     p.add_argument("--address", default="127.0.0.1", help="address to listen on")
-    p.add_argument("--port", type=int, default=8501, help="port")
+    p.add_argument("--port", type=_port, default=8501, help="port (default 8501)")
     p.set_defaults(func=_cmd_app)
     return parser
 

@@ -40,16 +40,17 @@ class InputError(UllageError, ValueError):
 class UnknownSubstanceError(InputError):
     """A substance key that matches no name, synonym or CAS number."""
 
-    def __init__(self, field: str, key: str, suggestions: Iterable[str] = ()):
+    def __init__(self, field: str, key: str, suggestions: Iterable[str] = (),
+                 reason: str | None = None, hint: str | None = None):
         self.key = key
         self.suggestions = tuple(suggestions)
-        hint = (
+        hint = hint or (
             "did you mean " + ", ".join(repr(s) for s in self.suggestions) + "?"
             if self.suggestions
             else "run `ullage substances` to list what is known, or define the "
             "substance from its safety data sheet"
         )
-        super().__init__(field, f"no substance is known as {key!r}; {hint}")
+        super().__init__(field, f"{reason or f'no substance is known as {key!r}'}; {hint}")
 
 
 class OutOfRangeError(InputError):

@@ -1454,7 +1454,8 @@ def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
             index[key] = len(groups)
             groups.append(liq)
         group_of_pair[k] = index[key]
-        for note in liq.warnings:
+        looked_up = [n for c in liq.components if c.origin == "lookup" for n in c.notes]
+        for note in (*liq.warnings, *looked_up):
             for i in rows:
                 issues.caution(i, liquid_label, note)
     return groups, group_of_pair[pair_codes]

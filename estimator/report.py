@@ -590,6 +590,14 @@ def _blocks(result, generated) -> tuple[list, bool]:
         rows = [[group.replace("_", " "), source, ", ".join(names)]
                 for (source, group), names in grouped.items()]
         b.append(_Table(["values", "source", "substances"], rows))
+        looked_up = [f"{sub.name} ({sub.cas})" for sub in subs.values()
+                     if sub.origin == "lookup"]
+        if looked_up:
+            b.append(_Para("Not in ullage's curated table, taken from the property "
+                           "library (chemicals) as compiled there: " + ", ".join(looked_up)
+                           + ". Check these values against the supplier's safety data "
+                           "sheet; a flammability limit or flash point not on record "
+                           "must be entered from the safety data sheet."))
 
     b.append(_Heading(2, "Assumptions"))
     b.append(_Bullets(list(result.assumptions)) if result.assumptions
@@ -1333,7 +1341,7 @@ def _tank_dict(result, tank) -> dict:
         "name": tank.name, "liquid": tank.liquid, "pressure_pa": tank.pressure,
         "temperature_k": tank.temperature, "worst_temperature_k": tank.worst_temperature,
         "components": [{
-            "key": c.key, "name": c.name, "cas": c.cas,
+            "key": c.key, "name": c.name, "cas": c.cas, "origin": c.origin,
             "liquid_mole_fraction": float(np.asarray(hs.liquid.mole_fractions)[j]),
             "molar_mass_kg_per_mol": c.molar_mass, "sources": dict(c.sources)}
             for j, c in enumerate(hs.liquid.components)],

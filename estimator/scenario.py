@@ -184,7 +184,8 @@ class Scenario:
                                                        "method_uncertainty": True})
 
     def resolve(self, name: str, field: str):
-        """A substance by name: the scenario's own first, then the bundled table."""
+        """A substance by name: the scenario's own first, then the curated table, then
+        the property library (by name, synonym or CAS number)."""
         from .substances import substance
 
         for sub in self.substances:

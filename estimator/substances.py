@@ -16,7 +16,7 @@ from pathlib import Path
 from types import MappingProxyType
 
 from .constants import STANDARD_ATMOSPHERE
-from .errors import InputError, UnknownSubstanceError, suggest
+from .errors import InputError, UllageError, UnknownSubstanceError, suggest
 from .vapor import (
     AntoineCorrelation,
     ClausiusClapeyronCorrelation,
@@ -33,6 +33,7 @@ __all__ = [
     "search_substances",
     "user_substance",
     "lookup_cas",
+    "cas_check_digit",
     "TABLE_PATH",
 ]
 
@@ -231,25 +232,150 @@ def all_substances() -> tuple[Substance, ...]:
     return tuple(by_key[k] for k in sorted(by_key))
 
 
+def cas_check_digit(cas: str) -> int:
+    """The check digit a CAS registry number must end with.
+
+    The last digit of a CAS number is the sum of the other digits, each times its
+    position counted from the right (1 for the digit before the check digit), modulo 10.
+
+    Parameters
+    ----------
+    cas : str
+        A CAS number ("108-88-3"); its own check digit is ignored.
+
+    Returns
+    -------
+    int
+
+    References
+    ----------
+    .. [1] CAS, "CAS Registry Number: check digit verification", CAS Registry
+       documentation (American Chemical Society).
+
+    Examples
+    --------
+    >>> cas_check_digit("108-88-3")
+    3
+    >>> cas_check_digit("7732-18-5")
+    5
+    """
+    digits = [int(c) for c in cas.replace("-", "")[:-1]]
+    return sum(weight * d for weight, d in enumerate(reversed(digits), start=1)) % 10
+
+
+def _cas_neighbours(cas: str) -> list[str]:
+    """Valid CAS numbers one typing slip away from `cas`: another check digit, one
+    digit changed, or two neighbouring digits swapped."""
+    body, check = cas.replace("-", "")[:-1], cas[-1]
+    shape = [len(part) for part in cas.split("-")]
+
+    def dashed(digits: str) -> str:
+        return f"{digits[:shape[0]]}-{digits[shape[0]:shape[0] + 2]}-{digits[-1]}"
+
+    out = [dashed(body + str(cas_check_digit(cas)))]
+    whole = body + check
+    for i in range(len(whole)):
+        for d in "0123456789":
+            if d != whole[i] and not (i == 0 and d == "0"):
+                out.append(dashed(whole[:i] + d + whole[i + 1:]))
+        if i + 1 < len(whole) and whole[i] != whole[i + 1]:
+            out.append(dashed(whole[:i] + whole[i + 1] + whole[i] + whole[i + 2:]))
+    return [c for c in dict.fromkeys(out) if int(c[-1]) == cas_check_digit(c)]
+
+
+def _library():
+    """The look-up module over the ``chemicals`` package, or None if it is missing."""
+    try:
+        from . import _chemicals_lookup
+
+        _chemicals_lookup._chemicals()
+    except ImportError:
+        return None
+    return _chemicals_lookup
+
+
+def _known_name(cas: str) -> str | None:
+    """Display name of a CAS number in the table or the library, or None."""
+    by_key, index = _table()
+    if cas in index:
+        return by_key[index[cas]].name
+    lib = _library()
+    if lib is not None and lib.cas_is_known(cas):
+        return lib.identity(cas)["name"] or cas
+    return None
+
+
+def _bad_check_digit(text: str, field: str) -> UnknownSubstanceError:
+    expected = cas_check_digit(text)
+    hints, labels = [], []
+    for candidate in _cas_neighbours(text):
+        name = _known_name(candidate)
+        if name is not None:
+            hints.append(candidate)
+            labels.append(f"{candidate} ({name})")
+        if len(hints) == 3:
+            break
+    return UnknownSubstanceError(
+        field, text, hints,
+        reason=f"{text!r} is not a valid CAS number: its check digit (the last digit) "
+               f"should be {expected} for the digits before it, so a digit is mistyped",
+        hint=("did you mean " + " or ".join(labels) + "?") if labels else
+             "check the number on the safety data sheet")
+
+
+def _name_hints(text: str, n: int = 3) -> list[str]:
+    """Up to `n` close matches of `text` among the table's keys, names and synonyms
+    and the library's compound names, closest first (the table's key on a tie)."""
+    by_key, _ = _table()
+    labels = {label: s.key for s in by_key.values() for label in (s.key, s.name, *s.synonyms)}
+    scored = []  # (-similarity, 0 table / 1 library, hint, CAS)
+    for label in suggest(text, sorted(labels), n=2 * n):
+        sub = by_key[labels[label]]
+        scored.append((-_similarity(text, label), 0, sub.key, sub.cas))
+    lib = _library()
+    if lib is not None:
+        pool = lib.suggestion_names()
+        for name in suggest(text, pool, n=2 * n):
+            scored.append((-_similarity(text, name), 1, name, pool[name]))
+    hints, seen = [], set()
+    for _, _, hint, cas in sorted(scored):
+        if cas not in seen and hint not in hints:
+            hints.append(hint)
+            seen.add(cas)
+    return hints[:n]
+
+
+def _similarity(a: str, b: str) -> float:
+    import difflib
+
+    return difflib.SequenceMatcher(None, a.lower(), b.lower()).ratio()
+
+
 def substance(key: str, field: str = "substance") -> Substance:
-    """Look a substance up in the bundled table by name, synonym or CAS number.
+    """A substance by name, synonym or CAS number: the curated table first, then the
+    property library (`chemicals`).
 
     Parameters
     ----------
     key : str
-        Name ("toluene"), synonym ("MEK", "IPA") or CAS number ("108-88-3");
-        case, spaces, hyphens and commas do not matter.
+        Name ("toluene"), synonym ("MEK", "IPA", "isohexane") or CAS number
+        ("108-88-3"); case, spaces, hyphens and commas do not matter in the table.
     field : str
         Name of the input, for messages.
 
     Returns
     -------
     Substance
+        From the table (``origin == "table"``), or looked up in the library
+        (``origin == "lookup"``, key = CAS number, flagged in `notes`).
 
     Raises
     ------
     UnknownSubstanceError
-        If nothing matches; the message suggests close matches.
+        If nothing matches, or the CAS number's check digit is wrong; the message
+        suggests close matches.
+    InputError
+        If the library has the compound but not enough data to screen it.
 
     Examples
     --------
@@ -257,18 +383,30 @@ def substance(key: str, field: str = "substance") -> Substance:
     'Methyl ethyl ketone'
     >>> substance("108-88-3").key
     'toluene'
+    >>> substance("isohexane").origin
+    'lookup'
     """
     if not isinstance(key, str) or not key.strip():
         raise InputError(field, "give a substance name, synonym or CAS number")
+    text = key.strip()
     by_key, index = _table()
-    hit = index.get(key.lower().strip()) or index.get(_normalise(key))
+    hit = index.get(text.lower()) or index.get(_normalise(text))
     if hit is not None:
         return by_key[hit]
-    labels = {label: s.key for s in by_key.values() for label in (s.key, s.name, *s.synonyms)}
-    hints = list(dict.fromkeys(labels[h] for h in suggest(key.strip(), sorted(labels), n=6)))
-    if not hints and _CAS.match(key.strip()):
-        raise UnknownSubstanceError(field, key, ())
-    raise UnknownSubstanceError(field, key, hints[:3])
+    lib = _library()
+    if _CAS.match(text):
+        if int(text[-1]) != cas_check_digit(text):
+            raise _bad_check_digit(text, field)
+        if lib is not None and lib.cas_is_known(text):
+            return _looked_up(text, field)
+        raise UnknownSubstanceError(field, text, (), reason=(
+            f"no substance with CAS number {text} is in the table or the property library"))
+    cas = lib.cas_of_name(text) if lib is not None else None
+    if cas is not None:
+        if cas in index:
+            return by_key[index[cas]]
+        return _looked_up(cas, field)
+    raise UnknownSubstanceError(field, key, _name_hints(text))
 
 
 def as_substance(value, field: str = "substance") -> Substance:
@@ -279,7 +417,8 @@ def as_substance(value, field: str = "substance") -> Substance:
 
 
 def search_substances(text: str, limit: int = 10) -> list[Substance]:
-    """Substances whose key, name, synonyms or CAS contain `text`, then close matches."""
+    """Substances whose key, name, synonyms or CAS contain `text`, then close matches
+    (the table's, then the property library's)."""
     by_key, _ = _table()
     needle = _normalise(text)
     found = [
@@ -288,13 +427,15 @@ def search_substances(text: str, limit: int = 10) -> list[Substance]:
                              for label in (s.key, s.name, s.cas, *s.synonyms))
     ]
     if len(found) < limit and needle:
-        labels = {}
-        for s in by_key.values():
-            for label in (s.key, s.name, *s.synonyms):
-                labels[label] = s
-        for hint in suggest(text, labels, n=limit):
-            if labels[hint] not in found:
-                found.append(labels[hint])
+        known = {s.cas for s in found}
+        for hint in _name_hints(text, n=limit):
+            try:
+                sub = substance(hint)
+            except UllageError:
+                continue
+            if sub.cas not in known and sub not in found:
+                found.append(sub)
+                known.add(sub.cas)
     return found[:limit]
 
 
@@ -448,38 +589,62 @@ def _fit_correlation(fit, source) -> ClausiusClapeyronCorrelation:
 
 
 def lookup_cas(cas: str) -> Substance:
-    """A substance for any CAS number, from the general-purpose `chemicals` package.
+    """A substance for a CAS number from the property library (`chemicals`) alone.
 
-    Needs the optional dependency (``pip install ullage[lookup]``). The values
-    are compiled data of that package with their original sources named; check
-    them against the supplier's safety data sheet before relying on them.
+    `substance()` calls this for anything the curated table lacks. The values are
+    compiled data of that package with their original sources named; check them
+    against the supplier's safety data sheet before relying on them.
 
     Raises
     ------
     InputError
-        If the package is missing, the CAS number is malformed or unknown, or
+        If the CAS number is malformed (or its check digit wrong) or unknown, or
         the data found are not enough to compute a vapour pressure.
     """
     if not isinstance(cas, str) or not _CAS.match(cas.strip()):
         raise InputError("cas", f"{cas!r} is not a CAS number such as '108-88-3'")
+    text = cas.strip()
+    if int(text[-1]) != cas_check_digit(text):
+        raise _bad_check_digit(text, "cas")
+    return _looked_up(text, "cas")
+
+
+def _looked_up(cas: str, field: str) -> Substance:
     try:
-        from . import _chemicals_lookup
-        row = _chemicals_lookup.lookup(cas.strip())
-    except ImportError:
-        raise InputError("cas", "looking up a CAS number needs the optional 'chemicals' "
-                         "package: pip install 'ullage[lookup]'") from None
+        return _library_substance(cas)
+    except InputError as exc:
+        raise InputError(field, exc.reason) from None
+
+
+@functools.cache
+def _library_substance(cas: str) -> Substance:
+    """The library's data for one CAS number as a `Substance` (cached)."""
+    lib = _library()
+    if lib is None:
+        raise InputError("cas", "looking up a liquid outside the table needs the "
+                         "'chemicals' package: pip install chemicals")
+    try:
+        row = lib.lookup(cas)
     except (KeyError, ValueError, LookupError) as exc:
         raise InputError("cas", f"no data found for {cas}: {exc}") from None
-    if row is None or row.get("boiling_point") in (None, "") or row.get("molar_mass") in (None, ""):
-        raise InputError("cas", f"the chemicals package has no boiling point or molar "
-                         f"mass for {cas}; define the substance from its SDS instead")
+    name = row.get("name") or cas
+    if row.get("boiling_point") in (None, "") or row.get("molar_mass") in (None, ""):
+        raise InputError("cas", f"the property library has {name} ({cas}) but no "
+                         "boiling point or molar mass; define the substance from its "
+                         "safety data sheet instead")
     row = {k: ("" if v is None else str(v) if not isinstance(v, str) else v)
            for k, v in row.items()}
-    row.setdefault("key", cas)
-    row["key"] = row.get("key") or cas
-    row["name"] = row.get("name") or cas
+    row["key"] = cas
+    row["name"] = name
     base = _from_row(row, "lookup")
-    return Substance(**{**base.__dict__, "notes": (
-        f"{base.name}: properties looked up by CAS number in the chemicals package "
-        "(compiled data, sources named per value); check them against the "
-        "supplier's safety data sheet",) + base.notes})
+    notes = [f"{base.name} ({cas}) is not in ullage's curated table: its properties come "
+             "from the property library (chemicals package; original source named per "
+             "value); check them against the supplier's safety data sheet"]
+    if base.lower_flammability_limit is None:
+        notes.append(f"{base.name}: lower flammability limit not on record: enter it from "
+                     "the safety data sheet (no limit on record does not mean it cannot "
+                     "burn)")
+    if base.flash_point is None:
+        notes.append(f"{base.name}: flash point not on record: enter it from the safety "
+                     "data sheet")
+    return Substance(**{**base.__dict__, "notes": tuple(notes) + base.notes})

@@ -173,7 +173,7 @@ SCENARIO = [
      "has no unit"),
     ("unknown liquid reference", SCENARIO_BASE.replace('liquid = "solvent"', 'liquid = "x"'),
      "liquid", "no [[liquid]] is named"),
-    ("unknown substance in liquid", SCENARIO_BASE.replace('"toluene"', '"toluen"'),
+    ("unknown substance in liquid", SCENARIO_BASE.replace('"toluene"', '"tolune"'),
      "substance", "did you mean"),
     ("fill over 100 %", SCENARIO_BASE + 'fill = "120 %"\n', "fill", "below 100 %"),
     ("negative volume", SCENARIO_BASE + 'volume = "-3 m3"\n', "volume", "above 0"),

@@ -113,7 +113,7 @@ def test_console_script_module_entry():
 
 def test_inventory_screen_and_export(capsys, tmp_path):
     """inventory prints rows by concern with bad rows explained, and exports CSV."""
-    source = ROOT / "tests" / "data" / "inventory_example.csv"
+    source = ROOT / "scenarios" / "inventory_example.csv"
     target = tmp_path / "screened.csv"
     code, out, _ = run(capsys, "inventory", str(source), "-o", str(target))
     assert code == 0

@@ -113,7 +113,7 @@ def test_synonyms_resolve_through_the_substance_table():
 def test_unknown_key_raises_with_suggestion():
     """An unknown key raises InputError on field 'key' suggesting close matches."""
     with pytest.raises(InputError, match="toluene") as info:
-        henry_constants("toluen")
+        henry_constants("tolune")
     assert info.value.field == "key"
     with pytest.raises(InputError, match="no Henry's law constants"):
         henry_constants("unobtainium")

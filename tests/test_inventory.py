@@ -27,7 +27,7 @@ from estimator.inventory import (
 )
 from estimator.limits import FlammabilityAlarms
 
-EXAMPLE = Path(__file__).parent / "data" / "inventory_example.csv"
+EXAMPLE = Path(__file__).resolve().parents[1] / "scenarios" / "inventory_example.csv"
 
 
 def _screen(frame, **kwargs):

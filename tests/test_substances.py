@@ -130,7 +130,7 @@ def test_lookup_by_name_synonym_cas(text, key):
 def test_unknown_substance_suggests():
     """A typo gets close-match suggestions; the error is a ValueError subclass."""
     with pytest.raises(UnknownSubstanceError) as info:
-        substance("tolueen")
+        substance("tolune")
     assert "toluene" in str(info.value).lower()
     assert isinstance(info.value, ValueError)
     assert info.value.field == "substance"

@@ -14,8 +14,6 @@ import pytest
 pytest.importorskip("streamlit")
 
 ROOT = Path(__file__).resolve().parents[1]
-if str(ROOT) not in sys.path:
-    sys.path.insert(0, str(ROOT))
 
 from streamlit import config  # noqa: E402
 from streamlit.testing.v1 import AppTest  # noqa: E402
@@ -275,7 +273,7 @@ def test_bad_receptor_list_shows_an_error():
 
 def test_inventory_example_shown_equals_core():
     """The example inventory's counts are those of the core's screening of the file."""
-    from ui.case import EXAMPLE_INVENTORY
+    from ullage_ui.case import EXAMPLE_INVENTORY
 
     at = page("inventory.py")
     at.toggle(key="w:inv.example").set_value(True)
@@ -372,7 +370,7 @@ def test_units_choice_survives_a_page_switch():
 
 def test_saved_scenario_reloads_to_the_same_case():
     """The scenario text saved from the inputs loads back to the same tank and limits."""
-    from ui import case
+    from ullage_ui import case
 
     state = {}
     case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
@@ -387,7 +385,7 @@ def test_saved_scenario_reloads_to_the_same_case():
 
 def test_us_units_save_in_us_units():
     """Inputs in US customary units are saved with their units and mean the same in SI."""
-    from ui import case
+    from ullage_ui import case
 
     state = {}
     case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
@@ -403,7 +401,7 @@ def test_reports_carry_the_cautions():
     """The HTML report and CSV results of a case on screen carry every caution."""
     import html
 
-    from ui import case, views
+    from ullage_ui import case, views
 
     state = {}
     case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
@@ -419,7 +417,7 @@ def test_reports_carry_the_cautions():
 
 def test_launcher_binds_to_this_machine_by_default():
     """The launcher binds to 127.0.0.1, runs headless and sends no usage statistics."""
-    from ui.launch import command
+    from ullage_ui.launch import command
 
     args = command()
     assert args[args.index("--server.address") + 1] == "127.0.0.1"
@@ -551,7 +549,7 @@ def test_monte_carlo_is_cached_and_fast(monkeypatch):
     import time
 
     from estimator import uncertainty
-    from ui import case, views
+    from ullage_ui import case, views
 
     calls = []
     real = uncertainty.headspace_monte_carlo
@@ -589,7 +587,7 @@ def test_monte_carlo_is_cached_and_fast(monkeypatch):
 
 def test_saved_scenario_keeps_uncertain_inputs():
     """Load, save, load keeps every [[uncertain]] input and the [monte_carlo] settings."""
-    from ui import case
+    from ullage_ui import case
 
     for path in (DEMOS[0], WAREHOUSE):
         first = load_scenario(path)
@@ -613,7 +611,7 @@ def test_report_from_the_page_carries_the_probabilistic_results():
     """The HTML report offered on the tank page holds the sampled percentiles and the curve."""
     import html
 
-    from ui import case, views
+    from ullage_ui import case, views
 
     state = {}
     case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)

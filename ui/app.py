@@ -1,17 +1,15 @@
 """ullage in the browser: the entry script that lays out the pages.
 
-Run it with ``python ui/launch.py`` (or the ``streamlit run`` command in that
-file's docstring). Each page is also a script of its own under ``ui/screens/``.
+Run it with ``ullage app`` (or ``python ui/launch.py`` in a checkout). Each page is
+also a script of its own under ``screens/`` beside this file. Installed, this folder
+is the package ``ullage_ui``.
 """
 
-import sys
 from pathlib import Path
 
-_HERE = Path(__file__).resolve().parent
-if str(_HERE.parent) not in sys.path:
-    sys.path.insert(0, str(_HERE.parent))
+import streamlit as st
 
-import streamlit as st  # noqa: E402
+_HERE = Path(__file__).resolve().parent
 
 st.set_page_config(page_title="ullage: vapour hazard screening", layout="wide")
 

@@ -17,8 +17,6 @@ import pandas as pd
 
 from estimator.units import convert
 
-ROOT = Path(__file__).resolve().parents[1]
-SCENARIO_FOLDER = ROOT / "scenarios"
 EXAMPLE_INVENTORY = Path(__file__).resolve().with_name("example_inventory.csv")
 
 #: Largest scenario upload read. [bytes]
@@ -321,7 +319,10 @@ def reset_defaults(state) -> None:
 
 
 def demo_files() -> list[Path]:
-    return sorted(SCENARIO_FOLDER.glob("*.toml"))
+    """The demo scenarios that ship with ullage (package data of `estimator`)."""
+    from estimator.samples import demo_scenarios
+
+    return demo_scenarios()
 
 
 # ---------------------------------------------------------------- scenario -> inputs
@@ -333,6 +334,18 @@ def _set(state, name: str, value_si) -> None:
 
 def _substance_label(sub) -> str:
     return sub.name
+
+
+#: Store key of the liquids found in the property library during this visit.
+LIBRARY_FOUND = "lookup.found"
+
+
+def remember_library_substance(state, sub) -> None:
+    """Offer a liquid looked up in the property library in the choosers from now on."""
+    if getattr(sub, "origin", None) == "lookup":
+        state.setdefault(LIBRARY_FOUND, {})[sub.key] = {
+            "name": sub.name,
+            "label": f"{sub.name} ({sub.cas}) — property library, not the curated table"}
 
 
 def _set_liquid(state, prefix: str, entry: dict, scenario) -> None:
@@ -351,6 +364,7 @@ def _set_liquid(state, prefix: str, entry: dict, scenario) -> None:
         state[table_key(f"{prefix}.mixture")] = mixture_frame(
             [(s.name, _round(100.0 * x)) for s, x in spec.items()])
         for s in spec:
+            remember_library_substance(state, s)
             if s.origin == "user":
                 _set_own(state, s, scenario)
         return
@@ -359,6 +373,7 @@ def _set_liquid(state, prefix: str, entry: dict, scenario) -> None:
         _set_own(state, spec, scenario)
         return
     state[key(f"{prefix}.kind")] = "table"
+    remember_library_substance(state, spec)
     state[key(f"{prefix}.substance")] = spec.key
 
 

@@ -1,6 +1,7 @@
 """Start the ullage browser front end on this computer only.
 
-    python ui/launch.py [extra streamlit options]
+    python ui/launch.py [extra streamlit options]      (in a checkout)
+    python -m ullage_ui.launch [extra streamlit options]  (installed)
 
 runs
 
@@ -49,11 +50,36 @@ def command(extra=()) -> list[str]:
     return args + extra
 
 
+def forwarding_call(args) -> int:
+    """Run the server as a child, passing Ctrl-C and termination on to it.
+
+    Used where a process cannot replace itself (`os.execv` on Windows starts a
+    new process instead), so that stopping this one stops the server too.
+    """
+    import signal
+
+    child = subprocess.Popen(args)
+
+    def forward(signum, frame):
+        child.send_signal(signum)
+
+    for name in ("SIGINT", "SIGTERM", "SIGBREAK", "SIGHUP"):
+        if hasattr(signal, name):
+            signal.signal(getattr(signal, name), forward)
+    try:
+        return child.wait()
+    finally:
+        if child.poll() is None:
+            child.terminate()
+
+
 def main(argv=None) -> int:
     args = command(sys.argv[1:] if argv is None else argv)
+    sys.stdout.flush()
+    sys.stderr.flush()
     if os.name == "posix":
         os.execv(args[0], args)  # become the server: signals reach it directly
-    return subprocess.call(args)
+    return forwarding_call(args)
 
 
 if __name__ == "__main__":

@@ -15,8 +15,8 @@ import streamlit as st
 from estimator import CAUTIONS
 from estimator.errors import UllageError
 
-from ui import case, views
-from ui.case import key, system, unit_label
+from ullage_ui import case, views
+from ullage_ui.case import key, system, unit_label
 
 #: What to do, by the block an error points at.
 ADVICE = {
@@ -299,18 +299,43 @@ def _labels() -> dict:
 
 @st.cache_data(show_spinner=False, max_entries=256)
 def find_substance(text: str) -> dict:
-    """An exact match of a name, synonym or CAS, or close matches, or the reason none."""
+    """An exact match of a name, synonym or CAS (the curated table first, then the
+    property library), or close matches, or the reason none.
+
+    ``library`` maps the keys of liquids from the property library among the hit and
+    the matches to their name and label; ``notes`` are the hit's cautions.
+    """
     from estimator.substances import search_substances, substance
 
+    found = {}
     try:
-        return {"key": substance(text, "substance search").key, "matches": [], "error": None}
+        sub = substance(text, "substance search")
     except UllageError as exc:
-        matches = [s.key for s in search_substances(text, limit=6)]
-        return {"key": None, "matches": matches, "error": None if matches else exc.reason}
+        cas_like = re.fullmatch(r"\s*\d{2,7}-\d{2}-\d\s*", text) is not None
+        subs = [] if cas_like else search_substances(text, limit=6)
+        for s in subs:
+            case.remember_library_substance(found, s)
+        return {"key": None, "matches": [s.key for s in subs],
+                "error": None if subs else exc.reason,
+                "library": found.get(case.LIBRARY_FOUND, {}), "notes": []}
+    case.remember_library_substance(found, sub)
+    return {"key": sub.key, "matches": [], "error": None,
+            "library": found.get(case.LIBRARY_FOUND, {}),
+            "notes": list(sub.notes) if sub.origin == "lookup" else []}
+
+
+def _library_found() -> dict:
+    """Liquids from the property library found during this visit: key -> name, label."""
+    return store().setdefault(case.LIBRARY_FOUND, {})
+
+
+def _choices() -> dict:
+    """Substance key -> label: the curated table, then liquids found in the library."""
+    return {**_labels(), **{k: v["label"] for k, v in _library_found().items()}}
 
 
 def substance_names() -> list[str]:
-    names = list(substance_table()["name"])
+    names = list(substance_table()["name"]) + [v["name"] for v in _library_found().values()]
     own = str(store().get(key("sds.name")) or "").strip()
     return ([own] if own else []) + names
 
@@ -326,6 +351,7 @@ def _found(prefix: str) -> None:
     store()[key(f"{prefix}.find")] = text
     if text:
         hit = find_substance(text)
+        _library_found().update(hit["library"])
         if hit["key"]:
             _set_input(f"{prefix}.substance", hit["key"])
 
@@ -337,9 +363,15 @@ def _pick(prefix: str, substance_key: str) -> None:
 
 def substance_chooser(prefix: str, slots: Slots) -> None:
     """A selectbox over the table and a search box with close matches."""
-    labels = _labels()
-    options = list(labels)
     inputs = store()
+    current = inputs.get(key(f"{prefix}.substance"))
+    if current and current not in _choices():  # a liquid named in a loaded scenario
+        hit = find_substance(str(current))
+        _library_found().update(hit["library"])
+        if hit["key"]:
+            _set_input(f"{prefix}.substance", hit["key"])
+    labels = _choices()
+    options = list(labels)
     if inputs.get(key(f"{prefix}.substance")) not in labels:
         _set_input(f"{prefix}.substance", case.LIQUID_DEFAULTS.get(prefix, options[0]))
     left, right = st.columns([3, 2])
@@ -350,8 +382,12 @@ def substance_chooser(prefix: str, slots: Slots) -> None:
     text = str(inputs.get(key(f"{prefix}.find")) or "").strip()
     if text:
         hit = find_substance(text)
+        _library_found().update(hit["library"])
+        labels = _choices()
         if hit["key"]:
             st.caption(f"'{text}' is {labels.get(hit['key'], hit['key'])}.")
+            if hit["notes"]:
+                st.warning("\n".join(f"- {n}" for n in hit["notes"]))
         elif hit["matches"]:
             st.caption(f"No exact match for '{text}'. Close matches:")
             cols = st.columns(min(3, len(hit["matches"])))
@@ -813,7 +849,7 @@ def study_tail(state, kind: str, slots, limit_rows, units, results, view_functio
     """
     from estimator.scenario import dumps_scenario
 
-    from ui import case
+    from ullage_ui import case
 
     view = None
     download_place = None

@@ -24,7 +24,7 @@ from estimator.errors import UllageError
 from estimator.limits import format_ppm, format_ratio
 from estimator.units import convert
 
-from ui.case import UNITS, unit_label
+from ullage_ui.case import UNITS, unit_label
 
 #: How many points of a time series are drawn (the table keeps every point).
 PLOT_POINTS = 400

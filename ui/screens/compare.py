@@ -2,18 +2,12 @@
 inputs changed (B), with the differences said in words."""
 
 import copy
-import sys
-from pathlib import Path
 
-_ROOT = str(Path(__file__).resolve().parents[2])
-if _ROOT not in sys.path:
-    sys.path.insert(0, _ROOT)
+import streamlit as st
 
-import streamlit as st  # noqa: E402
-
-from estimator.scenario import dumps_scenario  # noqa: E402
-from ui import case, shared, views  # noqa: E402
-from ui.case import key, system  # noqa: E402
+from estimator.scenario import dumps_scenario
+from ullage_ui import case, shared, views
+from ullage_ui.case import key, system
 
 STUDIES = {"tank": "Tank headspace", "indoor": "Spill indoors", "outdoor": "Spill outdoors"}
 SAME = ""

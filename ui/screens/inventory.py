@@ -1,17 +1,12 @@
 """Site inventory: the equilibrium headspace of every tank and drum in one file."""
 
-import sys
 from pathlib import Path
 
-_ROOT = str(Path(__file__).resolve().parents[2])
-if _ROOT not in sys.path:
-    sys.path.insert(0, _ROOT)
+import streamlit as st
 
-import streamlit as st  # noqa: E402
-
-from estimator.errors import UllageError  # noqa: E402
-from ui import case, shared, views  # noqa: E402
-from ui.case import key  # noqa: E402
+from estimator.errors import UllageError
+from ullage_ui import case, shared, views
+from ullage_ui.case import key
 
 slots = shared.setup_page(
     "Site inventory",

@@ -1,18 +1,11 @@
 """Limits, alarms and site: the exposure limits, alarm levels and site pressure that
 every page compares with."""
 
-import sys
-from pathlib import Path
+import streamlit as st
 
-_ROOT = str(Path(__file__).resolve().parents[2])
-if _ROOT not in sys.path:
-    sys.path.insert(0, _ROOT)
-
-import streamlit as st  # noqa: E402
-
-from estimator.errors import UllageError  # noqa: E402
-from ui import case, shared  # noqa: E402
-from ui.case import key  # noqa: E402
+from estimator.errors import UllageError
+from ullage_ui import case, shared
+from ullage_ui.case import key
 
 slots = shared.setup_page(
     "Limits, alarms and site",

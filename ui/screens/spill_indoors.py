@@ -1,16 +1,9 @@
 """Spill indoors: a pool evaporating into a room, and the air people breathe there."""
 
-import sys
-from pathlib import Path
+import streamlit as st
 
-_ROOT = str(Path(__file__).resolve().parents[2])
-if _ROOT not in sys.path:
-    sys.path.insert(0, _ROOT)
-
-import streamlit as st  # noqa: E402
-
-from ui import shared, views  # noqa: E402
-from ui.case import system  # noqa: E402
+from ullage_ui import shared, views
+from ullage_ui.case import system
 
 MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
 

@@ -1,18 +1,11 @@
 """Spill outdoors: a pool's vapour carried downwind, on the plume centreline."""
 
-import sys
-from pathlib import Path
+import numpy as np
+import streamlit as st
 
-_ROOT = str(Path(__file__).resolve().parents[2])
-if _ROOT not in sys.path:
-    sys.path.insert(0, _ROOT)
-
-import numpy as np  # noqa: E402
-import streamlit as st  # noqa: E402
-
-from estimator.scenario import dumps_scenario  # noqa: E402
-from ui import case, shared, views  # noqa: E402
-from ui.case import system  # noqa: E402
+from estimator.scenario import dumps_scenario
+from ullage_ui import case, shared, views
+from ullage_ui.case import system
 
 MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
 INSOLATION = ["strong", "moderate", "slight"]

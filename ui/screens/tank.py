@@ -1,16 +1,9 @@
 """Tank headspace: the equilibrium vapour space over a liquid in a closed tank."""
 
-import sys
-from pathlib import Path
+import streamlit as st
 
-_ROOT = str(Path(__file__).resolve().parents[2])
-if _ROOT not in sys.path:
-    sys.path.insert(0, _ROOT)
-
-import streamlit as st  # noqa: E402
-
-from ui import shared, views  # noqa: E402
-from ui.case import system  # noqa: E402
+from ullage_ui import shared, views
+from ullage_ui.case import system
 
 slots = shared.setup_page(
     "Tank headspace", "tank",
