@@ -92,14 +92,12 @@ alarm levels: US OSHA 29 CFR 1910.146(b), hazardous atmosphere.
 from __future__ import annotations
 
 import codecs
-import contextlib
 import csv
 import difflib
 import io
 import math
 import os
 import re
-import tempfile
 import warnings
 from collections import defaultdict
 from collections.abc import Mapping
@@ -122,6 +120,7 @@ from .constants import (
     ZERO_CELSIUS,
 )
 from .errors import InputError, UllageWarning
+from .files import atomic_writer, neutralise_cell, neutralise_series
 from .headspace import _check_pressure, barometric_pressure, le_chatelier
 from .limits import FlammabilityAlarms
 from .mixtures import Liquid, liquid as make_liquid
@@ -139,13 +138,22 @@ __all__ = [
     "InventorySummary",
     "OUTPUT_COLUMNS",
     "MAX_FILE_BYTES",
+    "LOCAL_FILE_BYTES",
     "MAX_ROWS",
     "PROBLEMS",
     "FLAMMABILITY_CODES",
 ]
 
-#: Largest inventory file read. [bytes] 20 MB holds some 300 000 typical rows.
+#: Largest inventory file read by default (the Python API and uploads). [bytes]
+#: 20 MB holds some 300 000 typical rows; give `max_bytes` to read larger files.
 MAX_FILE_BYTES = 20_000_000
+
+#: Default limit of the command line for local files (``--max-size``). [bytes]
+#: 200 MB holds some 4 million typical rows, screened in about 2 GiB of memory.
+LOCAL_FILE_BYTES = 200_000_000
+
+#: Data rows parsed per chunk when reading a CSV file (bounds the parser's memory).
+_READ_CHUNK_ROWS = 200_000
 
 #: Largest number of data rows read from a workbook (a guard against huge sheets).
 MAX_ROWS = 1_000_000
@@ -629,13 +637,15 @@ def _size_text(size: int) -> str:
     return f"{size / 1e6:.1f} MB" if size >= 100_000 else f"{size} bytes"
 
 
-def _too_large(name: str, size: int) -> InputError:
+def _too_large(name: str, size: int, limit: int) -> InputError:
     return InputError("file", f"{name} is {_size_text(size)}, above the "
-                      f"{_size_text(MAX_FILE_BYTES)} limit for one inventory file; "
-                      "split the inventory into several files")
+                      f"{_size_text(limit)} limit for one inventory file; split the "
+                      "inventory into several files (on the command line, --max-size "
+                      "raises the limit)")
 
 
-def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
+def read_inventory(path, sheet: str | None = None, *,
+                   max_bytes: int | None = None) -> pd.DataFrame:
     """Read an inventory table from a CSV file or an Excel workbook.
 
     Cells are read as they are stored: an Excel formula is kept as its text
@@ -643,15 +653,20 @@ def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
     table is line i + 2 of the file (the header is line 1), as a spreadsheet
     numbers its rows (a quoted CSV cell running over several physical lines counts
     as one); empty rows at the end are dropped, empty rows in between are kept (and
-    reported by the screening).
+    reported by the screening). CSV files are parsed in chunks, so that the
+    parser's memory stays small beside the table it builds.
 
     Parameters
     ----------
     path : str or os.PathLike
-        A ``.csv`` file (UTF-8, with or without a byte-order mark; comma-, semicolon-
-        or tab-separated) or an ``.xlsx``/``.xlsm`` workbook (needs openpyxl).
+        A ``.csv`` file (comma-, semicolon- or tab-separated) in UTF-8, with or
+        without a byte-order mark, or in UTF-16 or UTF-32 (recognised by their
+        byte-order mark, or by the zero bytes of ASCII text without one); or an
+        ``.xlsx``/``.xlsm`` workbook (needs openpyxl).
     sheet : str, optional
         Worksheet name; the first sheet by default.
+    max_bytes : int, optional
+        Largest file read; `MAX_FILE_BYTES` by default. [bytes]
 
     Returns
     -------
@@ -661,16 +676,17 @@ def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
     Raises
     ------
     InputError
-        Missing, empty or oversized file (`MAX_FILE_BYTES`), a CSV that is not
-        UTF-8, an unreadable workbook, a header without data rows.
+        Missing, empty or oversized file, a CSV in an encoding that is not UTF-8,
+        UTF-16 or UTF-32, an unreadable workbook, a header without data rows.
     """
+    limit = MAX_FILE_BYTES if max_bytes is None else int(max_bytes)
     path = Path(path)
     name = path.name
     if not path.is_file():
         raise InputError("file", f"{name}: no such file")
     size = path.stat().st_size
-    if size > MAX_FILE_BYTES:
-        raise _too_large(name, size)
+    if size > limit:
+        raise _too_large(name, size, limit)
     if size == 0:
         raise InputError("file", f"{name} is empty: it needs a header line with the column "
                          "names (at least container, liquid and a temperature) and one row "
@@ -693,34 +709,108 @@ def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
     return frame
 
 
+#: Byte-order marks and the codec that reads the text after them (UTF-32 first:
+#: its little-endian mark begins with that of UTF-16).
+_BYTE_ORDER_MARKS = (
+    (codecs.BOM_UTF32_LE, "utf-32-le", "UTF-32"), (codecs.BOM_UTF32_BE, "utf-32-be", "UTF-32"),
+    (codecs.BOM_UTF8, "utf-8", "UTF-8"),
+    (codecs.BOM_UTF16_LE, "utf-16-le", "UTF-16"), (codecs.BOM_UTF16_BE, "utf-16-be", "UTF-16"),
+)
+
+
+def _encoding_of(start: bytes) -> tuple[str, int, str]:
+    """(codec, bytes to skip, name) of a CSV file from its first bytes."""
+    for mark, codec, label in _BYTE_ORDER_MARKS:
+        if start.startswith(mark):
+            return codec, len(mark), label
+    # No mark: ASCII text in UTF-16/32 shows its zero bytes in a fixed pattern.
+    sample = start[:4096]
+    usable = len(sample) - len(sample) % 4
+    if usable >= 4 and b"\x00" in sample[:usable]:
+        quads = [sample[i:i + 4] for i in range(0, usable, 4)]
+        if all(q[1:] == b"\x00\x00\x00" for q in quads):
+            return "utf-32-le", 0, "UTF-32"
+        if all(q[:3] == b"\x00\x00\x00" for q in quads):
+            return "utf-32-be", 0, "UTF-32"
+        if all(q[1] == 0 and q[3] == 0 for q in quads):
+            return "utf-16-le", 0, "UTF-16"
+        if all(q[0] == 0 and q[2] == 0 for q in quads):
+            return "utf-16-be", 0, "UTF-16"
+    return "utf-8", 0, "UTF-8"
+
+
+def _check_decodes(path: Path, codec: str, skip: int, label: str) -> str:
+    """Decode the whole file block by block, keeping nothing; return the first line.
+
+    A byte that does not decode is reported with its line.
+    """
+    decoder = codecs.getincrementaldecoder(codec)("strict")
+    newline = "\n".encode(codec)
+    lines_before = 0
+    first = ""
+    with open(path, "rb") as handle:
+        handle.seek(skip)
+        tail = b""
+        while True:
+            block = handle.read(1 << 22)
+            try:
+                text = decoder.decode(block, final=not block)
+            except UnicodeDecodeError as exc:
+                data = tail + block
+                bad = len(tail) + exc.start
+                line = lines_before + data[:bad].count(newline) + 1
+                if label == "UTF-8":
+                    advice = ("The file is probably saved in a legacy encoding such as "
+                              "Latin-1 or Windows-1252")
+                else:
+                    advice = (f"The file starts as {label} text but is not valid {label} "
+                              "there")
+                raise InputError(
+                    "file", f"{path.name} is not {label} text: byte "
+                    f"0x{data[bad:bad + 1].hex()} on line {line} is not valid {label}. "
+                    f"{advice}; save it again as 'CSV UTF-8' (in Excel: Save As, CSV UTF-8) "
+                    "and screen it again") from None
+            if "\n" not in first and len(first) < (1 << 24):
+                first += text
+            if not block:
+                break
+            tail = decoder.getstate()[0]
+            lines_before += text.count("\n")
+    return first.split("\n", 1)[0]
+
+
+def _has_text(path: Path, codec: str, skip: int) -> bool:
+    with open(path, encoding=codec, newline="") as handle:
+        handle.seek(skip)
+        return any(line.strip() for line in handle)
+
+
 def _read_csv(path: Path) -> pd.DataFrame:
-    raw = path.read_bytes()
-    if raw.startswith(codecs.BOM_UTF8):
-        raw = raw[len(codecs.BOM_UTF8):]
-    try:
-        text = raw.decode("utf-8")
-    except UnicodeDecodeError as exc:
-        line = raw[:exc.start].count(b"\n") + 1
-        raise InputError(
-            "file", f"{path.name} is not UTF-8 text: byte 0x{raw[exc.start]:02x} on line "
-            f"{line} is not valid UTF-8. The file is probably saved in a legacy encoding "
-            "such as Latin-1 or Windows-1252; save it again as 'CSV UTF-8' (in Excel: "
-            "Save As, CSV UTF-8) and screen it again") from None
-    if not text.strip():
+    with open(path, "rb") as handle:
+        start = handle.read(4096)
+    codec, skip, label = _encoding_of(start)
+    head = _check_decodes(path, codec, skip, label)
+    if not head.strip() and not _has_text(path, codec, skip):
         raise InputError("file", f"{path.name} holds only blank lines: it needs a header "
                          "line and one row per container")
-    first = text.splitlines()[0]
+    first = head.rstrip("\r")
     separator = max((",", ";", "\t"), key=first.count)
     header = next(csv.reader([first], delimiter=separator))
     _check_duplicate_headers(header)
     try:
-        frame = pd.read_csv(io.StringIO(text), sep=separator, dtype=str,
-                            keep_default_na=False, skip_blank_lines=False)
+        with open(path, "rb") as handle:
+            handle.seek(skip)
+            reader = pd.read_csv(handle, sep=separator, dtype=str, keep_default_na=False,
+                                 skip_blank_lines=False, encoding=codec,
+                                 chunksize=_READ_CHUNK_ROWS)
+            chunks = list(reader)
     except pd.errors.EmptyDataError:
         raise InputError("file", f"{path.name} has no column names in its first line") from None
     except pd.errors.ParserError as exc:
         raise InputError("file", f"{path.name} cannot be read as CSV: {exc}; check that "
                          "every row has as many fields as the header") from None
+    frame = chunks[0] if len(chunks) == 1 else pd.concat(chunks, ignore_index=True)
+    del chunks
     return _drop_trailing_blank_rows(frame)
 
 
@@ -1131,7 +1221,7 @@ def _to_kelvin(values: np.ndarray, unit: str) -> np.ndarray:
 
 def screen_inventory(source, pressure=STANDARD_ATMOSPHERE, alarms=FlammabilityAlarms(), *,
                      elevation=None, sheet: str | None = None,
-                     worst_count: int = 10) -> InventoryScreening:
+                     worst_count: int = 10, max_bytes: int | None = None) -> InventoryScreening:
     """Screen the equilibrium headspace of every container of an inventory.
 
     The columns read and written are described in the module documentation of
@@ -1156,6 +1246,8 @@ def screen_inventory(source, pressure=STANDARD_ATMOSPHERE, alarms=FlammabilityAl
         Worksheet of a workbook; the first by default.
     worst_count : int
         Rows listed in ``summary.worst``.
+    max_bytes : int, optional
+        Largest file read (`read_inventory`); `MAX_FILE_BYTES` by default. [bytes]
 
     Returns
     -------
@@ -1174,7 +1266,7 @@ def screen_inventory(source, pressure=STANDARD_ATMOSPHERE, alarms=FlammabilityAl
         if len(frame) == 0:
             raise InputError("table", "has no rows")
     elif isinstance(source, (str, os.PathLike)):
-        frame, name = read_inventory(source, sheet), Path(source).name
+        frame, name = read_inventory(source, sheet, max_bytes=max_bytes), Path(source).name
     else:
         raise InputError("source", "give a pandas DataFrame or the path of a CSV or .xlsx "
                          f"file, not {type(source).__name__}")
@@ -1679,15 +1771,37 @@ def _temperature_message(code: int, value: float, unit: str, bounds: _Bounds,
 
 # ------------------------------------------------------------------------- writing
 
-_INJECTION_STARTS = ("=", "+", "-", "@", "\t", "\r")
-_PLAIN_NUMBER = re.compile(r"[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?")
+#: Rows converted and written per batch (bounds the memory the writer needs).
+_WRITE_BATCH = 100_000
 
 
-def _neutralise(value):
-    if (isinstance(value, str) and value.startswith(_INJECTION_STARTS)
-            and not _PLAIN_NUMBER.fullmatch(value)):
-        return "'" + value
-    return value
+def _arrow_column(column: pd.Series):
+    """One column as an Arrow array for the CSV writer, text cells neutralised.
+
+    Floats keep every digit (NaN is written as an empty cell); text and mixed
+    columns are written as text, as pandas would print each cell.
+    """
+    import pyarrow as pa
+
+    if pd.api.types.is_bool_dtype(column.dtype):
+        return pa.array(column.astype(str).to_numpy(dtype=object), type=pa.string())
+    if pd.api.types.is_numeric_dtype(column.dtype):
+        return pa.Array.from_pandas(column)
+    if not _is_text_column(column):
+        text = column.astype(str).where(column.notna(), None)
+        return pa.array(neutralise_series(text.astype(object)).to_numpy(), type=pa.string())
+    if column.dtype == object:
+        kinds = pd.api.types.infer_dtype(column, skipna=True)
+        if kinds not in ("string", "empty"):
+            column = column.map(lambda v: None if _is_blank_value(v) else
+                                (v if isinstance(v, str) else str(v)))
+    column = neutralise_series(column)
+    return pa.array(column.to_numpy(dtype=object, na_value=None), type=pa.string(),
+                    from_pandas=True)
+
+
+def _is_blank_value(value) -> bool:
+    return value is None or (isinstance(value, float) and math.isnan(value))
 
 
 def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
@@ -1696,10 +1810,16 @@ def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
     Text cells (and headers) beginning with =, +, -, @, a tab or a carriage return
     are prefixed with a single quote so that a spreadsheet shows them as text
     instead of running them as formulas; numbers, and text that is a plain number
-    such as "-5", are left alone. The file is written to a temporary file in the
-    same directory and then moved into place, so a reader never sees half a file.
-    UTF-8 with a byte-order mark, which spreadsheet programs recognise, and CRLF
-    line ends (RFC 4180).
+    such as "-5", are left alone (`estimator.files.neutralise_series`). Text cells
+    and headers are always quoted. The cautions come first, each on a line of its
+    own beginning with "# ", so that ``pandas.read_csv(path, comment="#")`` (or any
+    CSV reader told to skip comment lines) reads the table back, the header being
+    the first line that is not a comment. UTF-8 with a byte-order mark, which
+    spreadsheet programs recognise, and CRLF line ends (RFC 4180).
+
+    The file is written in batches to a temporary file beside the target, which
+    then replaces it (`estimator.files.atomic_writer`): a reader never sees half a
+    file, and no temporary file is left behind, whatever stops the write.
 
     Parameters
     ----------
@@ -1715,6 +1835,9 @@ def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
     pathlib.Path
         The path written.
     """
+    import pyarrow as pa
+    import pyarrow.csv as pa_csv
+
     frame = result.table if isinstance(result, InventoryScreening) else result
     if not isinstance(frame, pd.DataFrame):
         raise InputError("result", "give a screening result or its table")
@@ -1722,30 +1845,20 @@ def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
     directory = target.parent if str(target.parent) else Path(".")
     if not directory.is_dir():
         raise InputError("path", f"the folder for {target.name} does not exist")
-    safe = frame.copy()
-    safe.columns = [_neutralise(str(c)) for c in safe.columns]
-    for position in range(safe.shape[1]):
-        column = safe.iloc[:, position]
-        if _is_text_column(column):
-            safe.isetitem(position, column.astype(object).map(_neutralise))
-    descriptor, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp",
-                                             dir=directory)
-    try:
-        with os.fdopen(descriptor, "w", encoding="utf-8-sig", newline="") as handle:
-            if cautions:
-                writer = csv.writer(handle, lineterminator="\r\n")
-                for caution in CAUTIONS:
-                    writer.writerow([f"# {caution}"])
-            # CRLF line ends (RFC 4180) also make the writer quote cells holding a lone
-            # carriage return, which would otherwise split the row when read back.
-            safe.to_csv(handle, index=False, lineterminator="\r\n")
-            handle.flush()
-            os.fsync(handle.fileno())
-        mode = target.stat().st_mode & 0o777 if target.exists() else 0o644
-        os.chmod(temporary, mode)
-        os.replace(temporary, target)
-    except BaseException:
-        with contextlib.suppress(FileNotFoundError):
-            os.unlink(temporary)
-        raise
+    names = [neutralise_cell(str(c)) for c in frame.columns]
+    options = pa_csv.WriteOptions(include_header=False, eol="\r\n", quoting_style="needed",
+                                  batch_size=8192)
+    with atomic_writer(target, binary=True, field="path") as handle:
+        handle.write(codecs.BOM_UTF8)
+        if cautions:
+            for caution in CAUTIONS:
+                handle.write(("# " + " ".join(caution.split()) + "\r\n").encode("utf-8"))
+        header = io.StringIO()
+        csv.writer(header, lineterminator="\r\n", quoting=csv.QUOTE_ALL).writerow(names)
+        handle.write(header.getvalue().encode("utf-8"))
+        for start in range(0, len(frame), _WRITE_BATCH):
+            part = frame.iloc[start:start + _WRITE_BATCH]
+            arrays = [_arrow_column(part.iloc[:, k]) for k in range(part.shape[1])]
+            table = pa.Table.from_arrays(arrays, names=[f"c{k}" for k in range(len(arrays))])
+            pa_csv.write_csv(table, handle, options)
     return target

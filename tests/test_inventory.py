@@ -1,6 +1,7 @@
 """Whole-inventory screening: row accounting, agreement with the single-row model, files."""
 
 import csv
+import io
 import os
 import time
 import warnings
@@ -38,9 +39,10 @@ def _screen(frame, **kwargs):
 
 def _lines_after_cautions(path):
     with open(path, encoding="utf-8-sig", newline="") as handle:
-        rows = list(csv.reader(handle))
-    assert [r[0] for r in rows[:len(CAUTIONS)]] == [f"# {c}" for c in CAUTIONS]
-    return rows[len(CAUTIONS):]
+        text = handle.read()
+    lines = text.split("\r\n")
+    assert lines[:len(CAUTIONS)] == [f"# {c}" for c in CAUTIONS]
+    return list(csv.reader(io.StringIO("\r\n".join(lines[len(CAUTIONS):]), newline="")))
 
 
 # ----------------------------------------------------------------- row accounting
