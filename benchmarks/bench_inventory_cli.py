@@ -39,7 +39,6 @@ PRESSURE = 101325.0
 T_LOW, T_HIGH = 10.0, 40.0  # degC
 #: Share of rows holding a two-component blend whose composition differs row to row.
 BLEND_SHARE = 0.1
-BLEND = ("toluene", "o-xylene")
 
 
 def _substances(count: int = 8):
@@ -49,9 +48,15 @@ def _substances(count: int = 8):
         first = sub.correlations[0]
         if (first.method in ("antoine", "dippr101") and first.tmin <= T_LOW + 273.15
                 and T_HIGH + 278.15 <= first.tmax and sub.boiling_point > T_HIGH + 278.15
-                and (sub.melting_point or 0.0) < T_LOW + 273.15 and sub.key not in BLEND):
+                and (sub.melting_point or 0.0) < T_LOW + 273.15):
             chosen.append(sub)
     return chosen[:count]
+
+
+def _blend():
+    """The two components of the varied blends: the first two benchmark liquids."""
+    first, second = _substances()[:2]
+    return first.key, second.key
 
 
 def make_file(path: Path, rows: int, seed: int = 5) -> None:
@@ -61,7 +66,8 @@ def make_file(path: Path, rows: int, seed: int = 5) -> None:
     liquid = keys[rng.integers(0, keys.size, rows)]
     blend = rng.random(rows) < BLEND_SHARE
     share = rng.integers(1000, 9000, blend.sum()) / 100.0
-    liquid[blend] = [f"{BLEND[0]} {a:.2f}%, {BLEND[1]} {100 - a:.2f}%" for a in share]
+    one, two = _blend()
+    liquid[blend] = [f"{one} {a:.2f}%, {two} {100 - a:.2f}%" for a in share]
     frame = pd.DataFrame({
         "container": [f"Yard {i // 1000}-{i % 1000:03d}" for i in range(rows)],
         "liquid": liquid,
@@ -75,7 +81,7 @@ def make_file(path: Path, rows: int, seed: int = 5) -> None:
 def _correlation_arrays():
     """Per substance key: (kind, coefficients, molar mass) of its preferred correlation."""
     out = {}
-    for sub in _substances() + [estimator.substance(k) for k in BLEND]:
+    for sub in _substances():
         c = sub.correlations[0]
         coefficients = (c.a, c.b, c.c) if c.method == "antoine" else (c.c1, c.c2, c.c3, c.c4,
                                                                        c.c5)
@@ -103,9 +109,9 @@ def baseline(source: Path, target: Path, table) -> None:
         kind, coefficients, _ = table[key]
         p[rows] = _p_sat(kind, coefficients, t[rows])
     rows = np.flatnonzero(is_blend)
-    parts = liquid[is_blend].str.extract(r"^(\S+) ([\d.]+)%, (\S+) ([\d.]+)%$")
+    parts = liquid[is_blend].str.extract(r"^(.+) ([\d.]+)%, (.+) ([\d.]+)%$")
     w = parts[[1, 3]].astype(float).to_numpy() / 100.0
-    (ka, ca, ma), (kb, cb, mb) = table[BLEND[0]], table[BLEND[1]]
+    (ka, ca, ma), (kb, cb, mb) = (table[key] for key in _blend())
     moles = w / np.array([ma, mb])
     x = moles / moles.sum(axis=1, keepdims=True)
     p[rows] = x[:, 0] * _p_sat(ka, ca, t[rows]) + x[:, 1] * _p_sat(kb, cb, t[rows])

@@ -408,22 +408,26 @@ class _LiquidArrays:
     above_own_boiling: np.ndarray  # (n_components, m)
 
 
-def _evaluate_liquid(liq: Liquid, t: np.ndarray, pressure: np.ndarray) -> _LiquidArrays:
-    """Equilibrium headspace of one liquid at valid temperatures, as arrays.
+def _evaluate_liquid(liq: Liquid, t: np.ndarray, pressure: np.ndarray,
+                     weights: np.ndarray | None = None) -> _LiquidArrays:
+    """Equilibrium headspace of one liquid (or component set) at valid temperatures.
 
     The same equations as `estimator.headspace.headspace`: Raoult's law, vapour
     fractions over max(total vapour pressure, space pressure), Le Chatelier's rule
-    and oxygen by displacement.
+    and oxygen by displacement. `weights` gives x_i γ_i per row, shape
+    (components, rows), for compositions that differ row by row; by default the
+    liquid's own.
     """
     n = len(liq.components)
-    if n == 1:
+    if n == 1 and weights is None:
         return _evaluate_pure(liq, t, pressure)
     p_sat = np.empty((n, t.size))
     method_index = np.empty((n, t.size), dtype=np.int8)
     extrapolated = np.empty((n, t.size), dtype=bool)
     for i, component in enumerate(liq.components):
         p_sat[i], method_index[i], extrapolated[i] = _saturation_pressure(component, t)
-    weights = (liq.mole_fractions * liq.activity_coefficients)[:, None]
+    if weights is None:
+        weights = (liq.mole_fractions * liq.activity_coefficients)[:, None]
     p_i = weights * p_sat
     p_sum = p_i.sum(axis=0)
     boiling = p_sum >= pressure
@@ -1031,44 +1035,53 @@ def _is_formula(column: pd.Series) -> np.ndarray:
 
 
 def _number_cells(column: pd.Series, unit_words: Mapping[str, str], unit: str,
-                  label: str) -> tuple[np.ndarray, np.ndarray, dict[int, str]]:
+                  label: str) -> tuple[np.ndarray, np.ndarray, tuple[np.ndarray, np.ndarray]]:
     """Numbers of a column in its header unit.
 
     Returns the values (NaN where blank or unusable), the blank mask and the
-    problem of each unusable cell by position. Only cells that are not plain
-    numbers are looked at one by one (once per distinct text).
+    problems as (positions, texts). Cells that are not plain numbers are parsed
+    once per distinct content.
     """
+    n = len(column)
+    none = (np.empty(0, dtype=np.intp), np.empty(0, dtype=object))
     if pd.api.types.is_bool_dtype(column):
-        values = np.full(len(column), np.nan)
-        return values, np.zeros(len(column), dtype=bool), {
-            i: f"{column.iat[i]!r} is not a number in {label}" for i in range(len(column))}
+        positions = np.arange(n)
+        texts = np.array([f"{v!r} is not a number in {label}" for v in pd.unique(column)],
+                         dtype=object)[pd.factorize(column)[0]]
+        return np.full(n, np.nan), np.zeros(n, dtype=bool), (positions, texts)
     if pd.api.types.is_numeric_dtype(column):
         values = column.to_numpy(dtype=float, na_value=np.nan).copy()
         blank = np.isnan(values)
-        bad = np.isinf(values)
+        bad = np.flatnonzero(np.isinf(values))
         values[bad] = np.nan
-        return values, blank, {int(i): f"{column.iat[i]!r} is not a finite number"
-                               for i in np.flatnonzero(bad)}
-    raw = column.to_numpy(dtype=object)
-    values = pd.to_numeric(column, errors="coerce").to_numpy(dtype=float).copy()
-    blank = np.zeros(raw.size, dtype=bool)
-    problems: dict[int, str] = {}
-    booleans = np.flatnonzero(np.fromiter((isinstance(v, (bool, np.bool_)) for v in raw),
-                                          dtype=bool, count=raw.size))
-    values[booleans] = np.nan
-    cache: dict[str, tuple[float, str]] = {}
-    for i in np.flatnonzero(~np.isfinite(values)):
-        cell = raw[i]
-        if _is_blank(cell):
-            blank[i] = True
-            continue
-        key = repr(cell)
-        if key not in cache:
-            cache[key] = _parse_text_number(cell, unit_words, unit, label)
-        values[i], problem = cache[key]
-        if problem:
-            problems[int(i)] = problem
-    return values, blank, problems
+        return values, blank, (bad, np.array([f"{column.iat[i]!r} is not a finite number"
+                                              for i in bad], dtype=object))
+    values = pd.to_numeric(column, errors="coerce").to_numpy(dtype=float, na_value=np.nan)
+    values = values.copy()
+    if column.dtype == object:
+        booleans = column.map(type).isin([bool, np.bool_]).to_numpy()
+        values[booleans] = np.nan
+    blank = np.zeros(n, dtype=bool)
+    look = np.flatnonzero(~np.isfinite(values))
+    if look.size == 0:
+        return values, blank, none
+    cells = column.iloc[look]
+    missing = cells.isna().to_numpy()
+    stripped = cells.where(~cells.isna(), "").astype(str).str.strip().to_numpy(dtype=object)
+    empty = missing | (stripped == "")
+    blank[look[empty]] = True
+    look = look[~empty]
+    if look.size == 0:
+        return values, blank, none
+    raw = column.to_numpy(dtype=object)[look]
+    codes, distinct = pd.factorize(pd.Series(raw, dtype=object).map(repr))
+    first = np.unique(codes, return_index=True)[1]
+    parsed = [_parse_text_number(raw[i], unit_words, unit, label) for i in first]
+    numbers = np.array([p[0] for p in parsed], dtype=float)
+    problems = np.array([p[1] for p in parsed], dtype=object)
+    values[look] = numbers[codes]
+    bad = problems[codes] != ""
+    return values, blank, (look[bad], problems[codes][bad])
 
 
 def _parse_text_number(cell, unit_words, unit: str, label: str) -> tuple[float, str]:
@@ -1299,30 +1312,83 @@ def _resolve_roles(table: pd.DataFrame) -> tuple:
 
 
 class _Issues:
-    """Errors and cautions per row, as 'line N, column 'x': text'."""
+    """Errors and cautions per row, as 'line N, column 'x': text', gathered as arrays.
+
+    `error` and `caution` take one row or an array of rows, and one text for all
+    of them or one text per row; the reasons are joined in `assemble` with array
+    operations, so that a caution on every row costs no Python loop per row.
+    """
 
     def __init__(self, lines: np.ndarray):
         self.lines = lines
-        self.errors: dict[int, list[str]] = defaultdict(list)
-        self.cautions: dict[int, list[str]] = defaultdict(list)
+        self._records: list[tuple[int, np.ndarray, object, object]] = []
 
-    def _text(self, row: int, column, text: str) -> str:
-        where = f"line {self.lines[row]}"
-        if column is not None:
-            where += f", column {str(column).strip()!r}"
-        return f"{where}: {text}"
+    def _add(self, kind: int, rows, column, text) -> None:
+        rows = np.atleast_1d(np.asarray(rows, dtype=np.intp))
+        if rows.size == 0:
+            return
+        if not isinstance(text, str):
+            text = np.asarray(text, dtype=object)
+        self._records.append((kind, rows, column, text))
 
-    def error(self, row, column, text: str) -> None:
-        self.errors[int(row)].append(self._text(int(row), column, text))
+    def error(self, rows, column, text) -> None:
+        self._add(0, rows, column, text)
 
-    def caution(self, row, column, text: str) -> None:
-        self.cautions[int(row)].append(self._text(int(row), column, text))
+    def caution(self, rows, column, text) -> None:
+        self._add(1, rows, column, text)
 
     def error_mask(self, n: int) -> np.ndarray:
         mask = np.zeros(n, dtype=bool)
-        if self.errors:
-            mask[list(self.errors)] = True
+        for kind, rows, _, _ in self._records:
+            if kind == 0:
+                mask[rows] = True
         return mask
+
+    def assemble(self, n: int) -> tuple[np.ndarray, np.ndarray]:
+        """Status ("ok", "warning", "error") and reason of every row.
+
+        A row's errors come first, then its cautions, each in the order found,
+        without repeats, joined by "; ".
+        """
+        status = np.full(n, "ok", dtype=object)
+        reason = np.full(n, "", dtype=object)
+        if not self._records:
+            return status, reason
+        rows_all, kinds, order_all, texts = [], [], [], []
+        for seq, (kind, rows, column, text) in enumerate(self._records):
+            where = f", column {str(column).strip()!r}: " if column is not None else ": "
+            prefix = "line " + self.lines[rows].astype(str).astype(object) + where
+            texts.append(prefix + text)
+            rows_all.append(rows)
+            kinds.append(np.full(rows.size, kind, dtype=np.int8))
+            order_all.append(np.full(rows.size, seq, dtype=np.intp))
+        r = np.concatenate(rows_all)
+        k = np.concatenate(kinds)
+        t = np.concatenate(texts)
+        order = np.lexsort((np.concatenate(order_all), k, r))
+        r, k, t = r[order], k[order], t[order]
+        keep = ~pd.DataFrame({"r": r, "t": t}).duplicated().to_numpy()
+        r, k, t = r[keep], k[keep], t[keep]
+        status[r[k == 1]] = "warning"
+        status[r[k == 0]] = "error"
+        starts = np.flatnonzero(np.r_[True, r[1:] != r[:-1]])
+        rank = np.arange(r.size) - np.repeat(starts, np.diff(np.r_[starts, r.size]))
+        first = rank == 0
+        reason[r[first]] = t[first]
+        for position in range(1, int(rank.max()) + 1):
+            at = rank == position
+            reason[r[at]] = reason[r[at]] + ("; " + t[at])
+        return status, reason
+
+
+def _format_each(values, spec: str) -> np.ndarray:
+    """`format(value, spec)` of each value, formatting each distinct value once."""
+    values = np.asarray(values, dtype=float)
+    if values.size == 0:
+        return np.empty(0, dtype=object)
+    distinct, inverse = np.unique(values, return_inverse=True)
+    shown = np.array([format(float(v), spec) for v in distinct], dtype=object)
+    return shown[np.asarray(inverse).ravel()]
 
 
 def _format_temperature(kelvin: float, unit: str) -> str:
@@ -1445,21 +1511,22 @@ def _read_formulas(frame: pd.DataFrame, roles: Mapping[str, object], issues: _Is
         if label in read and label not in text_roles:
             continue
         column = frame[label]
-        for i in np.flatnonzero(_is_formula(column)):
-            shown = str(column.iat[i])[:40]
-            if label in read:
-                issues.error(i, label, f"holds a formula ({shown!r}); formulas are not "
-                             "evaluated: enter the value itself")
-            else:
-                issues.caution(i, label, f"holds a formula ({shown!r}), passed through as "
-                               "text, not evaluated")
+        rows = np.flatnonzero(_is_formula(column))
+        if rows.size == 0:
+            continue
+        shown = column.iloc[rows].astype(str).str[:40].map(repr).to_numpy(dtype=object)
+        if label in read:
+            issues.error(rows, label, "holds a formula (" + shown + "); formulas are not "
+                         "evaluated: enter the value itself")
+        else:
+            issues.caution(rows, label, "holds a formula (" + shown + "), passed through as "
+                           "text, not evaluated")
 
 
 def _read_containers(column: pd.Series, label, skip: np.ndarray, issues: _Issues,
                      notes: list[str]) -> None:
     text, blank = _text_cells(column)
-    for i in np.flatnonzero(blank & ~skip):
-        issues.caution(i, label, "no container identifier")
+    issues.caution(np.flatnonzero(blank & ~skip), label, "no container identifier")
     repeated = pd.Series(text, dtype=object).duplicated(keep=False).to_numpy() & ~blank
     if repeated.any():
         names = pd.unique(text[repeated])
@@ -1467,11 +1534,23 @@ def _read_containers(column: pd.Series, label, skip: np.ndarray, issues: _Issues
                      f"(for example {names[0]!r}); each row is screened on its own")
 
 
+def _blank_cells(column: pd.Series) -> np.ndarray:
+    missing = column.isna().to_numpy()
+    if not _is_text_column(column):
+        return missing
+    return missing | (column.where(~missing, "").astype(str).str.strip() == "").to_numpy()
+
+
 def _empty_rows(frame: pd.DataFrame, candidates: np.ndarray) -> np.ndarray:
     """Rows whose every cell is blank, looked for among `candidates` only."""
     empty = np.zeros(len(frame), dtype=bool)
-    for i in np.flatnonzero(candidates):
-        empty[i] = all(_is_blank(v) for v in frame.iloc[i].tolist())
+    rows = np.flatnonzero(candidates)
+    if rows.size:
+        part = frame.iloc[rows]
+        every = np.ones(rows.size, dtype=bool)
+        for k in range(part.shape[1]):
+            every &= _blank_cells(part.iloc[:, k])
+        empty[rows[every]] = True
     return empty
 
 
@@ -1484,11 +1563,10 @@ def _read_temperatures(frame, roles, units, issues: _Issues, skip: np.ndarray):
         if base not in roles:
             continue
         label, unit = roles[base], units[base]
-        values, blank, problems = _number_cells(frame[label], _TEMPERATURE_WORDS, unit,
-                                                _TEMPERATURE_SCALES[unit])
-        for i, text in problems.items():
-            issues.error(i, label, text)
-            unreadable[i] = True
+        values, blank, (bad, texts) = _number_cells(frame[label], _TEMPERATURE_WORDS, unit,
+                                                    _TEMPERATURE_SCALES[unit])
+        issues.error(bad, label, texts)
+        unreadable[bad] = True
         columns[base] = _TemperatureColumn(label, unit, values, _to_kelvin(values, unit),
                                            blank)
     nominal = np.full(n, np.nan)
@@ -1504,19 +1582,19 @@ def _read_temperatures(frame, roles, units, issues: _Issues, skip: np.ndarray):
         worst[~high.blank] = high.kelvin[~high.blank]
         worst_from[~high.blank] = 2
     first_label = next(c.label for c in columns.values())
-    for i in np.flatnonzero((nominal_from < 0) & ~unreadable & ~skip):
-        issues.error(i, first_label, "no temperature given")
+    issues.error(np.flatnonzero((nominal_from < 0) & ~unreadable & ~skip), first_label,
+                 "no temperature given")
     for a, b in (("temperature_low", "temperature"), ("temperature", "temperature_high"),
                  ("temperature_low", "temperature_high")):
         if a in columns and b in columns:
             low, high = columns[a], columns[b]
             with np.errstate(invalid="ignore"):
-                wrong = ~low.blank & ~high.blank & (low.kelvin > high.kelvin)
-            for i in np.flatnonzero(wrong):
-                issues.error(i, high.label, f"{high.values[i]:g} "
-                             f"{_TEMPERATURE_SCALES[high.unit]} is below the "
-                             f"{low.values[i]:g} {_TEMPERATURE_SCALES[low.unit]} in "
-                             f"{str(low.label).strip()!r}; a range runs from low to high")
+                wrong = np.flatnonzero(~low.blank & ~high.blank & (low.kelvin > high.kelvin))
+            issues.error(wrong, high.label, _format_each(high.values[wrong], "g")
+                         + f" {_TEMPERATURE_SCALES[high.unit]} is below the "
+                         + _format_each(low.values[wrong], "g")
+                         + f" {_TEMPERATURE_SCALES[low.unit]} in "
+                         f"{str(low.label).strip()!r}; a range runs from low to high")
     return columns, nominal, nominal_from, worst, worst_from
 
 
@@ -1524,17 +1602,18 @@ def _read_fill(frame, roles, issues: _Issues) -> None:
     if "fill_percent" not in roles:
         return
     label = roles["fill_percent"]
-    values, _, problems = _number_cells(frame[label], {"%": "%", "percent": "%"}, "%", "%")
-    for i, text in problems.items():
-        issues.error(i, label, text)
+    values, _, (bad, texts) = _number_cells(frame[label], {"%": "%", "percent": "%"}, "%", "%")
+    issues.error(bad, label, texts)
     with np.errstate(invalid="ignore"):
-        for i in np.flatnonzero(values < 0):
-            issues.error(i, label, f"{values[i]:g} %: a fill level cannot be negative")
-        for i in np.flatnonzero(values > 100):
-            issues.error(i, label, f"{values[i]:g} %: a fill level cannot exceed 100 %")
-        for i in np.flatnonzero(values == 100):
-            issues.caution(i, label, "the container is full: it has no vapour space now; "
-                           "the headspace shown forms as soon as liquid is drawn off")
+        rows = np.flatnonzero(values < 0)
+        issues.error(rows, label, _format_each(values[rows], "g")
+                     + " %: a fill level cannot be negative")
+        rows = np.flatnonzero(values > 100)
+        issues.error(rows, label, _format_each(values[rows], "g")
+                     + " %: a fill level cannot exceed 100 %")
+        issues.caution(np.flatnonzero(values == 100), label, "the container is full: it has "
+                       "no vapour space now; the headspace shown forms as soon as liquid is "
+                       "drawn off")
 
 
 def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) -> np.ndarray:
@@ -1545,33 +1624,32 @@ def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) 
     if "pressure" in roles:
         label, unit = roles["pressure"], units["pressure"]
         words = {u: u for u in _PRESSURE_FACTORS} | {"psi": "psia"}
-        values, blank, problems = _number_cells(frame[label], words, unit,
-                                                _PRESSURE_LABELS[unit])
-        for i, text in problems.items():
-            issues.error(i, label, text)
+        values, blank, (bad, texts) = _number_cells(frame[label], words, unit,
+                                                    _PRESSURE_LABELS[unit])
+        issues.error(bad, label, texts)
         pascal = values * _PRESSURE_FACTORS[unit]
         with np.errstate(invalid="ignore"):
             inside = (pascal >= _PRESSURE_RANGE[0]) & (pascal <= _PRESSURE_RANGE[1])
-        for i in np.flatnonzero(np.isfinite(pascal) & ~inside):
-            issues.error(i, label, f"{values[i]:g} {_PRESSURE_LABELS[unit]} is not an "
-                         "absolute pressure between 1 kPa and 10 MPa (101.325 kPa is 1 atm; "
-                         "add the barometric pressure to a gauge reading)")
+        rows = np.flatnonzero(np.isfinite(pascal) & ~inside)
+        issues.error(rows, label, _format_each(values[rows], "g")
+                     + f" {_PRESSURE_LABELS[unit]} is not an absolute pressure between 1 kPa "
+                     "and 10 MPa (101.325 kPa is 1 atm; add the barometric pressure to a "
+                     "gauge reading)")
         row_pressure[inside] = pascal[inside]
         given = ~blank
     if "elevation" in roles:
         label, unit = roles["elevation"], units["elevation"]
-        values, blank, problems = _number_cells(frame[label], {unit: unit}, unit, unit)
-        for i, text in problems.items():
-            issues.error(i, label, text)
+        values, blank, (bad, texts) = _number_cells(frame[label], {unit: unit}, unit, unit)
+        issues.error(bad, label, texts)
         metres = values * _ELEVATION_FACTORS[unit]
         with np.errstate(invalid="ignore"):
             inside = (metres >= _ELEVATION_RANGE[0]) & (metres <= _ELEVATION_RANGE[1])
-        for i in np.flatnonzero(np.isfinite(metres) & ~inside):
-            issues.error(i, label, f"{values[i]:g} {unit} is outside -500 to 11000 m above "
-                         "sea level")
-        for i in np.flatnonzero(~blank & given):
-            issues.error(i, label, f"give either {str(roles['pressure']).strip()!r} or the "
-                         "elevation for a row, not both")
+        rows = np.flatnonzero(np.isfinite(metres) & ~inside)
+        issues.error(rows, label, _format_each(values[rows], "g")
+                     + f" {unit} is outside -500 to 11000 m above sea level")
+        issues.error(np.flatnonzero(~blank & given), label,
+                     f"give either {str(roles.get('pressure', '')).strip()!r} or the "
+                     "elevation for a row, not both")
         use = inside & ~given
         if use.any():
             row_pressure[use] = barometric_pressure(metres[use])
@@ -1591,27 +1669,86 @@ def _read_limits(frame, roles, issues: _Issues) -> dict[str, np.ndarray]:
             limits[kind] = np.full(n, np.nan)
             continue
         label = roles[kind]
-        values, blank, problems = _number_cells(frame[label], {"ppm": "ppm"}, "ppm", "ppm")
-        for i, text in problems.items():
-            issues.caution(i, label, f"{text}; this limit is not used")
+        values, blank, (bad_cells, texts) = _number_cells(frame[label], {"ppm": "ppm"},
+                                                          "ppm", "ppm")
+        issues.caution(bad_cells, label, texts + "; this limit is not used")
         with np.errstate(invalid="ignore"):
             bad = np.isfinite(values) & ((values <= 0) | (values >= 1e6))
-        for i in np.flatnonzero(bad):
-            issues.caution(i, label, f"{values[i]:g} ppm is not a limit (it must be above 0 "
-                           "and below 1e6 ppm); this limit is not used")
+        rows = np.flatnonzero(bad)
+        issues.caution(rows, label, _format_each(values[rows], "g")
+                       + " ppm is not a limit (it must be above 0 and below 1e6 ppm); this "
+                       "limit is not used")
         unsourced = np.isfinite(values) & ~bad & no_source
-        for i in np.flatnonzero(unsourced):
-            issues.caution(i, label, f"the {_LIMIT_LABELS[kind]} of {values[i]:g} ppm has no "
-                           "limit_source and is not used; say where it comes from "
-                           "(regulation, standard, company value)")
+        rows = np.flatnonzero(unsourced)
+        issues.caution(rows, label, f"the {_LIMIT_LABELS[kind]} of "
+                       + _format_each(values[rows], "g")
+                       + " ppm has no limit_source and is not used; say where it comes from "
+                       "(regulation, standard, company value)")
         limits[kind] = np.where(bad | unsourced, np.nan, values)
     return limits
 
 
-def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
-    """Resolve each distinct (liquid, basis) once; group rows of equal composition.
+@dataclass(frozen=True)
+class _ComponentSet:
+    """Liquids of the same components in the same order; compositions per row vary.
 
-    Returns the liquids and the group of each row (-1 where unusable).
+    `liquid` is one of them, for what depends on the components only (names,
+    bounds, methods, flammability limits); `fractions` holds the mole fractions of
+    every distinct composition, one row each.
+    """
+
+    liquid: Liquid
+    fractions: np.ndarray  # (compositions, components)
+
+
+_NO_LIQUID = ("no liquid given: enter a substance name, synonym or CAS number, or a "
+              "mixture such as 'toluene 60%, o-xylene 40%'")
+
+
+def _mixture_fractions(amounts: np.ndarray, components, basis: str):
+    """Mole fractions of many compositions of one component set, as `mole_fractions`.
+
+    Returns the fractions (k, n), the problem of each composition ("" if none) and
+    its note ("" if none), with the messages of `estimator.mixtures.mole_fractions`.
+    """
+    from .mixtures import SUM_NORMALISE_LIMIT, SUM_TOLERANCE
+
+    k = amounts.shape[0]
+    problem = np.full(k, "", dtype=object)
+    note = np.full(k, "", dtype=object)
+    total = amounts.sum(axis=1)
+    over = (amounts > 1.0 + SUM_TOLERANCE).any(axis=1)
+    problem[over] = "a fraction is above 100 %; give fractions of the whole"
+    off = ~over & (np.abs(total - 1.0) > SUM_NORMALISE_LIMIT)
+    if off.any():
+        problem[off] = [f"the {basis} fractions add up to {100 * t:.4g} %, "
+                        f"{100 * abs(t - 1.0):.3g} points {'over' if t > 1 else 'short of'} "
+                        "100 %; correct the composition" for t in total[off]]
+    scaled = ~over & ~off & (np.abs(total - 1.0) > SUM_TOLERANCE)
+    if scaled.any():
+        note[scaled] = [f"the {basis} fractions added up to {100 * t:.4g} %; they were "
+                        "scaled to 100 %" for t in total[scaled]]
+    a = amounts / total[:, None]
+    if basis == "mole":
+        return a, problem, note
+    if basis == "volume":
+        densities = [c.liquid_density for c in components]
+        if any(d is None for d in densities):
+            problem[problem == ""] = ("a volume-basis composition needs the liquid density "
+                                      "of every component")
+            return a, problem, note
+        a = a * np.array(densities, dtype=float)
+    moles = a / np.array([c.molar_mass for c in components])
+    return moles / moles.sum(axis=1, keepdims=True), problem, note
+
+
+def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
+    """Resolve each distinct (liquid, basis) text once; group rows by component set.
+
+    Mixture texts are split once each; their components are looked up once per
+    name, and the compositions of each component set are converted to mole
+    fractions in one array operation. Returns the component sets, the set of each
+    row (-1 where unusable) and the row's composition within its set.
     """
     n = len(frame)
     liquid_label = roles["liquid"]
@@ -1625,42 +1762,102 @@ def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
     basis_codes, basis_uniques = pd.factorize(basis_key)
     width = len(basis_uniques) + 1
     pair_codes, pair_uniques = pd.factorize(liquid_codes * width + basis_codes)
-    rows_of_pair = _rows_by_code(pair_codes, len(pair_uniques))
-    group_of_pair = np.full(len(pair_uniques), -1, dtype=np.intp)
-    groups: list[Liquid] = []
-    index: dict[tuple, int] = {}
+    pairs = len(pair_uniques)
+    pair_problem: list[tuple[str, object] | None] = [None] * pairs
+    pair_note = np.full(pairs, "", dtype=object)
+    pair_set = np.full(pairs, -1, dtype=np.intp)
+    pair_composition = np.zeros(pairs, dtype=np.intp)
+    names: dict[str, object] = {}
+
+    def component(name: str):
+        key = name
+        if key not in names:
+            try:
+                names[key] = make_liquid(name, field="liquid component").components[0]
+            except InputError as exc:
+                names[key] = exc
+        return names[key]
+
+    pending: dict[tuple, list] = defaultdict(list)  # (keys, basis) -> [(pair, amounts)]
+    sets: list[_ComponentSet] = []
+    set_index: dict[tuple, int] = {}
     for k, code in enumerate(pair_uniques):
         text = liquid_uniques[code // width]
         basis_word = basis_uniques[code % width]
-        rows = rows_of_pair[k]
         if text.startswith("=") or basis_word.startswith("="):
-            continue  # reported as a formula
-        problem, label = None, liquid_label
+            pair_problem[k] = ("", None)  # reported as a formula
+            continue
         basis = _BASIS_WORDS.get(basis_word) if basis_word else "mass"
         if not text:
-            problem = ("no liquid given: enter a substance name, synonym or CAS number, or "
-                       "a mixture such as 'toluene 60%, o-xylene 40%'")
-        elif basis is None:
-            problem, label = (f"{basis_word!r} is not a basis; use mole, mass or volume "
-                              "(blank means mass)"), roles["basis"]
-        else:
-            try:
-                liq = parse_liquid(text, basis)
-            except InputError as exc:
-                problem = exc.reason
-        if problem is not None:
-            for i in rows[~skip[rows]]:
-                issues.error(i, label, problem)
+            pair_problem[k] = (_NO_LIQUID, liquid_label)
             continue
-        key = _liquid_key(liq)
-        if key not in index:
-            index[key] = len(groups)
-            groups.append(liq)
-        group_of_pair[k] = index[key]
-        for note in liq.warnings:
-            for i in rows:
-                issues.caution(i, liquid_label, note)
-    return groups, group_of_pair[pair_codes]
+        if basis is None:
+            pair_problem[k] = (f"{basis_word!r} is not a basis; use mole, mass or volume "
+                               "(blank means mass)", roles["basis"])
+            continue
+        if "%" not in text:
+            found = component(text)
+            if isinstance(found, InputError):
+                pair_problem[k] = (found.reason, liquid_label)
+                continue
+            pending[((found.key,), "mole")].append((k, np.ones(1), found))
+            continue
+        parts = _mixture_parts(text)
+        if parts is None:
+            pair_problem[k] = (f"{text!r} cannot be read as a mixture: write each component "
+                               "as a name followed by its percentage, separated by commas, "
+                               "for example 'toluene 60%, o-xylene 40%'", liquid_label)
+            continue
+        lowered = [name.lower() for name, _ in parts]
+        if len(set(lowered)) != len(lowered):
+            pair_problem[k] = ("a component is listed twice; give each component once",
+                               liquid_label)
+            continue
+        found = [component(name) for name, _ in parts]
+        failed = next((f for f in found if isinstance(f, InputError)), None)
+        if failed is not None:
+            pair_problem[k] = (failed.reason, liquid_label)
+            continue
+        keys = tuple(c.key for c in found)
+        if len(set(keys)) != len(keys):
+            pair_problem[k] = ("a component is listed twice (perhaps under two names)",
+                               liquid_label)
+            continue
+        pending[(keys, basis)].append((k, np.array([a for _, a in parts]), tuple(found)))
+    for (keys, basis), members in pending.items():
+        amounts = np.vstack([m[1] for m in members])
+        first = members[0][2]
+        components = (first,) if not isinstance(first, tuple) else first
+        x, problems, notes = _mixture_fractions(amounts, components, basis)
+        if keys not in set_index:
+            set_index[keys] = len(sets)
+            liquid = make_liquid(components[0]) if len(components) == 1 else Liquid(
+                components, x[0], np.ones(len(components)))
+            sets.append(_ComponentSet(liquid, np.empty((0, len(components)))))
+        s_id = set_index[keys]
+        offset = sets[s_id].fractions.shape[0]
+        good = problems == ""
+        sets[s_id] = _ComponentSet(sets[s_id].liquid,
+                                   np.vstack([sets[s_id].fractions, x[good]]))
+        good_pairs = np.array([m[0] for m in members])[good]
+        pair_set[good_pairs] = s_id
+        pair_composition[good_pairs] = offset + np.arange(good_pairs.size)
+        pair_note[good_pairs] = notes[good]
+        for m, problem in zip(np.array([m[0] for m in members])[~good], problems[~good]):
+            pair_problem[m] = (problem, liquid_label)
+    # Rows of each pair with a problem or a note: one array call each.
+    order, edges = _group_order(pair_codes, pairs)
+    for k in range(pairs):
+        if pair_problem[k] is None and not pair_note[k]:
+            continue
+        rows = np.sort(order[edges[k]:edges[k + 1]])
+        if pair_problem[k] is not None:
+            problem, label = pair_problem[k]
+            if problem:
+                issues.error(rows[~skip[rows]], label, problem)
+        else:
+            issues.caution(rows, liquid_label, pair_note[k])
+    return sets, pair_set[pair_codes], pair_composition[pair_codes]
 
 
 def _method_labels(liq: Liquid, method_nominal: np.ndarray, method_worst: np.ndarray,
@@ -1705,8 +1902,7 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
 
     _, liquid_blank = _text_cells(frame[roles["liquid"]])
     empty = _empty_rows(frame, liquid_blank)
-    for i in np.flatnonzero(empty):
-        issues.error(i, None, "the row is empty")
+    issues.error(np.flatnonzero(empty), None, "the row is empty")
     _read_formulas(frame, roles, issues)
     _read_containers(frame[roles["container"]], roles["container"], empty, issues, notes)
     temperatures, nominal, nominal_from, worst, worst_from = _read_temperatures(
@@ -1714,24 +1910,26 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
     _read_fill(frame, roles, issues)
     row_pressure = _read_pressures(frame, roles, units, file_pressure, issues)
     limits = _read_limits(frame, roles, issues)
-    groups, row_group = _read_liquids(frame, roles, empty, issues)
+    sets, row_set, row_composition = _read_liquids(frame, roles, empty, issues)
 
-    # Temperature limits of each liquid (melting point, critical point), per group.
-    row_group = np.where(issues.error_mask(n), -1, row_group)
-    for g, rows in enumerate(_rows_by_code(row_group, len(groups))):
+    # Temperature limits of each liquid (melting point, critical point), per set.
+    row_set = np.where(issues.error_mask(n), -1, row_set)
+    for g, rows in enumerate(_rows_by_code(row_set, len(sets))):
         if rows.size == 0:
             continue
-        bounds = _bounds(groups[g])
+        liq = sets[g].liquid
+        bounds = _bounds(liq)
         for column in temperatures.values():
             codes = _temperature_problems(bounds, column.kelvin[rows])
             codes[column.blank[rows]] = 0
-            for r, code in zip(rows[codes > 0], codes[codes > 0]):
-                issues.error(r, column.label, _temperature_message(
-                    int(code), column.values[r], column.unit, bounds, groups[g]))
+            for code in np.unique(codes[codes > 0]):
+                bad = rows[codes == code]
+                issues.error(bad, column.label, _temperature_messages(
+                    int(code), column.values[bad], column.unit, bounds, liq))
 
-    # Each group in one evaluation, at the liquid and the worst-case temperatures.
-    row_group = np.where(issues.error_mask(n), -1, row_group)
-    computed = row_group >= 0
+    # Each component set in one evaluation, at the liquid and worst-case temperatures.
+    row_set = np.where(issues.error_mask(n), -1, row_set)
+    computed = row_set >= 0
     result = {name: np.full(n, np.nan) for name in
               ("headspace_ppm", "worst_case_ppm", "worst_case_mg_per_m3",
                "worst_case_percent_lfl", "worst_case_oxygen_percent",
@@ -1742,16 +1940,19 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
     uncertainty_of = method_uncertainty()
     temperature_label = {i: roles.get(b) for i, b in enumerate(_TEMPERATURE_BASES)}
     evaluated = 0
-    for g, rows in enumerate(_rows_by_code(row_group, len(groups))):
+    for g, rows in enumerate(_rows_by_code(row_set, len(sets))):
         if rows.size == 0:
             continue
-        liq = groups[g]
-        evaluated += 1
+        liq = sets[g].liquid
+        used = sets[g].fractions[row_composition[rows]]  # (m, components)
+        evaluated += np.unique(np.round(sets[g].fractions[np.unique(row_composition[rows])],
+                                        12), axis=0).shape[0]
         m = rows.size
         differ = np.flatnonzero(worst[rows] != nominal[rows])
         t_all = np.concatenate([nominal[rows], worst[rows[differ]]])
         p_all = np.concatenate([row_pressure[rows], row_pressure[rows[differ]]])
-        res = _evaluate_liquid(liq, t_all, p_all)
+        weights = None if liq.is_pure else np.concatenate([used, used[differ]]).T
+        res = _evaluate_liquid(liq, t_all, p_all, weights)
         at = np.arange(m)
         at_worst = at.copy()
         at_worst[differ] = m + np.arange(differ.size)
@@ -1764,15 +1965,17 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
         has_fuel[rows] = any(c.lower_flammability_limit for c in liq.components)
         method_text[rows], result["vapor_pressure_uncertainty"][rows] = _method_labels(
             liq, res.method_index[:, at], res.method_index[:, at_worst], uncertainty_of)
-        for positions, source in ((at, nominal_from), (at_worst, worst_from)):
-            _group_cautions(liq, res, rows, positions, t_all, p_all, source[rows],
-                            temperature_label, issues)
+        _group_cautions(liq, res, rows, at, t_all, p_all, nominal_from[rows],
+                        temperature_label, issues)
+        # The worst case adds its own cautions where its temperature or column differs.
+        other = (at_worst != at) | (worst_from[rows] != nominal_from[rows])
+        _group_cautions(liq, res, rows[other], at_worst[other], t_all, p_all,
+                        worst_from[rows][other], temperature_label, issues)
         if any(c.lower_flammability_limit and not c.upper_flammability_limit
                for c in liq.components):
-            for r in rows:
-                issues.caution(r, roles["liquid"], "an upper flammability limit is missing "
-                               "for a flammable component; the too-rich state cannot be "
-                               "judged for it")
+            issues.caution(rows, roles["liquid"], "an upper flammability limit is missing "
+                           "for a flammable component; the too-rich state cannot be judged "
+                           "for it")
 
     # Limits, vapour hazard ratio and concern.
     with np.errstate(invalid="ignore", divide="ignore"):
@@ -1800,19 +2003,14 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
     rank = pd.Series(concern).rank(ascending=False, method="min").astype("Int64")
 
     # Status and reason: errors first, then cautions.
-    status = np.full(n, "ok", dtype=object)
-    reason = np.full(n, "", dtype=object)
-    for i, texts in issues.cautions.items():
-        status[i] = "warning"
-        reason[i] = "; ".join(dict.fromkeys(texts))
-    for i, texts in issues.errors.items():
-        status[i] = "error"
-        reason[i] = "; ".join(dict.fromkeys(texts + issues.cautions.get(i, [])))
+    status, reason = issues.assemble(n)
 
     # Rows left without a result always say why (a guard; every path above reports).
-    for i in np.flatnonzero(~computed & (status != "error")):
-        status[i] = "error"
-        reason[i] = f"line {lines[i]}: the row could not be computed"
+    unexplained = np.flatnonzero(~computed & (status != "error"))
+    if unexplained.size:
+        status[unexplained] = "error"
+        reason[unexplained] = ("line " + lines[unexplained].astype(str).astype(object)
+                               + ": the row could not be computed")
 
     def text(values):
         return pd.Series(values, index=frame.index, dtype=object)
@@ -1847,48 +2045,62 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
 def _group_cautions(liq: Liquid, res: _LiquidArrays, rows: np.ndarray, positions: np.ndarray,
                     t_all: np.ndarray, p_all: np.ndarray, sources: np.ndarray,
                     source_labels: Mapping[int, object], issues: _Issues):
-    """Extrapolation and boiling cautions of one group at one of its temperatures.
+    """Extrapolation and boiling cautions of one set at one of its temperatures.
 
     `sources` says which temperature column each row's value came from.
     """
+    if rows.size == 0:
+        return
+
+    def by_source(mask, texts):
+        for source in np.unique(sources[mask]):
+            pick = sources[mask] == source
+            issues.caution(rows[mask][pick], source_labels[int(source)],
+                           texts if isinstance(texts, str) else texts[pick])
+
     extrapolated = res.extrapolated[:, positions]
-    for j in np.flatnonzero(extrapolated.any(axis=0)):
-        for c in np.flatnonzero(extrapolated[:, j]):
-            component = liq.components[c]
-            first = component.correlations[0]
-            issues.caution(rows[j], source_labels[int(sources[j])],
-                           f"{component.name}: {t_all[positions[j]]:.1f} K lies outside the "
-                           f"{first.tmin:.1f}-{first.tmax:.1f} K range of the "
-                           f"{METHODS[first.method]}; the value is an extrapolation")
-    for j in np.flatnonzero(res.boiling[positions]):
-        issues.caution(rows[j], source_labels[int(sources[j])],
-                       f"the liquid boils at this temperature and "
-                       f"{p_all[positions[j]] / 1000:.1f} kPa: the vapour pressure reaches the "
-                       "pressure of the space, which then holds essentially pure vapour "
-                       "(air displaced)")
+    for c in np.flatnonzero(extrapolated.any(axis=1)):
+        mask = extrapolated[c]
+        component = liq.components[c]
+        first = component.correlations[0]
+        by_source(mask, f"{component.name}: " + _format_each(t_all[positions[mask]], ".1f")
+                  + f" K lies outside the {first.tmin:.1f}-{first.tmax:.1f} K range of the "
+                  f"{METHODS[first.method]}; the value is an extrapolation")
+    boiling = res.boiling[positions]
+    if boiling.any():
+        by_source(boiling, "the liquid boils at this temperature and "
+                  + _format_each(p_all[positions[boiling]] / 1000, ".1f")
+                  + " kPa: the vapour pressure reaches the pressure of the space, which then "
+                  "holds essentially pure vapour (air displaced)")
     if not liq.is_pure:
         above = res.above_own_boiling[:, positions]
-        for j in np.flatnonzero(above.any(axis=0) & ~res.boiling[positions]):
-            names = ", ".join(liq.components[c].name for c in np.flatnonzero(above[:, j]))
-            issues.caution(rows[j], source_labels[int(sources[j])],
-                           f"{names} is above its own boiling point at this pressure; in an "
-                           "open vessel it would boil off")
+        flagged = above.any(axis=0) & ~boiling
+        if flagged.any():
+            combos, inverse = np.unique(above[:, flagged].T, axis=0, return_inverse=True)
+            inverse = np.asarray(inverse).ravel()
+            texts = np.array([", ".join(liq.components[c].name for c in np.flatnonzero(combo))
+                              + " is above its own boiling point at this pressure; in an "
+                              "open vessel it would boil off" for combo in combos],
+                             dtype=object)[inverse]
+            by_source(flagged, texts)
 
 
-def _temperature_message(code: int, value: float, unit: str, bounds: _Bounds,
-                         liq: Liquid) -> str:
-    shown = f"{value:g} {_TEMPERATURE_SCALES[unit]}"
+def _temperature_messages(code: int, values: np.ndarray, unit: str, bounds: _Bounds,
+                          liq: Liquid) -> np.ndarray:
+    """The message of one temperature problem code for many values (in the header unit)."""
+    shown = _format_each(values, "g") + f" {_TEMPERATURE_SCALES[unit]}"
     if code == 1:
-        return f"{shown} is not a finite number"
+        return shown + " is not a finite number"
     if code == 2:
-        return f"{shown} is at or below absolute zero; check the unit in the header"
+        return shown + " is at or below absolute zero; check the unit in the header"
     whose = "" if liq.is_pure else ", a component"
     if code == 3:
-        return (f"{shown} is above the critical temperature of {bounds.critical_name}{whose} "
-                f"({_format_temperature(bounds.critical, unit)}): no liquid can exist there")
-    return (f"{shown} is below the melting point of {bounds.melting_name}{whose} "
-            f"({_format_temperature(bounds.melting, unit)}): it would be solid; ullage does "
-            "not model sublimation")
+        return shown + (f" is above the critical temperature of {bounds.critical_name}{whose} "
+                        f"({_format_temperature(bounds.critical, unit)}): no liquid can exist "
+                        "there")
+    return shown + (f" is below the melting point of {bounds.melting_name}{whose} "
+                    f"({_format_temperature(bounds.melting, unit)}): it would be solid; "
+                    "ullage does not model sublimation")
 
 
 # ------------------------------------------------------------------------- writing
