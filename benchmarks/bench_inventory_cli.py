@@ -129,7 +129,7 @@ def ours(source: Path, target: Path) -> int:
 
 
 _PEAK = """
-import resource, sys, warnings
+import re, sys, warnings
 sys.path.insert(0, {root!r}); sys.path.insert(0, {here!r})
 warnings.simplefilter("ignore")
 import bench_inventory_cli as b
@@ -138,7 +138,10 @@ if sys.argv[1] == "ours":
     b.ours(Path(sys.argv[2]), Path(sys.argv[3]))
 else:
     b.baseline(Path(sys.argv[2]), Path(sys.argv[3]), b._correlation_arrays())
-print(resource.getrusage(resource.RUSAGE_SELF).ru_maxrss * 1024)
+# VmHWM: the peak resident set of this program (ru_maxrss would also count the
+# memory of the benchmark process this one was started from).
+status = open("/proc/self/status").read()
+print(int(re.search(r"VmHWM:\\s+(\\d+) kB", status)[1]) * 1024)
 """
 
 

@@ -32,6 +32,7 @@ __all__ = [
     "partial_name_pattern",
     "neutralise_cell",
     "neutralise_series",
+    "neutralise_arrow",
     "parse_size",
     "PARTIAL_MARK",
 ]
@@ -242,6 +243,30 @@ def neutralise_series(column):
     out = column.copy()
     out[risky] = "'" + text[risky].astype(object if column.dtype == object else text.dtype)
     return out
+
+
+def neutralise_arrow(array):
+    """`neutralise_cell` over a pyarrow string array, in Arrow compute kernels.
+
+    Parameters
+    ----------
+    array : pyarrow.Array or pyarrow.ChunkedArray of strings
+
+    Returns
+    -------
+    pyarrow.Array or pyarrow.ChunkedArray
+    """
+    import pyarrow as pa
+    import pyarrow.compute as pc
+
+    starts = pc.match_substring_regex(array, _FORMULA_PATTERN)
+    if not pc.any(starts).as_py():
+        return array
+    risky = pc.and_(starts, pc.invert(pc.match_substring_regex(array, _NUMBER_PATTERN)))
+    if not pc.any(risky).as_py():
+        return array
+    quote, empty = pa.scalar("'", array.type), pa.scalar("", array.type)
+    return pc.if_else(risky, pc.binary_join_element_wise(quote, array, empty), array)
 
 
 _SIZE = re.compile(r"\s*(\d+(?:\.\d*)?|\.\d+)\s*([a-zA-Z]*)\s*")

@@ -120,7 +120,7 @@ from .constants import (
     ZERO_CELSIUS,
 )
 from .errors import InputError, UllageWarning
-from .files import atomic_writer, neutralise_cell, neutralise_series
+from .files import atomic_writer, neutralise_arrow, neutralise_cell
 from .headspace import _check_pressure, barometric_pressure, le_chatelier
 from .limits import FlammabilityAlarms
 from .mixtures import Liquid, liquid as make_liquid
@@ -834,6 +834,8 @@ def _is_blank(value) -> bool:
 def _drop_trailing_blank_rows(frame: pd.DataFrame) -> pd.DataFrame:
     if len(frame) == 0:
         return frame
+    if not all(_is_blank(v) for v in frame.iloc[-1].tolist()):
+        return frame
     blank = frame.isna() | frame.apply(lambda col: col.astype(str).str.strip() == "")
     filled = np.flatnonzero(~blank.all(axis=1).to_numpy())
     last = filled[-1] + 1 if filled.size else 0
@@ -1016,11 +1018,13 @@ def _is_text_column(column: pd.Series) -> bool:
             or pd.api.types.is_string_dtype(column.dtype))
 
 
-def _text_cells(column: pd.Series) -> tuple[np.ndarray, np.ndarray]:
-    """Stripped text of each cell (object array) and the blank mask."""
+def _text_cells(column: pd.Series) -> tuple[pd.Series, np.ndarray]:
+    """Stripped text of each cell (a text Series, "" where missing) and the blank mask."""
     missing = column.isna().to_numpy()
-    text = column.where(~missing, "").astype(str).str.strip().to_numpy(dtype=object)
-    return text, text == ""
+    if missing.any():
+        column = column.where(~missing, "")
+    text = column.astype("str").str.strip().reset_index(drop=True)
+    return text, (text == "").to_numpy(dtype=bool)
 
 
 def _is_formula(column: pd.Series) -> np.ndarray:
@@ -1056,7 +1060,9 @@ def _number_cells(column: pd.Series, unit_words: Mapping[str, str], unit: str,
         values[bad] = np.nan
         return values, blank, (bad, np.array([f"{column.iat[i]!r} is not a finite number"
                                               for i in bad], dtype=object))
-    values = pd.to_numeric(column, errors="coerce").to_numpy(dtype=float, na_value=np.nan)
+    values = _fast_numbers(column)
+    if values is None:
+        values = pd.to_numeric(column, errors="coerce").to_numpy(dtype=float, na_value=np.nan)
     values = values.copy()
     if column.dtype == object:
         booleans = column.map(type).isin([bool, np.bool_]).to_numpy()
@@ -1082,6 +1088,28 @@ def _number_cells(column: pd.Series, unit_words: Mapping[str, str], unit: str,
     values[look] = numbers[codes]
     bad = problems[codes] != ""
     return values, blank, (look[bad], problems[codes][bad])
+
+
+def _fast_numbers(column: pd.Series) -> np.ndarray | None:
+    """Plain numbers of an Arrow-backed text column in one cast (None if any cell is not).
+
+    Blank cells become NaN; a column with any other text is left to the full parser.
+    """
+    try:
+        import pyarrow as pa
+        import pyarrow.compute as pc
+    except ImportError:  # pragma: no cover - pyarrow is a dependency
+        return None
+    if column.dtype == object or not isinstance(getattr(column, "array", None),
+                                                pd.api.extensions.ExtensionArray):
+        return None
+    try:
+        arrow = pa.chunked_array(pa.array(column.array)) if not hasattr(
+            column.array, "_pa_array") else column.array._pa_array
+        arrow = pc.if_else(pc.equal(pc.utf8_trim_whitespace(arrow), ""), None, arrow)
+        return pc.cast(arrow, pa.float64()).to_numpy(zero_copy_only=False).astype(float)
+    except (pa.ArrowInvalid, pa.ArrowTypeError, pa.ArrowNotImplementedError, TypeError):
+        return None
 
 
 def _parse_text_number(cell, unit_words, unit: str, label: str) -> tuple[float, str]:
@@ -1527,7 +1555,7 @@ def _read_containers(column: pd.Series, label, skip: np.ndarray, issues: _Issues
                      notes: list[str]) -> None:
     text, blank = _text_cells(column)
     issues.caution(np.flatnonzero(blank & ~skip), label, "no container identifier")
-    repeated = pd.Series(text, dtype=object).duplicated(keep=False).to_numpy() & ~blank
+    repeated = text.duplicated(keep=False).to_numpy() & ~blank
     if repeated.any():
         names = pd.unique(text[repeated])
         notes.append(f"{len(names)} container identifier(s) appear on more than one row "
@@ -1755,11 +1783,13 @@ def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
     liquid_text, _ = _text_cells(frame[liquid_label])
     if "basis" in roles:
         basis_text, _ = _text_cells(frame[roles["basis"]])
-        basis_key = pd.Series(basis_text).str.lower().str.replace(" ", "").to_numpy(object)
+        basis_key = basis_text.str.lower().str.replace(" ", "")
     else:
         basis_key = np.full(n, "", dtype=object)
     liquid_codes, liquid_uniques = pd.factorize(liquid_text)
+    liquid_uniques, basis_uniques = list(liquid_uniques), None
     basis_codes, basis_uniques = pd.factorize(basis_key)
+    basis_uniques = list(basis_uniques)
     width = len(basis_uniques) + 1
     pair_codes, pair_uniques = pd.factorize(liquid_codes * width + basis_codes)
     pairs = len(pair_uniques)
@@ -2121,17 +2151,20 @@ def _arrow_column(column: pd.Series):
         return pa.array(column.astype(str).to_numpy(dtype=object), type=pa.string())
     if pd.api.types.is_numeric_dtype(column.dtype):
         return pa.Array.from_pandas(column)
-    if not _is_text_column(column):
-        text = column.astype(str).where(column.notna(), None)
-        return pa.array(neutralise_series(text.astype(object)).to_numpy(), type=pa.string())
     if column.dtype == object:
-        kinds = pd.api.types.infer_dtype(column, skipna=True)
-        if kinds not in ("string", "empty"):
-            column = column.map(lambda v: None if _is_blank_value(v) else
-                                (v if isinstance(v, str) else str(v)))
-    column = neutralise_series(column)
-    return pa.array(column.to_numpy(dtype=object, na_value=None), type=pa.string(),
-                    from_pandas=True)
+        try:
+            array = pa.array(column.to_numpy(), type=pa.string(), from_pandas=True)
+        except (pa.ArrowInvalid, pa.ArrowTypeError):
+            array = pa.array(column.map(lambda v: None if _is_blank_value(v) else str(v))
+                             .to_numpy(), type=pa.string(), from_pandas=True)
+    elif _is_text_column(column):
+        array = pa.array(column.array)
+        if not pa.types.is_string(array.type) and not pa.types.is_large_string(array.type):
+            array = array.cast(pa.string())
+    else:
+        array = pa.array(column.astype(str).where(column.notna(), None).to_numpy(),
+                         type=pa.string(), from_pandas=True)
+    return neutralise_arrow(array)
 
 
 def _is_blank_value(value) -> bool:

@@ -16,6 +16,7 @@ import html
 import io
 import json
 import math
+import os  # noqa: F401  (the atomic writer uses it through estimator.files)
 import re
 import warnings
 from dataclasses import dataclass
