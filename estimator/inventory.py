@@ -1378,8 +1378,8 @@ class _Issues:
         A row's errors come first, then its cautions, each in the order found,
         without repeats, joined by "; ".
         """
-        status = np.full(n, "ok", dtype=object)
-        reason = np.full(n, "", dtype=object)
+        status = _same_text(n, "ok")
+        reason = _same_text(n, "")
         if not self._records:
             return status, reason
         rows_all, kinds, order_all, texts = [], [], [], []
@@ -1407,6 +1407,13 @@ class _Issues:
             at = rank == position
             reason[r[at]] = reason[r[at]] + ("; " + t[at])
         return status, reason
+
+
+def _same_text(n: int, text: str) -> np.ndarray:
+    """An object array of `n` references to one string (np.full would copy it n times)."""
+    out = np.empty(n, dtype=object)
+    out.fill(text)
+    return out
 
 
 def _format_each(values, spec: str) -> np.ndarray:
@@ -1742,8 +1749,8 @@ def _mixture_fractions(amounts: np.ndarray, components, basis: str):
     from .mixtures import SUM_NORMALISE_LIMIT, SUM_TOLERANCE
 
     k = amounts.shape[0]
-    problem = np.full(k, "", dtype=object)
-    note = np.full(k, "", dtype=object)
+    problem = _same_text(k, "")
+    note = _same_text(k, "")
     total = amounts.sum(axis=1)
     over = (amounts > 1.0 + SUM_TOLERANCE).any(axis=1)
     problem[over] = "a fraction is above 100 %; give fractions of the whole"
@@ -1785,7 +1792,7 @@ def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
         basis_text, _ = _text_cells(frame[roles["basis"]])
         basis_key = basis_text.str.lower().str.replace(" ", "")
     else:
-        basis_key = np.full(n, "", dtype=object)
+        basis_key = _same_text(n, "")
     liquid_codes, liquid_uniques = pd.factorize(liquid_text)
     liquid_uniques, basis_uniques = list(liquid_uniques), None
     basis_codes, basis_uniques = pd.factorize(basis_key)
@@ -1794,7 +1801,7 @@ def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
     pair_codes, pair_uniques = pd.factorize(liquid_codes * width + basis_codes)
     pairs = len(pair_uniques)
     pair_problem: list[tuple[str, object] | None] = [None] * pairs
-    pair_note = np.full(pairs, "", dtype=object)
+    pair_note = _same_text(pairs, "")
     pair_set = np.full(pairs, -1, dtype=np.intp)
     pair_composition = np.zeros(pairs, dtype=np.intp)
     names: dict[str, object] = {}
@@ -2046,7 +2053,7 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
         return pd.Series(values, index=frame.index, dtype=object)
 
     states = np.array(FLAMMABILITY_CODES + (None,), dtype=object)
-    added = pd.DataFrame({
+    columns_added = {
         "source_line": lines,
         "status": text(status),
         "reason": text(reason),
@@ -2068,8 +2075,14 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
         "concern_rank": pd.Series(rank.to_numpy(), index=frame.index, dtype="Int64"),
         "vapor_pressure_method": text(method_text),
         "vapor_pressure_uncertainty": result["vapor_pressure_uncertainty"],
-    }, index=frame.index)
-    return pd.concat([frame, added], axis=1), evaluated, notes
+    }
+    del result, ratios
+    # Column by column, so that pandas keeps each array as it is instead of copying
+    # all float columns into one block (which would double their memory for a moment).
+    table = frame.copy(deep=False)
+    for name in OUTPUT_COLUMNS:
+        table[name] = columns_added.pop(name)
+    return table, evaluated, notes
 
 
 def _group_cautions(liq: Liquid, res: _LiquidArrays, rows: np.ndarray, positions: np.ndarray,
