@@ -1034,8 +1034,9 @@ def _is_formula(column: pd.Series) -> np.ndarray:
     """
     if not _is_text_column(column):
         return np.zeros(len(column), dtype=bool)
-    text = column.where(column.notna(), "").astype(str)
-    return text.str.lstrip().str.startswith("=").to_numpy(dtype=bool)
+    if column.dtype == object:
+        column = column.where(column.notna(), "").astype(str)
+    return column.str.lstrip().str.startswith("=").fillna(False).to_numpy(dtype=bool)
 
 
 def _number_cells(column: pd.Series, unit_words: Mapping[str, str], unit: str,
@@ -1562,6 +1563,16 @@ def _read_containers(column: pd.Series, label, skip: np.ndarray, issues: _Issues
                      notes: list[str]) -> None:
     text, blank = _text_cells(column)
     issues.caution(np.flatnonzero(blank & ~skip), label, "no container identifier")
+    filled = text[~blank]
+    try:
+        import pyarrow as pa
+        import pyarrow.compute as pc
+
+        unique = pc.count_distinct(pa.array(filled.array)).as_py() == len(filled)
+    except (ImportError, TypeError, ValueError, AttributeError):  # pragma: no cover
+        unique = not filled.duplicated().any()
+    if unique:
+        return
     repeated = text.duplicated(keep=False).to_numpy() & ~blank
     if repeated.any():
         names = pd.unique(text[repeated])
