@@ -29,6 +29,10 @@ column                       content
                              Cells hold plain numbers; a cell may repeat the header's
                              unit ("38 degC" under ``temperature_C``) but never
                              another one.
+``temperature``              Without a unit in the header, every cell gives its own
+                             ("38 degC", "100 degF", "311 K"); a cell without one is
+                             refused for its row, naming the column. The same holds
+                             for ``pressure`` ("95 kPa") and ``elevation`` ("1200 ft").
 ``temperature_low_<unit>``   Optional range instead of, or beside, the temperature.
 ``temperature_high_<unit>``  The worst case uses the high end.
 ``fill_percent``             Liquid level, 0-100 % (checked, passed through; the
@@ -49,7 +53,11 @@ A row's exposure limits apply to the total vapour of its liquid (for a mixture,
 enter the limit meant for the mixture, for instance its lowest component limit).
 A cell holding a formula (text beginning with "=") is never evaluated: in a column
 the screening reads it makes the row an error; elsewhere it is a caution. Files are
-CSV in UTF-8 (`read_inventory`) or .xlsx workbooks, at most `MAX_FILE_BYTES`.
+CSV in UTF-8, UTF-16 or UTF-32 (`read_inventory`) or .xlsx workbooks, at most
+`MAX_FILE_BYTES` unless a larger limit is given (the command line's ``--max-size``,
+`LOCAL_FILE_BYTES` by default). `write_inventory_csv` writes the table with the
+cautions as leading "#" comment lines; `inventory_summary_text` is the terminal
+summary.
 
 Output columns
 --------------
@@ -213,6 +221,13 @@ _BASIS_WORDS = {
     "w/w": "mass", "volume": "volume", "vol": "volume", "vol%": "volume", "v/v": "volume",
 }
 _TEMPERATURE_BASES = ("temperature", "temperature_low", "temperature_high")
+#: The "unit" of a column whose header names none: every cell gives its own.
+_UNIT_IN_CELL = "in each cell"
+#: Kinds of `estimator.units` and header examples for such columns.
+_CELL_KINDS = {"temperature": ("temperature", "temperature_C"),
+               "temperature_low": ("temperature", "temperature_low_C"),
+               "temperature_high": ("temperature", "temperature_high_C"),
+               "pressure": ("pressure", "pressure_kPa"), "elevation": ("length", "elevation_m")}
 
 
 def _known_columns() -> tuple[str, ...]:
@@ -939,7 +954,6 @@ def _resolve_columns(frame: pd.DataFrame) -> _Columns:
     roles: dict[str, object] = {}
     units: dict[str, str] = {}
     unknown = []
-    unitless = []
     for label, key in normalised.items():
         if key in ("container", "liquid", "basis", "fill_percent", "limit_source"):
             roles[key] = label
@@ -953,9 +967,9 @@ def _resolve_columns(frame: pd.DataFrame) -> _Columns:
             role = "elevation"
         elif base in _LIMIT_KINDS and unit == "ppm":
             role = base
+        elif key in _TEMPERATURE_BASES or key in ("pressure", "elevation"):
+            role, unit = key, _UNIT_IN_CELL   # each cell carries its own unit
         else:
-            if key in _TEMPERATURE_BASES or key in ("pressure", "elevation"):
-                unitless.append(str(label).strip())
             unknown.append(label)
             continue
         if role in roles:
@@ -964,11 +978,6 @@ def _resolve_columns(frame: pd.DataFrame) -> _Columns:
                              "column, in one unit")
         roles[role] = label
         units[role] = unit
-    if unitless:
-        raise InputError("columns", f"the header {unitless[0]!r} does not say its unit; "
-                         "put the unit in the name: temperature_C, temperature_F or "
-                         "temperature_K; pressure_kPa (absolute), pressure_bar, pressure_psia "
-                         "or pressure_Pa; elevation_m or elevation_ft")
     present = [str(label).strip() for label in labels]
     missing = [r for r in ("container", "liquid") if r not in roles]
     if missing:
@@ -1086,6 +1095,47 @@ def _number_cells(column: pd.Series, unit_words: Mapping[str, str], unit: str,
     parsed = [_parse_text_number(raw[i], unit_words, unit, label) for i in first]
     numbers = np.array([p[0] for p in parsed], dtype=float)
     problems = np.array([p[1] for p in parsed], dtype=object)
+    values[look] = numbers[codes]
+    bad = problems[codes] != ""
+    return values, blank, (look[bad], problems[codes][bad])
+
+
+def _unit_cells(column: pd.Series, role: str, label
+                ) -> tuple[np.ndarray, np.ndarray, tuple[np.ndarray, np.ndarray]]:
+    """Quantities of a column whose header names no unit, each cell with its own, in SI.
+
+    Every distinct cell is converted once (`estimator.units.parse_quantity`); a
+    number without a unit is refused for its row, naming the column.
+    """
+    from .units import parse_quantity
+
+    kind, example = _CELL_KINDS[role]
+    n = len(column)
+    blank = _blank_cells(column)
+    values = np.full(n, np.nan)
+    look = np.flatnonzero(~blank)
+    if look.size == 0:
+        return values, blank, (np.empty(0, dtype=np.intp), np.empty(0, dtype=object))
+    raw = column.to_numpy(dtype=object)[look]
+    codes, distinct = pd.factorize(pd.Series(raw, dtype=object).map(repr))
+    first = np.unique(codes, return_index=True)[1]
+    numbers, problems = [], []
+    for cell in raw[first]:
+        text = cell.strip() if isinstance(cell, str) else cell
+        if isinstance(text, str) and text.startswith("="):
+            numbers.append(math.nan)
+            problems.append(f"holds a formula ({text[:40]!r}); formulas are not evaluated: "
+                            "enter the value itself")
+            continue
+        try:
+            numbers.append(parse_quantity(text, kind, str(label).strip()))
+            problems.append("")
+        except InputError as exc:
+            numbers.append(math.nan)
+            hint = (f"; or name the unit in the header, for example {example!r}"
+                    if "no unit" in exc.reason else "")
+            problems.append(exc.reason + hint)
+    numbers, problems = np.array(numbers, dtype=float), np.array(problems, dtype=object)
     values[look] = numbers[codes]
     bad = problems[codes] != ""
     return values, blank, (look[bad], problems[codes][bad])
@@ -1609,8 +1659,12 @@ def _read_temperatures(frame, roles, units, issues: _Issues, skip: np.ndarray):
         if base not in roles:
             continue
         label, unit = roles[base], units[base]
-        values, blank, (bad, texts) = _number_cells(frame[label], _TEMPERATURE_WORDS, unit,
-                                                    _TEMPERATURE_SCALES[unit])
+        if unit == _UNIT_IN_CELL:
+            unit = "k"
+            values, blank, (bad, texts) = _unit_cells(frame[label], base, label)
+        else:
+            values, blank, (bad, texts) = _number_cells(frame[label], _TEMPERATURE_WORDS,
+                                                        unit, _TEMPERATURE_SCALES[unit])
         issues.error(bad, label, texts)
         unreadable[bad] = True
         columns[base] = _TemperatureColumn(label, unit, values, _to_kelvin(values, unit),
@@ -1669,9 +1723,13 @@ def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) 
     given = np.zeros(n, dtype=bool)
     if "pressure" in roles:
         label, unit = roles["pressure"], units["pressure"]
-        words = {u: u for u in _PRESSURE_FACTORS} | {"psi": "psia"}
-        values, blank, (bad, texts) = _number_cells(frame[label], words, unit,
-                                                    _PRESSURE_LABELS[unit])
+        if unit == _UNIT_IN_CELL:
+            unit = "pa"
+            values, blank, (bad, texts) = _unit_cells(frame[label], "pressure", label)
+        else:
+            words = {u: u for u in _PRESSURE_FACTORS} | {"psi": "psia"}
+            values, blank, (bad, texts) = _number_cells(frame[label], words, unit,
+                                                        _PRESSURE_LABELS[unit])
         issues.error(bad, label, texts)
         pascal = values * _PRESSURE_FACTORS[unit]
         with np.errstate(invalid="ignore"):
@@ -1685,7 +1743,12 @@ def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) 
         given = ~blank
     if "elevation" in roles:
         label, unit = roles["elevation"], units["elevation"]
-        values, blank, (bad, texts) = _number_cells(frame[label], {unit: unit}, unit, unit)
+        if unit == _UNIT_IN_CELL:
+            unit = "m"
+            values, blank, (bad, texts) = _unit_cells(frame[label], "elevation", label)
+        else:
+            values, blank, (bad, texts) = _number_cells(frame[label], {unit: unit}, unit,
+                                                        unit)
         issues.error(bad, label, texts)
         metres = values * _ELEVATION_FACTORS[unit]
         with np.errstate(invalid="ignore"):

@@ -420,9 +420,10 @@ def test_empty_header_only_and_missing_columns(tmp_path):
     with pytest.raises(InputError, match="no temperature column.*rename 'temp_c'"):
         screen_inventory(no_temperature)
     unitless = pd.DataFrame({"container": ["A"], "liquid": ["toluene"], "temperature": [20]})
-    with pytest.raises(InputError, match="does not say its unit") as info:
-        screen_inventory(unitless)
-    assert info.value.field == "columns"
+    row = _screen(unitless).table.iloc[0]       # refused for the row, naming the column
+    assert row["status"] == "error"
+    assert "line 2, column 'temperature': 20 has no unit" in row["reason"]
+    assert "temperature_C" in row["reason"]
     clash = pd.DataFrame({"container": ["A"], "liquid": ["toluene"], "temperature_C": [20],
                           "Status": ["in use"]})
     with pytest.raises(InputError, match="'Status' is a column the screening writes"):
@@ -748,3 +749,26 @@ def test_distinct_blends_each_equal_the_single_row_model():
     assert table["status"].iat[6] == "error" and "20 points short" in table["reason"].iat[6]
     assert result.summary.liquids == len({(liquids[i], bases[i]) for i in range(300)} - {
         (liquids[6], bases[6])})
+
+
+def test_cells_carry_their_unit_under_a_header_without_one():
+    """Headers without a unit take a unit in every cell; a bare number is refused for its row."""
+    frame = pd.DataFrame({
+        "container": list("ABCDE"), "liquid": ["toluene"] * 5,
+        "temperature": ["77 degF", "298.15 K", "25", "25 degC", "25 kg"],
+        "pressure": ["95 kPa", "", "", "1 atm", ""],
+        "elevation": ["", "1200 ft", "", "", ""],
+    })
+    table = _screen(frame).table
+    assert list(table["status"]) == ["ok", "ok", "error", "ok", "error"]
+    # 77 degF = 25 degC exactly (NIST SP 811); 1200 ft = 365.76 m (international foot)
+    assert table["headspace_ppm"].iat[0] == pytest.approx(
+        headspace("toluene", 298.15, 95000.0).total_ppm, rel=1e-12)
+    assert table["vapor_space_pressure_pa"].iat[1] == pytest.approx(
+        barometric_pressure(365.76), rel=1e-12)
+    assert table["vapor_space_pressure_pa"].iat[3] == pytest.approx(101325.0)
+    assert "column 'temperature': '25' has no unit" in table["reason"].iat[2]
+    assert "column 'temperature'" in table["reason"].iat[4]
+    numbers_header = pd.DataFrame({"container": ["A"], "liquid": ["toluene"],
+                                   "temperature_C": ["25 degC"]})
+    assert _screen(numbers_header).table["status"].iat[0] == "ok"   # header unit repeated
