@@ -604,7 +604,11 @@ def headspace_arrays(liquids, temperatures, pressure=STANDARD_ATMOSPHERE, *,
             raise InputError("liquids", f"got {keys.size} liquids for {m} temperatures; "
                              "give one liquid, or one per temperature")
         codes, uniques = pd.factorize(keys)
-    order, edges = _group_order(codes, len(uniques))
+    texts = [u.strip() if isinstance(u, str) else "" for u in uniques]
+    sets, text_set, text_composition, _, _ = _resolve_liquids(texts, [basis] * len(texts))
+    row_set = np.where(codes >= 0, text_set[np.maximum(codes, 0)], -1)
+    row_composition = text_composition[np.maximum(codes, 0)]
+    order, edges = _group_order(row_set, len(sets))
     t_sorted = t[order]
     scalar_pressure = np.ndim(pressure) == 0
     p_sorted = float(pressure) if scalar_pressure else p[order]
@@ -613,30 +617,25 @@ def headspace_arrays(liquids, temperatures, pressure=STANDARD_ATMOSPHERE, *,
         inside = ((np.asarray(p_sorted) >= _PRESSURE_RANGE[0])
                   & (np.asarray(p_sorted) <= _PRESSURE_RANGE[1]))
     problem[np.broadcast_to(~inside, t.shape)] = 6
-    problem[:edges[0]] = 5  # rows without a liquid (None) sort first
+    problem[:edges[0]] = 5  # rows without a usable liquid sort first
     out = {name: np.full(m, np.nan) for name in
            ("total_volume_fraction", "mg_per_m3", "percent_lfl", "oxygen_percent")}
     flammability = np.full(m, -1, dtype=np.int8)
     boiling = np.zeros(m, dtype=bool)
     extrapolated = np.zeros(m, dtype=bool)
-    for k, text in enumerate(uniques):
+    composition_sorted = row_composition[order]
+    for k, component_set in enumerate(sets):
         rows = slice(edges[k], edges[k + 1])
-        try:
-            liq = parse_liquid(text, basis)
-        except InputError:
-            problem[rows] = 5
-            continue
+        liq = component_set.liquid
         block = problem[rows]
         codes_t = _temperature_problems(_bounds(liq), t_sorted[rows])
         np.copyto(block, codes_t, where=block == 0)
-        if not block.any():
-            good = rows
-        else:
-            good = edges[k] + np.flatnonzero(block == 0)
-            if good.size == 0:
-                continue
+        good = edges[k] + np.flatnonzero(block == 0)
+        if good.size == 0:
+            continue
+        weights = None if liq.is_pure else component_set.fractions[composition_sorted[good]].T
         res = _evaluate_liquid(liq, t_sorted[good],
-                               p_sorted if scalar_pressure else p_sorted[good])
+                               p_sorted if scalar_pressure else p_sorted[good], weights)
         out["total_volume_fraction"][good] = res.total_volume_fraction
         out["mg_per_m3"][good] = res.mg_per_m3
         out["percent_lfl"][good] = res.percent_lfl
@@ -1851,29 +1850,25 @@ def _mixture_fractions(amounts: np.ndarray, components, basis: str):
     return moles / moles.sum(axis=1, keepdims=True), problem, note
 
 
-def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
-    """Resolve each distinct (liquid, basis) text once; group rows by component set.
+def _resolve_liquids(texts, basis_words):
+    """Resolve distinct (liquid text, basis word) pairs into component sets.
 
     Mixture texts are split once each; their components are looked up once per
     name, and the compositions of each component set are converted to mole
-    fractions in one array operation. Returns the component sets, the set of each
-    row (-1 where unusable) and the row's composition within its set.
+    fractions in one array operation (`_mixture_fractions`).
+
+    Returns
+    -------
+    sets : list of _ComponentSet
+    pair_set, pair_composition : numpy.ndarray
+        The set of each pair (-1 where unusable) and its composition in the set.
+    pair_problem : list
+        None, or (message, where) with where "liquid", "basis" or None (a formula,
+        reported elsewhere).
+    pair_note : numpy.ndarray
+        A note on the composition ("" if none), such as its scaling to 100 %.
     """
-    n = len(frame)
-    liquid_label = roles["liquid"]
-    liquid_text, _ = _text_cells(frame[liquid_label])
-    if "basis" in roles:
-        basis_text, _ = _text_cells(frame[roles["basis"]])
-        basis_key = basis_text.str.lower().str.replace(" ", "")
-    else:
-        basis_key = _same_text(n, "")
-    liquid_codes, liquid_uniques = pd.factorize(liquid_text)
-    liquid_uniques, basis_uniques = list(liquid_uniques), None
-    basis_codes, basis_uniques = pd.factorize(basis_key)
-    basis_uniques = list(basis_uniques)
-    width = len(basis_uniques) + 1
-    pair_codes, pair_uniques = pd.factorize(liquid_codes * width + basis_codes)
-    pairs = len(pair_uniques)
+    pairs = len(texts)
     pair_problem: list[tuple[str, object] | None] = [None] * pairs
     pair_note = _same_text(pairs, "")
     pair_set = np.full(pairs, -1, dtype=np.intp)
@@ -1881,65 +1876,62 @@ def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
     names: dict[str, object] = {}
 
     def component(name: str):
-        key = name
-        if key not in names:
+        if name not in names:
             try:
-                names[key] = make_liquid(name, field="liquid component").components[0]
+                names[name] = make_liquid(name, field="liquid component").components[0]
             except InputError as exc:
-                names[key] = exc
-        return names[key]
+                names[name] = exc
+        return names[name]
 
-    pending: dict[tuple, list] = defaultdict(list)  # (keys, basis) -> [(pair, amounts)]
-    sets: list[_ComponentSet] = []
-    set_index: dict[tuple, int] = {}
-    for k, code in enumerate(pair_uniques):
-        text = liquid_uniques[code // width]
-        basis_word = basis_uniques[code % width]
+    pending: dict[tuple, list] = defaultdict(list)  # (keys, basis) -> [(pair, amounts, found)]
+    for k, (text, basis_word) in enumerate(zip(texts, basis_words)):
         if text.startswith("=") or basis_word.startswith("="):
             pair_problem[k] = ("", None)  # reported as a formula
             continue
         basis = _BASIS_WORDS.get(basis_word) if basis_word else "mass"
         if not text:
-            pair_problem[k] = (_NO_LIQUID, liquid_label)
+            pair_problem[k] = (_NO_LIQUID, "liquid")
             continue
         if basis is None:
             pair_problem[k] = (f"{basis_word!r} is not a basis; use mole, mass or volume "
-                               "(blank means mass)", roles["basis"])
+                               "(blank means mass)", "basis")
             continue
         if "%" not in text:
             found = component(text)
             if isinstance(found, InputError):
-                pair_problem[k] = (found.reason, liquid_label)
+                pair_problem[k] = (found.reason, "liquid")
                 continue
-            pending[((found.key,), "mole")].append((k, np.ones(1), found))
+            pending[((found.key,), "mole")].append((k, np.ones(1), (found,)))
             continue
         parts = _mixture_parts(text)
         if parts is None:
             pair_problem[k] = (f"{text!r} cannot be read as a mixture: write each component "
                                "as a name followed by its percentage, separated by commas, "
-                               "for example 'toluene 60%, o-xylene 40%'", liquid_label)
+                               "for example 'toluene 60%, o-xylene 40%'", "liquid")
             continue
         lowered = [name.lower() for name, _ in parts]
         if len(set(lowered)) != len(lowered):
             pair_problem[k] = ("a component is listed twice; give each component once",
-                               liquid_label)
+                               "liquid")
             continue
         found = [component(name) for name, _ in parts]
         failed = next((f for f in found if isinstance(f, InputError)), None)
         if failed is not None:
-            pair_problem[k] = (failed.reason, liquid_label)
+            pair_problem[k] = (failed.reason, "liquid")
             continue
         keys = tuple(c.key for c in found)
         if len(set(keys)) != len(keys):
             pair_problem[k] = ("a component is listed twice (perhaps under two names)",
-                               liquid_label)
+                               "liquid")
             continue
         pending[(keys, basis)].append((k, np.array([a for _, a in parts]), tuple(found)))
+    sets: list[_ComponentSet] = []
+    set_index: dict[tuple, int] = {}
     for (keys, basis), members in pending.items():
-        amounts = np.vstack([m[1] for m in members])
-        first = members[0][2]
-        components = (first,) if not isinstance(first, tuple) else first
-        x, problems, notes = _mixture_fractions(amounts, components, basis)
+        components = members[0][2]
+        members_pairs = np.array([m[0] for m in members])
+        x, problems, notes = _mixture_fractions(np.vstack([m[1] for m in members]),
+                                                components, basis)
         if keys not in set_index:
             set_index[keys] = len(sets)
             liquid = make_liquid(components[0]) if len(components) == 1 else Liquid(
@@ -1950,22 +1942,47 @@ def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
         good = problems == ""
         sets[s_id] = _ComponentSet(sets[s_id].liquid,
                                    np.vstack([sets[s_id].fractions, x[good]]))
-        good_pairs = np.array([m[0] for m in members])[good]
-        pair_set[good_pairs] = s_id
-        pair_composition[good_pairs] = offset + np.arange(good_pairs.size)
-        pair_note[good_pairs] = notes[good]
-        for m, problem in zip(np.array([m[0] for m in members])[~good], problems[~good]):
-            pair_problem[m] = (problem, liquid_label)
+        pair_set[members_pairs[good]] = s_id
+        pair_composition[members_pairs[good]] = offset + np.arange(int(good.sum()))
+        pair_note[members_pairs[good]] = notes[good]
+        for m, problem in zip(members_pairs[~good], problems[~good]):
+            pair_problem[m] = (problem, "liquid")
+    return sets, pair_set, pair_composition, pair_problem, pair_note
+
+
+def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
+    """Resolve each distinct (liquid, basis) text once (`_resolve_liquids`).
+
+    Returns the component sets, the set of each row (-1 where unusable) and the
+    row's composition within its set.
+    """
+    n = len(frame)
+    liquid_label = roles["liquid"]
+    liquid_text, _ = _text_cells(frame[liquid_label])
+    if "basis" in roles:
+        basis_text, _ = _text_cells(frame[roles["basis"]])
+        basis_key = basis_text.str.lower().str.replace(" ", "")
+    else:
+        basis_key = _same_text(n, "")
+    liquid_codes, liquid_uniques = pd.factorize(liquid_text)
+    basis_codes, basis_uniques = pd.factorize(basis_key)
+    width = len(basis_uniques) + 1
+    pair_codes, pair_uniques = pd.factorize(liquid_codes * width + basis_codes)
+    liquid_uniques, basis_uniques = list(liquid_uniques), list(basis_uniques)
+    sets, pair_set, pair_composition, pair_problem, pair_note = _resolve_liquids(
+        [liquid_uniques[code // width] for code in pair_uniques],
+        [basis_uniques[code % width] for code in pair_uniques])
+    labels = {"liquid": liquid_label, "basis": roles.get("basis")}
     # Rows of each pair with a problem or a note: one array call each.
-    order, edges = _group_order(pair_codes, pairs)
-    for k in range(pairs):
+    order, edges = _group_order(pair_codes, len(pair_uniques))
+    for k in range(len(pair_uniques)):
         if pair_problem[k] is None and not pair_note[k]:
             continue
         rows = np.sort(order[edges[k]:edges[k + 1]])
         if pair_problem[k] is not None:
-            problem, label = pair_problem[k]
+            problem, where = pair_problem[k]
             if problem:
-                issues.error(rows[~skip[rows]], label, problem)
+                issues.error(rows[~skip[rows]], labels[where], problem)
         else:
             issues.caution(rows, liquid_label, pair_note[k])
     return sets, pair_set[pair_codes], pair_composition[pair_codes]

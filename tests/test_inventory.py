@@ -745,6 +745,11 @@ def test_distinct_blends_each_equal_the_single_row_model():
         spec = {k: v / total for k, v in spec.items()}
         single = headspace(spec, frame["temperature_C"].iat[i] + 273.15, basis=bases[i])
         assert table["headspace_ppm"].iat[i] == pytest.approx(single.total_ppm, rel=1e-12)
+    mass_rows = np.flatnonzero((bases == "mass") & (np.arange(300) > 7))
+    core = headspace_arrays([liquids[i] for i in mass_rows],
+                            frame["temperature_C"].to_numpy()[mass_rows] + 273.15)
+    np.testing.assert_allclose(core.ppm, table["headspace_ppm"].to_numpy()[mass_rows],
+                               rtol=1e-12)
     assert table["status"].iat[5] == "warning" and "scaled to 100 %" in table["reason"].iat[5]
     assert table["status"].iat[6] == "error" and "20 points short" in table["reason"].iat[6]
     assert result.summary.liquids == len({(liquids[i], bases[i]) for i in range(300)} - {
