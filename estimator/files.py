@@ -31,7 +31,6 @@ __all__ = [
     "clear_stale_partials",
     "partial_name_pattern",
     "neutralise_cell",
-    "neutralise_series",
     "neutralise_arrow",
     "parse_size",
     "PARTIAL_MARK",
@@ -213,36 +212,6 @@ def neutralise_cell(value):
             and not _PLAIN_NUMBER.fullmatch(value)):
         return "'" + value
     return value
-
-
-def neutralise_series(column):
-    """`neutralise_cell` over a pandas Series of text, vectorised; other cells unchanged.
-
-    Parameters
-    ----------
-    column : pandas.Series
-        Text (object or string dtype); missing cells and non-text cells stay as
-        they are.
-
-    Returns
-    -------
-    pandas.Series
-    """
-    import pandas as pd
-
-    text = column.astype("string") if column.dtype == object else column
-    starts = text.str.contains(_FORMULA_PATTERN, regex=True, na=False)
-    if not starts.any():
-        return column
-    if column.dtype == object:
-        is_text = column.map(type).to_numpy() == str
-        starts &= pd.Series(is_text, index=column.index)
-    risky = starts & ~text.str.contains(_NUMBER_PATTERN, regex=True, na=False)
-    if not risky.any():
-        return column
-    out = column.copy()
-    out[risky] = "'" + text[risky].astype(object if column.dtype == object else text.dtype)
-    return out
 
 
 def neutralise_arrow(array):

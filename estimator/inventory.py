@@ -319,12 +319,6 @@ def parse_liquid(text: str, basis: str = "mass", field: str = "liquid") -> Liqui
     return make_liquid(dict(parts), basis, field=field)
 
 
-def _liquid_key(liq: Liquid) -> tuple:
-    return (tuple(c.key for c in liq.components),
-            tuple(np.round(liq.mole_fractions, 12)),
-            tuple(np.round(liq.activity_coefficients, 12)))
-
-
 @dataclass(frozen=True)
 class _Bounds:
     melting: float
@@ -2281,7 +2275,7 @@ def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
     Text cells (and headers) beginning with =, +, -, @, a tab or a carriage return
     are prefixed with a single quote so that a spreadsheet shows them as text
     instead of running them as formulas; numbers, and text that is a plain number
-    such as "-5", are left alone (`estimator.files.neutralise_series`). Text cells
+    such as "-5", are left alone (`estimator.files.neutralise_arrow`). Text cells
     and headers are always quoted. The cautions come first, each on a line of its
     own beginning with "# ", so that ``pandas.read_csv(path, comment="#")`` (or any
     CSV reader told to skip comment lines) reads the table back, the header being
