@@ -774,7 +774,10 @@ def _check_decodes(path: Path, codec: str, skip: int, label: str) -> str:
                 data = tail + block
                 bad = len(tail) + exc.start
                 line = lines_before + data[:bad].count(newline) + 1
-                if label == "UTF-8":
+                if label == "UTF-8" and b"\x00" in data[:4096] + tail:
+                    advice = ("It holds zero bytes, as UTF-16 or UTF-32 text without a "
+                              "byte-order mark does")
+                elif label == "UTF-8":
                     advice = ("The file is probably saved in a legacy encoding such as "
                               "Latin-1 or Windows-1252")
                 else:

@@ -665,6 +665,10 @@ def test_broken_utf16_is_named_as_utf16(tmp_path):
     with pytest.raises(InputError, match="not UTF-16 text") as info:
         read_inventory(path)
     assert "Latin-1" not in str(info.value) and "line 3" in str(info.value)
+    wide = tmp_path / "wide.csv"   # UTF-16 without a mark, text beyond ASCII
+    wide.write_bytes("contenant;liquide\nCuve n°2 – été;toluène\n".encode("utf-16-le"))
+    with pytest.raises(InputError, match="UTF-16 or UTF-32 text without a byte-order mark"):
+        read_inventory(wide)
 
 
 def test_size_option_and_size_text(tmp_path, capsys, monkeypatch):
