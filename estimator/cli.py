@@ -368,7 +368,7 @@ def build_parser() -> argparse.ArgumentParser:
 
     p = sub.add_parser("inventory", help="screen an inventory file of tanks and containers",
                        description="Screen every row of an inventory (CSV or Excel): "
-                                   "headspace, %%LFL and ratio to each limit, sorted by "
+                                   "headspace, %LFL and ratio to each limit, sorted by "
                                    "concern. Bad rows are reported, never dropped.")
     p.add_argument("file", help="inventory .csv or .xlsx")
     p.add_argument("--pressure", default="101325 Pa", help="absolute pressure for all rows")
