@@ -20,6 +20,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 BENCHMARKS = [
     "bench_vapor_pressure",
     "bench_inventory",
+    "bench_inventory_cli",
     "bench_monte_carlo",
     "bench_ui",
     "bench_import",

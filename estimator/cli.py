@@ -1,7 +1,8 @@
 """The `ullage` command line.
 
 Results go to standard output, errors to standard error. Exit codes: 0 done,
-1 a limit or alarm exceeded (only with --signal-exceedance), 2 bad input.
+1 a limit or alarm exceeded (only with --signal-exceedance), 2 bad input or items
+(scenario items, inventory rows) that could not be computed.
 """
 
 from __future__ import annotations
@@ -296,46 +297,27 @@ def _cmd_sweep(args) -> int:
 
 
 def _cmd_inventory(args) -> int:
-    from .inventory import screen_inventory, sorted_by_concern, write_inventory_csv
-    from .limits import format_ppm
+    from .files import parse_size
+    from .inventory import inventory_summary_text, screen_inventory, write_inventory_csv
     from .units import parse_quantity
 
     pressure = parse_quantity(args.pressure, "pressure", "--pressure")
-    result = screen_inventory(args.file, pressure=pressure)
+    if args.top < 0:
+        raise _BadInput("--top", "give a number of rows, 0 or more")
+    result = screen_inventory(args.file, pressure=pressure,
+                              max_bytes=parse_size(args.max_size, "--max-size"))
     if args.output:
         write_inventory_csv(result, args.output)
         print(f"wrote {args.output}", file=sys.stderr)
-    table = sorted_by_concern(result.table)
-    lines = [f"{'rank':>4}  {'line':>4}  {'container':<22} {'liquid':<26} {'worst ppm':>10} "
-             f"{'% LFL':>7} {'O2 %':>5} {'concern':>8}  status"]
-
-    def cell(value, fmt):
-        try:
-            number = float(value)
-        except (TypeError, ValueError):
-            return "-"
-        return "-" if number != number else fmt(number)
-
-    for _, row in table.iterrows():
-        rank = cell(row.get("concern_rank"), lambda v: f"{v:.0f}")
-        lines.append(
-            f"{rank:>4}  {row['source_line']:>4}  {str(row.get('container', ''))[:22]:<22} "
-            f"{str(row.get('liquid', ''))[:26]:<26} "
-            f"{cell(row['worst_case_ppm'], format_ppm):>10} "
-            f"{cell(row['worst_case_percent_lfl'], lambda v: f'{v:.3g}'):>7} "
-            f"{cell(row['worst_case_oxygen_percent'], lambda v: f'{v:.3g}'):>5} "
-            f"{cell(row['concern'], lambda v: f'{v:.3g}'):>8}  "
-            f"{'computed' if row['status'] == 'ok' else row['status']}")
-        if row["status"] != "ok" and row.get("reason"):
-            lines.append(textwrap.fill(str(row["reason"]), width=78, initial_indent="        ",
-                                       subsequent_indent="        "))
-    counts = ", ".join(f"{v} {k}" for k, v in result.summary.counts.items())
-    lines += ["", f"{result.summary.rows} row(s): {counts}; {result.summary.at_or_above_alarm} "
-              "at or above a limit or alarm in the worst case (concern >= 1)."]
-    lines += [f"note: {w}" for w in result.warnings]
-    print("\n".join(lines))
+    print(inventory_summary_text(result, top=args.top, output=args.output))
     print(_cautions_block())
-    return EXIT_OK
+    errors = result.summary.counts.get("error", 0)
+    if errors:
+        print(f"ullage: {errors} row(s) could not be computed; they are listed above"
+              + (" and kept in the output file" if args.output else ""), file=sys.stderr)
+        return EXIT_BAD_INPUT
+    return EXIT_LIMIT if args.signal_exceedance and result.summary.at_or_above_alarm \
+        else EXIT_OK
 
 
 def _cmd_demo(args) -> int:
@@ -404,7 +386,7 @@ def build_parser() -> argparse.ArgumentParser:
                     "with the limits you enter. Every result is a screening "
                     "estimate: measure before entry.",
         epilog="Exit codes: 0 done, 1 a limit exceeded (with --signal-exceedance), "
-               "2 bad input.")
+               "2 bad input, or items or rows that could not be computed.")
     parser.add_argument("--version", action="version", version=f"ullage {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
 
@@ -445,11 +427,17 @@ def build_parser() -> argparse.ArgumentParser:
 
     p = sub.add_parser("inventory", help="screen an inventory file of tanks and containers",
                        description="Screen every row of an inventory (CSV or Excel): "
-                                   "headspace, %%LFL and ratio to each limit, sorted by "
+                                   "headspace, %LFL and ratio to each limit, sorted by "
                                    "concern. Bad rows are reported, never dropped.")
     p.add_argument("file", help="inventory .csv or .xlsx")
     p.add_argument("--pressure", default="101325 Pa", help="absolute pressure for all rows")
-    p.add_argument("--output", "-o", help="write the screened table as CSV")
+    p.add_argument("--output", "-o", help="write the screened table (every row) as CSV")
+    p.add_argument("--top", type=int, default=10, metavar="N",
+                   help="rows of highest concern shown in the summary (default 10)")
+    p.add_argument("--max-size", default="200 MB",
+                   help="largest file read, with its unit (default 200 MB)")
+    p.add_argument("--signal-exceedance", action="store_true",
+                   help="exit with 1 when a row reaches a limit or alarm (concern >= 1)")
     p.set_defaults(func=_cmd_inventory)
 
     p = sub.add_parser("substances", help="list the bundled substances or show one",

@@ -29,6 +29,10 @@ column                       content
                              Cells hold plain numbers; a cell may repeat the header's
                              unit ("38 degC" under ``temperature_C``) but never
                              another one.
+``temperature``              Without a unit in the header, every cell gives its own
+                             ("38 degC", "100 degF", "311 K"); a cell without one is
+                             refused for its row, naming the column. The same holds
+                             for ``pressure`` ("95 kPa") and ``elevation`` ("1200 ft").
 ``temperature_low_<unit>``   Optional range instead of, or beside, the temperature.
 ``temperature_high_<unit>``  The worst case uses the high end.
 ``fill_percent``             Liquid level, 0-100 % (checked, passed through; the
@@ -49,7 +53,11 @@ A row's exposure limits apply to the total vapour of its liquid (for a mixture,
 enter the limit meant for the mixture, for instance its lowest component limit).
 A cell holding a formula (text beginning with "=") is never evaluated: in a column
 the screening reads it makes the row an error; elsewhere it is a caution. Files are
-CSV in UTF-8 (`read_inventory`) or .xlsx workbooks, at most `MAX_FILE_BYTES`.
+CSV in UTF-8, UTF-16 or UTF-32 (`read_inventory`) or .xlsx workbooks, at most
+`MAX_FILE_BYTES` unless a larger limit is given (the command line's ``--max-size``,
+`LOCAL_FILE_BYTES` by default). `write_inventory_csv` writes the table with the
+cautions as leading "#" comment lines; `inventory_summary_text` is the terminal
+summary.
 
 Output columns
 --------------
@@ -92,14 +100,12 @@ alarm levels: US OSHA 29 CFR 1910.146(b), hazardous atmosphere.
 from __future__ import annotations
 
 import codecs
-import contextlib
 import csv
 import difflib
 import io
 import math
 import os
 import re
-import tempfile
 import warnings
 from collections import defaultdict
 from collections.abc import Mapping
@@ -122,6 +128,7 @@ from .constants import (
     ZERO_CELSIUS,
 )
 from .errors import InputError, UllageWarning
+from .files import atomic_writer, neutralise_arrow, neutralise_cell
 from .headspace import _check_pressure, barometric_pressure, le_chatelier
 from .limits import FlammabilityAlarms
 from .mixtures import Liquid, liquid as make_liquid
@@ -132,6 +139,9 @@ __all__ = [
     "read_inventory",
     "write_inventory_csv",
     "sorted_by_concern",
+    "inventory_summary_text",
+    "concern_counts",
+    "CONCERN_BANDS",
     "headspace_arrays",
     "parse_liquid",
     "HeadspaceArrays",
@@ -139,13 +149,22 @@ __all__ = [
     "InventorySummary",
     "OUTPUT_COLUMNS",
     "MAX_FILE_BYTES",
+    "LOCAL_FILE_BYTES",
     "MAX_ROWS",
     "PROBLEMS",
     "FLAMMABILITY_CODES",
 ]
 
-#: Largest inventory file read. [bytes] 20 MB holds some 300 000 typical rows.
+#: Largest inventory file read by default (the Python API and uploads). [bytes]
+#: 20 MB holds some 300 000 typical rows; give `max_bytes` to read larger files.
 MAX_FILE_BYTES = 20_000_000
+
+#: Default limit of the command line for local files (``--max-size``). [bytes]
+#: 200 MB holds some 4 million typical rows, screened in about 2 GiB of memory.
+LOCAL_FILE_BYTES = 200_000_000
+
+#: Data rows parsed per chunk when reading a CSV file (bounds the parser's memory).
+_READ_CHUNK_ROWS = 200_000
 
 #: Largest number of data rows read from a workbook (a guard against huge sheets).
 MAX_ROWS = 1_000_000
@@ -202,6 +221,13 @@ _BASIS_WORDS = {
     "w/w": "mass", "volume": "volume", "vol": "volume", "vol%": "volume", "v/v": "volume",
 }
 _TEMPERATURE_BASES = ("temperature", "temperature_low", "temperature_high")
+#: The "unit" of a column whose header names none: every cell gives its own.
+_UNIT_IN_CELL = "in each cell"
+#: Kinds of `estimator.units` and header examples for such columns.
+_CELL_KINDS = {"temperature": ("temperature", "temperature_C"),
+               "temperature_low": ("temperature", "temperature_low_C"),
+               "temperature_high": ("temperature", "temperature_high_C"),
+               "pressure": ("pressure", "pressure_kPa"), "elevation": ("length", "elevation_m")}
 
 
 def _known_columns() -> tuple[str, ...]:
@@ -291,12 +317,6 @@ def parse_liquid(text: str, basis: str = "mass", field: str = "liquid") -> Liqui
     if len(set(names)) != len(names):
         raise InputError(field, "a component is listed twice; give each component once")
     return make_liquid(dict(parts), basis, field=field)
-
-
-def _liquid_key(liq: Liquid) -> tuple:
-    return (tuple(c.key for c in liq.components),
-            tuple(np.round(liq.mole_fractions, 12)),
-            tuple(np.round(liq.activity_coefficients, 12)))
 
 
 @dataclass(frozen=True)
@@ -408,22 +428,26 @@ class _LiquidArrays:
     above_own_boiling: np.ndarray  # (n_components, m)
 
 
-def _evaluate_liquid(liq: Liquid, t: np.ndarray, pressure: np.ndarray) -> _LiquidArrays:
-    """Equilibrium headspace of one liquid at valid temperatures, as arrays.
+def _evaluate_liquid(liq: Liquid, t: np.ndarray, pressure: np.ndarray,
+                     weights: np.ndarray | None = None) -> _LiquidArrays:
+    """Equilibrium headspace of one liquid (or component set) at valid temperatures.
 
     The same equations as `estimator.headspace.headspace`: Raoult's law, vapour
     fractions over max(total vapour pressure, space pressure), Le Chatelier's rule
-    and oxygen by displacement.
+    and oxygen by displacement. `weights` gives x_i γ_i per row, shape
+    (components, rows), for compositions that differ row by row; by default the
+    liquid's own.
     """
     n = len(liq.components)
-    if n == 1:
+    if n == 1 and weights is None:
         return _evaluate_pure(liq, t, pressure)
     p_sat = np.empty((n, t.size))
     method_index = np.empty((n, t.size), dtype=np.int8)
     extrapolated = np.empty((n, t.size), dtype=bool)
     for i, component in enumerate(liq.components):
         p_sat[i], method_index[i], extrapolated[i] = _saturation_pressure(component, t)
-    weights = (liq.mole_fractions * liq.activity_coefficients)[:, None]
+    if weights is None:
+        weights = (liq.mole_fractions * liq.activity_coefficients)[:, None]
     p_i = weights * p_sat
     p_sum = p_i.sum(axis=0)
     boiling = p_sum >= pressure
@@ -585,7 +609,11 @@ def headspace_arrays(liquids, temperatures, pressure=STANDARD_ATMOSPHERE, *,
             raise InputError("liquids", f"got {keys.size} liquids for {m} temperatures; "
                              "give one liquid, or one per temperature")
         codes, uniques = pd.factorize(keys)
-    order, edges = _group_order(codes, len(uniques))
+    texts = [u.strip() if isinstance(u, str) else "" for u in uniques]
+    sets, text_set, text_composition, _, _ = _resolve_liquids(texts, [basis] * len(texts))
+    row_set = np.where(codes >= 0, text_set[np.maximum(codes, 0)], -1)
+    row_composition = text_composition[np.maximum(codes, 0)]
+    order, edges = _group_order(row_set, len(sets))
     t_sorted = t[order]
     scalar_pressure = np.ndim(pressure) == 0
     p_sorted = float(pressure) if scalar_pressure else p[order]
@@ -594,30 +622,25 @@ def headspace_arrays(liquids, temperatures, pressure=STANDARD_ATMOSPHERE, *,
         inside = ((np.asarray(p_sorted) >= _PRESSURE_RANGE[0])
                   & (np.asarray(p_sorted) <= _PRESSURE_RANGE[1]))
     problem[np.broadcast_to(~inside, t.shape)] = 6
-    problem[:edges[0]] = 5  # rows without a liquid (None) sort first
+    problem[:edges[0]] = 5  # rows without a usable liquid sort first
     out = {name: np.full(m, np.nan) for name in
            ("total_volume_fraction", "mg_per_m3", "percent_lfl", "oxygen_percent")}
     flammability = np.full(m, -1, dtype=np.int8)
     boiling = np.zeros(m, dtype=bool)
     extrapolated = np.zeros(m, dtype=bool)
-    for k, text in enumerate(uniques):
+    composition_sorted = row_composition[order]
+    for k, component_set in enumerate(sets):
         rows = slice(edges[k], edges[k + 1])
-        try:
-            liq = parse_liquid(text, basis)
-        except InputError:
-            problem[rows] = 5
-            continue
+        liq = component_set.liquid
         block = problem[rows]
         codes_t = _temperature_problems(_bounds(liq), t_sorted[rows])
         np.copyto(block, codes_t, where=block == 0)
-        if not block.any():
-            good = rows
-        else:
-            good = edges[k] + np.flatnonzero(block == 0)
-            if good.size == 0:
-                continue
+        good = edges[k] + np.flatnonzero(block == 0)
+        if good.size == 0:
+            continue
+        weights = None if liq.is_pure else component_set.fractions[composition_sorted[good]].T
         res = _evaluate_liquid(liq, t_sorted[good],
-                               p_sorted if scalar_pressure else p_sorted[good])
+                               p_sorted if scalar_pressure else p_sorted[good], weights)
         out["total_volume_fraction"][good] = res.total_volume_fraction
         out["mg_per_m3"][good] = res.mg_per_m3
         out["percent_lfl"][good] = res.percent_lfl
@@ -640,13 +663,15 @@ def _size_text(size: int) -> str:
     return f"{size / 1e6:.1f} MB" if size >= 100_000 else f"{size} bytes"
 
 
-def _too_large(name: str, size: int) -> InputError:
+def _too_large(name: str, size: int, limit: int) -> InputError:
     return InputError("file", f"{name} is {_size_text(size)}, above the "
-                      f"{_size_text(MAX_FILE_BYTES)} limit for one inventory file; "
-                      "split the inventory into several files")
+                      f"{_size_text(limit)} limit for one inventory file; split the "
+                      "inventory into several files (on the command line, --max-size "
+                      "raises the limit)")
 
 
-def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
+def read_inventory(path, sheet: str | None = None, *,
+                   max_bytes: int | None = None) -> pd.DataFrame:
     """Read an inventory table from a CSV file or an Excel workbook.
 
     Cells are read as they are stored: an Excel formula is kept as its text
@@ -654,15 +679,20 @@ def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
     table is line i + 2 of the file (the header is line 1), as a spreadsheet
     numbers its rows (a quoted CSV cell running over several physical lines counts
     as one); empty rows at the end are dropped, empty rows in between are kept (and
-    reported by the screening).
+    reported by the screening). CSV files are parsed in chunks, so that the
+    parser's memory stays small beside the table it builds.
 
     Parameters
     ----------
     path : str or os.PathLike
-        A ``.csv`` file (UTF-8, with or without a byte-order mark; comma-, semicolon-
-        or tab-separated) or an ``.xlsx``/``.xlsm`` workbook (needs openpyxl).
+        A ``.csv`` file (comma-, semicolon- or tab-separated) in UTF-8, with or
+        without a byte-order mark, or in UTF-16 or UTF-32 (recognised by their
+        byte-order mark, or by the zero bytes of ASCII text without one); or an
+        ``.xlsx``/``.xlsm`` workbook (needs openpyxl).
     sheet : str, optional
         Worksheet name; the first sheet by default.
+    max_bytes : int, optional
+        Largest file read; `MAX_FILE_BYTES` by default. [bytes]
 
     Returns
     -------
@@ -672,16 +702,17 @@ def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
     Raises
     ------
     InputError
-        Missing, empty or oversized file (`MAX_FILE_BYTES`), a CSV that is not
-        UTF-8, an unreadable workbook, a header without data rows.
+        Missing, empty or oversized file, a CSV in an encoding that is not UTF-8,
+        UTF-16 or UTF-32, an unreadable workbook, a header without data rows.
     """
+    limit = MAX_FILE_BYTES if max_bytes is None else int(max_bytes)
     path = Path(path)
     name = path.name
     if not path.is_file():
         raise InputError("file", f"{name}: no such file")
     size = path.stat().st_size
-    if size > MAX_FILE_BYTES:
-        raise _too_large(name, size)
+    if size > limit:
+        raise _too_large(name, size, limit)
     if size == 0:
         raise InputError("file", f"{name} is empty: it needs a header line with the column "
                          "names (at least container, liquid and a temperature) and one row "
@@ -704,34 +735,111 @@ def read_inventory(path, sheet: str | None = None) -> pd.DataFrame:
     return frame
 
 
+#: Byte-order marks and the codec that reads the text after them (UTF-32 first:
+#: its little-endian mark begins with that of UTF-16).
+_BYTE_ORDER_MARKS = (
+    (codecs.BOM_UTF32_LE, "utf-32-le", "UTF-32"), (codecs.BOM_UTF32_BE, "utf-32-be", "UTF-32"),
+    (codecs.BOM_UTF8, "utf-8", "UTF-8"),
+    (codecs.BOM_UTF16_LE, "utf-16-le", "UTF-16"), (codecs.BOM_UTF16_BE, "utf-16-be", "UTF-16"),
+)
+
+
+def _encoding_of(start: bytes) -> tuple[str, int, str]:
+    """(codec, bytes to skip, name) of a CSV file from its first bytes."""
+    for mark, codec, label in _BYTE_ORDER_MARKS:
+        if start.startswith(mark):
+            return codec, len(mark), label
+    # No mark: ASCII text in UTF-16/32 shows its zero bytes in a fixed pattern.
+    sample = start[:4096]
+    usable = len(sample) - len(sample) % 4
+    if usable >= 4 and b"\x00" in sample[:usable]:
+        quads = [sample[i:i + 4] for i in range(0, usable, 4)]
+        if all(q[1:] == b"\x00\x00\x00" for q in quads):
+            return "utf-32-le", 0, "UTF-32"
+        if all(q[:3] == b"\x00\x00\x00" for q in quads):
+            return "utf-32-be", 0, "UTF-32"
+        if all(q[1] == 0 and q[3] == 0 for q in quads):
+            return "utf-16-le", 0, "UTF-16"
+        if all(q[0] == 0 and q[2] == 0 for q in quads):
+            return "utf-16-be", 0, "UTF-16"
+    return "utf-8", 0, "UTF-8"
+
+
+def _check_decodes(path: Path, codec: str, skip: int, label: str) -> str:
+    """Decode the whole file block by block, keeping nothing; return the first line.
+
+    A byte that does not decode is reported with its line.
+    """
+    decoder = codecs.getincrementaldecoder(codec)("strict")
+    newline = "\n".encode(codec)
+    lines_before = 0
+    first = ""
+    with open(path, "rb") as handle:
+        handle.seek(skip)
+        tail = b""
+        while True:
+            block = handle.read(1 << 22)
+            try:
+                text = decoder.decode(block, final=not block)
+            except UnicodeDecodeError as exc:
+                data = tail + block
+                bad = len(tail) + exc.start
+                line = lines_before + data[:bad].count(newline) + 1
+                if label == "UTF-8" and b"\x00" in data[:4096] + tail:
+                    advice = ("It holds zero bytes, as UTF-16 or UTF-32 text without a "
+                              "byte-order mark does")
+                elif label == "UTF-8":
+                    advice = ("The file is probably saved in a legacy encoding such as "
+                              "Latin-1 or Windows-1252")
+                else:
+                    advice = (f"The file starts as {label} text but is not valid {label} "
+                              "there")
+                raise InputError(
+                    "file", f"{path.name} is not {label} text: byte "
+                    f"0x{data[bad:bad + 1].hex()} on line {line} is not valid {label}. "
+                    f"{advice}; save it again as 'CSV UTF-8' (in Excel: Save As, CSV UTF-8) "
+                    "and screen it again") from None
+            if "\n" not in first and len(first) < (1 << 24):
+                first += text
+            if not block:
+                break
+            tail = decoder.getstate()[0]
+            lines_before += text.count("\n")
+    return first.split("\n", 1)[0]
+
+
+def _has_text(path: Path, codec: str, skip: int) -> bool:
+    with open(path, encoding=codec, newline="") as handle:
+        handle.seek(skip)
+        return any(line.strip() for line in handle)
+
+
 def _read_csv(path: Path) -> pd.DataFrame:
-    raw = path.read_bytes()
-    if raw.startswith(codecs.BOM_UTF8):
-        raw = raw[len(codecs.BOM_UTF8):]
-    try:
-        text = raw.decode("utf-8")
-    except UnicodeDecodeError as exc:
-        line = raw[:exc.start].count(b"\n") + 1
-        raise InputError(
-            "file", f"{path.name} is not UTF-8 text: byte 0x{raw[exc.start]:02x} on line "
-            f"{line} is not valid UTF-8. The file is probably saved in a legacy encoding "
-            "such as Latin-1 or Windows-1252; save it again as 'CSV UTF-8' (in Excel: "
-            "Save As, CSV UTF-8) and screen it again") from None
-    if not text.strip():
+    with open(path, "rb") as handle:
+        start = handle.read(4096)
+    codec, skip, label = _encoding_of(start)
+    head = _check_decodes(path, codec, skip, label)
+    if not head.strip() and not _has_text(path, codec, skip):
         raise InputError("file", f"{path.name} holds only blank lines: it needs a header "
                          "line and one row per container")
-    first = text.splitlines()[0]
+    first = head.rstrip("\r")
     separator = max((",", ";", "\t"), key=first.count)
     header = next(csv.reader([first], delimiter=separator))
     _check_duplicate_headers(header)
     try:
-        frame = pd.read_csv(io.StringIO(text), sep=separator, dtype=str,
-                            keep_default_na=False, skip_blank_lines=False)
+        with open(path, "rb") as handle:
+            handle.seek(skip)
+            reader = pd.read_csv(handle, sep=separator, dtype=str, keep_default_na=False,
+                                 skip_blank_lines=False, encoding=codec,
+                                 chunksize=_READ_CHUNK_ROWS)
+            chunks = list(reader)
     except pd.errors.EmptyDataError:
         raise InputError("file", f"{path.name} has no column names in its first line") from None
     except pd.errors.ParserError as exc:
         raise InputError("file", f"{path.name} cannot be read as CSV: {exc}; check that "
                          "every row has as many fields as the header") from None
+    frame = chunks[0] if len(chunks) == 1 else pd.concat(chunks, ignore_index=True)
+    del chunks
     return _drop_trailing_blank_rows(frame)
 
 
@@ -747,6 +855,8 @@ def _is_blank(value) -> bool:
 
 def _drop_trailing_blank_rows(frame: pd.DataFrame) -> pd.DataFrame:
     if len(frame) == 0:
+        return frame
+    if not all(_is_blank(v) for v in frame.iloc[-1].tolist()):
         return frame
     blank = frame.isna() | frame.apply(lambda col: col.astype(str).str.strip() == "")
     filled = np.flatnonzero(~blank.all(axis=1).to_numpy())
@@ -851,7 +961,6 @@ def _resolve_columns(frame: pd.DataFrame) -> _Columns:
     roles: dict[str, object] = {}
     units: dict[str, str] = {}
     unknown = []
-    unitless = []
     for label, key in normalised.items():
         if key in ("container", "liquid", "basis", "fill_percent", "limit_source"):
             roles[key] = label
@@ -865,9 +974,9 @@ def _resolve_columns(frame: pd.DataFrame) -> _Columns:
             role = "elevation"
         elif base in _LIMIT_KINDS and unit == "ppm":
             role = base
+        elif key in _TEMPERATURE_BASES or key in ("pressure", "elevation"):
+            role, unit = key, _UNIT_IN_CELL   # each cell carries its own unit
         else:
-            if key in _TEMPERATURE_BASES or key in ("pressure", "elevation"):
-                unitless.append(str(label).strip())
             unknown.append(label)
             continue
         if role in roles:
@@ -876,11 +985,6 @@ def _resolve_columns(frame: pd.DataFrame) -> _Columns:
                              "column, in one unit")
         roles[role] = label
         units[role] = unit
-    if unitless:
-        raise InputError("columns", f"the header {unitless[0]!r} does not say its unit; "
-                         "put the unit in the name: temperature_C, temperature_F or "
-                         "temperature_K; pressure_kPa (absolute), pressure_bar, pressure_psia "
-                         "or pressure_Pa; elevation_m or elevation_ft")
     present = [str(label).strip() for label in labels]
     missing = [r for r in ("container", "liquid") if r not in roles]
     if missing:
@@ -930,11 +1034,13 @@ def _is_text_column(column: pd.Series) -> bool:
             or pd.api.types.is_string_dtype(column.dtype))
 
 
-def _text_cells(column: pd.Series) -> tuple[np.ndarray, np.ndarray]:
-    """Stripped text of each cell (object array) and the blank mask."""
+def _text_cells(column: pd.Series) -> tuple[pd.Series, np.ndarray]:
+    """Stripped text of each cell (a text Series, "" where missing) and the blank mask."""
     missing = column.isna().to_numpy()
-    text = column.where(~missing, "").astype(str).str.strip().to_numpy(dtype=object)
-    return text, text == ""
+    if missing.any():
+        column = column.where(~missing, "")
+    text = column.astype("str").str.strip().reset_index(drop=True)
+    return text, (text == "").to_numpy(dtype=bool)
 
 
 def _is_formula(column: pd.Series) -> np.ndarray:
@@ -944,49 +1050,124 @@ def _is_formula(column: pd.Series) -> np.ndarray:
     """
     if not _is_text_column(column):
         return np.zeros(len(column), dtype=bool)
-    text = column.where(column.notna(), "").astype(str)
-    return text.str.lstrip().str.startswith("=").to_numpy(dtype=bool)
+    if column.dtype == object:
+        column = column.where(column.notna(), "").astype(str)
+    return column.str.lstrip().str.startswith("=").fillna(False).to_numpy(dtype=bool)
 
 
 def _number_cells(column: pd.Series, unit_words: Mapping[str, str], unit: str,
-                  label: str) -> tuple[np.ndarray, np.ndarray, dict[int, str]]:
+                  label: str) -> tuple[np.ndarray, np.ndarray, tuple[np.ndarray, np.ndarray]]:
     """Numbers of a column in its header unit.
 
     Returns the values (NaN where blank or unusable), the blank mask and the
-    problem of each unusable cell by position. Only cells that are not plain
-    numbers are looked at one by one (once per distinct text).
+    problems as (positions, texts). Cells that are not plain numbers are parsed
+    once per distinct content.
     """
+    n = len(column)
+    none = (np.empty(0, dtype=np.intp), np.empty(0, dtype=object))
     if pd.api.types.is_bool_dtype(column):
-        values = np.full(len(column), np.nan)
-        return values, np.zeros(len(column), dtype=bool), {
-            i: f"{column.iat[i]!r} is not a number in {label}" for i in range(len(column))}
+        positions = np.arange(n)
+        texts = np.array([f"{v!r} is not a number in {label}" for v in pd.unique(column)],
+                         dtype=object)[pd.factorize(column)[0]]
+        return np.full(n, np.nan), np.zeros(n, dtype=bool), (positions, texts)
     if pd.api.types.is_numeric_dtype(column):
         values = column.to_numpy(dtype=float, na_value=np.nan).copy()
         blank = np.isnan(values)
-        bad = np.isinf(values)
+        bad = np.flatnonzero(np.isinf(values))
         values[bad] = np.nan
-        return values, blank, {int(i): f"{column.iat[i]!r} is not a finite number"
-                               for i in np.flatnonzero(bad)}
-    raw = column.to_numpy(dtype=object)
-    values = pd.to_numeric(column, errors="coerce").to_numpy(dtype=float).copy()
-    blank = np.zeros(raw.size, dtype=bool)
-    problems: dict[int, str] = {}
-    booleans = np.flatnonzero(np.fromiter((isinstance(v, (bool, np.bool_)) for v in raw),
-                                          dtype=bool, count=raw.size))
-    values[booleans] = np.nan
-    cache: dict[str, tuple[float, str]] = {}
-    for i in np.flatnonzero(~np.isfinite(values)):
-        cell = raw[i]
-        if _is_blank(cell):
-            blank[i] = True
+        return values, blank, (bad, np.array([f"{column.iat[i]!r} is not a finite number"
+                                              for i in bad], dtype=object))
+    values = _fast_numbers(column)
+    if values is None:
+        values = pd.to_numeric(column, errors="coerce").to_numpy(dtype=float, na_value=np.nan)
+    values = values.copy()
+    if column.dtype == object:
+        booleans = column.map(type).isin([bool, np.bool_]).to_numpy()
+        values[booleans] = np.nan
+    blank = np.zeros(n, dtype=bool)
+    look = np.flatnonzero(~np.isfinite(values))
+    if look.size == 0:
+        return values, blank, none
+    cells = column.iloc[look]
+    missing = cells.isna().to_numpy()
+    stripped = cells.where(~cells.isna(), "").astype(str).str.strip().to_numpy(dtype=object)
+    empty = missing | (stripped == "")
+    blank[look[empty]] = True
+    look = look[~empty]
+    if look.size == 0:
+        return values, blank, none
+    raw = column.to_numpy(dtype=object)[look]
+    codes, distinct = pd.factorize(pd.Series(raw, dtype=object).map(repr))
+    first = np.unique(codes, return_index=True)[1]
+    parsed = [_parse_text_number(raw[i], unit_words, unit, label) for i in first]
+    numbers = np.array([p[0] for p in parsed], dtype=float)
+    problems = np.array([p[1] for p in parsed], dtype=object)
+    values[look] = numbers[codes]
+    bad = problems[codes] != ""
+    return values, blank, (look[bad], problems[codes][bad])
+
+
+def _unit_cells(column: pd.Series, role: str, label
+                ) -> tuple[np.ndarray, np.ndarray, tuple[np.ndarray, np.ndarray]]:
+    """Quantities of a column whose header names no unit, each cell with its own, in SI.
+
+    Every distinct cell is converted once (`estimator.units.parse_quantity`); a
+    number without a unit is refused for its row, naming the column.
+    """
+    from .units import parse_quantity
+
+    kind, example = _CELL_KINDS[role]
+    n = len(column)
+    blank = _blank_cells(column)
+    values = np.full(n, np.nan)
+    look = np.flatnonzero(~blank)
+    if look.size == 0:
+        return values, blank, (np.empty(0, dtype=np.intp), np.empty(0, dtype=object))
+    raw = column.to_numpy(dtype=object)[look]
+    codes, distinct = pd.factorize(pd.Series(raw, dtype=object).map(repr))
+    first = np.unique(codes, return_index=True)[1]
+    numbers, problems = [], []
+    for cell in raw[first]:
+        text = cell.strip() if isinstance(cell, str) else cell
+        if isinstance(text, str) and text.startswith("="):
+            numbers.append(math.nan)
+            problems.append(f"holds a formula ({text[:40]!r}); formulas are not evaluated: "
+                            "enter the value itself")
             continue
-        key = repr(cell)
-        if key not in cache:
-            cache[key] = _parse_text_number(cell, unit_words, unit, label)
-        values[i], problem = cache[key]
-        if problem:
-            problems[int(i)] = problem
-    return values, blank, problems
+        try:
+            numbers.append(parse_quantity(text, kind, str(label).strip()))
+            problems.append("")
+        except InputError as exc:
+            numbers.append(math.nan)
+            hint = (f"; or name the unit in the header, for example {example!r}"
+                    if "no unit" in exc.reason else "")
+            problems.append(exc.reason + hint)
+    numbers, problems = np.array(numbers, dtype=float), np.array(problems, dtype=object)
+    values[look] = numbers[codes]
+    bad = problems[codes] != ""
+    return values, blank, (look[bad], problems[codes][bad])
+
+
+def _fast_numbers(column: pd.Series) -> np.ndarray | None:
+    """Plain numbers of an Arrow-backed text column in one cast (None if any cell is not).
+
+    Blank cells become NaN; a column with any other text is left to the full parser.
+    """
+    try:
+        import pyarrow as pa
+        import pyarrow.compute as pc
+    except ImportError:  # pragma: no cover - pyarrow is a dependency
+        return None
+    if column.dtype == object or not isinstance(getattr(column, "array", None),
+                                                pd.api.extensions.ExtensionArray):
+        return None
+    try:
+        arrow = pa.chunked_array(pa.array(column.array)) if not hasattr(
+            column.array, "_pa_array") else column.array._pa_array
+        arrow = pc.if_else(pc.equal(pc.utf8_trim_whitespace(arrow), ""), None, arrow)
+        return pc.cast(arrow, pa.float64()).to_numpy(zero_copy_only=False).astype(float)
+    except (pa.ArrowInvalid, pa.ArrowTypeError, pa.ArrowNotImplementedError, TypeError):
+        return None
 
 
 def _parse_text_number(cell, unit_words, unit: str, label: str) -> tuple[float, str]:
@@ -1097,31 +1278,210 @@ def sorted_by_concern(table) -> pd.DataFrame:
                              na_position="last", kind="stable")
 
 
+#: Bands of the concern counted in the terminal summary: (label, low, high).
+CONCERN_BANDS = (
+    ("1 or more (a limit or alarm reached)", 1.0, math.inf),
+    ("0.5 to 1", 0.5, 1.0),
+    ("0.1 to 0.5", 0.1, 0.5),
+    ("below 0.1", -math.inf, 0.1),
+)
+
+
+def concern_counts(table) -> dict[str, int]:
+    """Rows per band of `CONCERN_BANDS`, then those without a concern (not computed).
+
+    Parameters
+    ----------
+    table : pandas.DataFrame or InventoryScreening
+
+    Returns
+    -------
+    dict
+        Band label -> number of rows; "not computed" for rows without a concern.
+    """
+    frame = table.table if isinstance(table, InventoryScreening) else table
+    concern = frame["concern"].to_numpy(dtype=float)
+    counts = {}
+    for label, low, high in CONCERN_BANDS:
+        with np.errstate(invalid="ignore"):
+            counts[label] = int(((concern >= low) & (concern < high)).sum())
+    counts["not computed"] = int(np.isnan(concern).sum())
+    return counts
+
+
+def _short(values, width: int) -> list[str]:
+    text = pd.Series(values, dtype=object).fillna("").astype(str)
+    longer = text.str.len() > width
+    text[longer] = text[longer].str[:width - 1] + "~"
+    return text.tolist()
+
+
+def inventory_summary_text(result: InventoryScreening, top: int = 10,
+                           output=None) -> str:
+    """A summary of a screening for the terminal, whatever the number of rows.
+
+    Counts by status and by band of concern, the `top` rows of highest concern,
+    every row that could not be computed with its reason, and the notes on the
+    table. The cautions are the caller's to print with it.
+
+    Parameters
+    ----------
+    result : InventoryScreening
+    top : int
+        Rows of highest concern listed.
+    output : str or os.PathLike, optional
+        Where the full table was written, to say so.
+
+    Returns
+    -------
+    str
+    """
+    from .limits import format_ppm
+
+    table = result.table
+    summary = result.summary
+    counts = summary.counts
+    lines = [f"Inventory {result.source}: {summary.rows} row(s), {summary.liquids} distinct "
+             f"liquid(s); vapour-space pressure {result.pressure / 1000:.4g} kPa unless a "
+             "row gives its own.",
+             "SCREENING ESTIMATE: measure with calibrated instruments before entry.", "",
+             f"Status: {counts['ok']} computed without cautions, {counts['warning']} computed with cautions, "
+             f"{counts['error']} not computed.",
+             "Concern in the worst case (worst-case ppm over the lowest limit, %LFL over "
+             f"the {result.alarms.percent_lfl:g} % alarm, oxygen displaced over that at "
+             "the low-oxygen alarm):"]
+    lines += [f"  {label:<40} {count:>9}" for label, count in concern_counts(table).items()]
+    concern = table["concern"].to_numpy(dtype=float)
+    order = np.argsort(np.where(np.isnan(concern), np.inf, -concern), kind="stable")
+    shown = order[:max(int(top), 0)]
+    shown = shown[np.isfinite(concern[shown])]
+    roles = _resolve_roles(table)
+    if shown.size:
+        lines += ["", f"Highest concern ({shown.size} of {summary.rows} rows):",
+                  f"{'rank':>5} {'line':>7}  {'container':<22} {'liquid':<26} "
+                  f"{'worst ppm':>10} {'% LFL':>7} {'O2 %':>5} {'concern':>8}  driver"]
+        part = table.iloc[shown]
+        columns = zip(part["concern_rank"].tolist(), part["source_line"].tolist(),
+                      _short(part[roles[0]], 22), _short(part[roles[1]], 26),
+                      part["worst_case_ppm"].tolist(), part["worst_case_percent_lfl"].tolist(),
+                      part["worst_case_oxygen_percent"].tolist(), part["concern"].tolist(),
+                      part["concern_driver"].tolist(), part["status"].tolist())
+        for rank, line, container, liquid, ppm, lfl, oxygen, value, driver, status in columns:
+            lines.append(f"{rank:>5} {line:>7}  {container:<22} {liquid:<26} "
+                         f"{format_ppm(ppm):>10} {lfl:>7.3g} {oxygen:>5.3g} {value:>8.3g}  "
+                         f"{driver}" + ("  (with cautions)" if status == "warning" else ""))
+    failed = table["status"].to_numpy(dtype=object) == "error"
+    if failed.any():
+        part = table[failed]
+        lines += ["", f"Not computed ({int(failed.sum())} row(s)):"]
+        text = ("  " + pd.Series(_short(part[roles[0]], 30), dtype=object) + ": "
+                + part["reason"].astype(str).to_numpy(dtype=object))
+        lines += text.tolist()
+    lines += [f"note: {w}" for w in result.warnings]
+    if counts["warning"]:
+        lines.append(f"{counts['warning']} computed row(s) carry cautions; the reason column "
+                     "of the table gives them.")
+    lines.append("")
+    lines.append(f"Every row, with its reasons, is in {output}." if output else
+                 "Write every row, with its reasons, with --output FILE.csv.")
+    return "\n".join(lines)
+
+
+def _resolve_roles(table: pd.DataFrame) -> tuple:
+    """Container and liquid columns of a screening table (the first two input roles)."""
+    found = {}
+    for label in table.columns[:list(table.columns).index("source_line")]:
+        key = _normalise_header(label)
+        if key in ("container", "liquid") and key not in found:
+            found[key] = label
+    return found.get("container", "source_line"), found.get("liquid", "source_line")
+
+
 class _Issues:
-    """Errors and cautions per row, as 'line N, column 'x': text'."""
+    """Errors and cautions per row, as 'line N, column 'x': text', gathered as arrays.
+
+    `error` and `caution` take one row or an array of rows, and one text for all
+    of them or one text per row; the reasons are joined in `assemble` with array
+    operations, so that a caution on every row costs no Python loop per row.
+    """
 
     def __init__(self, lines: np.ndarray):
         self.lines = lines
-        self.errors: dict[int, list[str]] = defaultdict(list)
-        self.cautions: dict[int, list[str]] = defaultdict(list)
+        self._records: list[tuple[int, np.ndarray, object, object]] = []
 
-    def _text(self, row: int, column, text: str) -> str:
-        where = f"line {self.lines[row]}"
-        if column is not None:
-            where += f", column {str(column).strip()!r}"
-        return f"{where}: {text}"
+    def _add(self, kind: int, rows, column, text) -> None:
+        rows = np.atleast_1d(np.asarray(rows, dtype=np.intp))
+        if rows.size == 0:
+            return
+        if not isinstance(text, str):
+            text = np.asarray(text, dtype=object)
+        self._records.append((kind, rows, column, text))
 
-    def error(self, row, column, text: str) -> None:
-        self.errors[int(row)].append(self._text(int(row), column, text))
+    def error(self, rows, column, text) -> None:
+        self._add(0, rows, column, text)
 
-    def caution(self, row, column, text: str) -> None:
-        self.cautions[int(row)].append(self._text(int(row), column, text))
+    def caution(self, rows, column, text) -> None:
+        self._add(1, rows, column, text)
 
     def error_mask(self, n: int) -> np.ndarray:
         mask = np.zeros(n, dtype=bool)
-        if self.errors:
-            mask[list(self.errors)] = True
+        for kind, rows, _, _ in self._records:
+            if kind == 0:
+                mask[rows] = True
         return mask
+
+    def assemble(self, n: int) -> tuple[np.ndarray, np.ndarray]:
+        """Status ("ok", "warning", "error") and reason of every row.
+
+        A row's errors come first, then its cautions, each in the order found,
+        without repeats, joined by "; ".
+        """
+        status = _same_text(n, "ok")
+        reason = _same_text(n, "")
+        if not self._records:
+            return status, reason
+        rows_all, kinds, order_all, texts = [], [], [], []
+        for seq, (kind, rows, column, text) in enumerate(self._records):
+            where = f", column {str(column).strip()!r}: " if column is not None else ": "
+            prefix = "line " + self.lines[rows].astype(str).astype(object) + where
+            texts.append(prefix + text)
+            rows_all.append(rows)
+            kinds.append(np.full(rows.size, kind, dtype=np.int8))
+            order_all.append(np.full(rows.size, seq, dtype=np.intp))
+        r = np.concatenate(rows_all)
+        k = np.concatenate(kinds)
+        t = np.concatenate(texts)
+        order = np.lexsort((np.concatenate(order_all), k, r))
+        r, k, t = r[order], k[order], t[order]
+        keep = ~pd.DataFrame({"r": r, "t": t}).duplicated().to_numpy()
+        r, k, t = r[keep], k[keep], t[keep]
+        status[r[k == 1]] = "warning"
+        status[r[k == 0]] = "error"
+        starts = np.flatnonzero(np.r_[True, r[1:] != r[:-1]])
+        rank = np.arange(r.size) - np.repeat(starts, np.diff(np.r_[starts, r.size]))
+        first = rank == 0
+        reason[r[first]] = t[first]
+        for position in range(1, int(rank.max()) + 1):
+            at = rank == position
+            reason[r[at]] = reason[r[at]] + ("; " + t[at])
+        return status, reason
+
+
+def _same_text(n: int, text: str) -> np.ndarray:
+    """An object array of `n` references to one string (np.full would copy it n times)."""
+    out = np.empty(n, dtype=object)
+    out.fill(text)
+    return out
+
+
+def _format_each(values, spec: str) -> np.ndarray:
+    """`format(value, spec)` of each value, formatting each distinct value once."""
+    values = np.asarray(values, dtype=float)
+    if values.size == 0:
+        return np.empty(0, dtype=object)
+    distinct, inverse = np.unique(values, return_inverse=True)
+    shown = np.array([format(float(v), spec) for v in distinct], dtype=object)
+    return shown[np.asarray(inverse).ravel()]
 
 
 def _format_temperature(kelvin: float, unit: str) -> str:
@@ -1142,7 +1502,7 @@ def _to_kelvin(values: np.ndarray, unit: str) -> np.ndarray:
 
 def screen_inventory(source, pressure=STANDARD_ATMOSPHERE, alarms=FlammabilityAlarms(), *,
                      elevation=None, sheet: str | None = None,
-                     worst_count: int = 10) -> InventoryScreening:
+                     worst_count: int = 10, max_bytes: int | None = None) -> InventoryScreening:
     """Screen the equilibrium headspace of every container of an inventory.
 
     The columns read and written are described in the module documentation of
@@ -1167,6 +1527,8 @@ def screen_inventory(source, pressure=STANDARD_ATMOSPHERE, alarms=FlammabilityAl
         Worksheet of a workbook; the first by default.
     worst_count : int
         Rows listed in ``summary.worst``.
+    max_bytes : int, optional
+        Largest file read (`read_inventory`); `MAX_FILE_BYTES` by default. [bytes]
 
     Returns
     -------
@@ -1185,7 +1547,7 @@ def screen_inventory(source, pressure=STANDARD_ATMOSPHERE, alarms=FlammabilityAl
         if len(frame) == 0:
             raise InputError("table", "has no rows")
     elif isinstance(source, (str, os.PathLike)):
-        frame, name = read_inventory(source, sheet), Path(source).name
+        frame, name = read_inventory(source, sheet, max_bytes=max_bytes), Path(source).name
     else:
         raise InputError("source", "give a pandas DataFrame or the path of a CSV or .xlsx "
                          f"file, not {type(source).__name__}")
@@ -1242,33 +1604,56 @@ def _read_formulas(frame: pd.DataFrame, roles: Mapping[str, object], issues: _Is
         if label in read and label not in text_roles:
             continue
         column = frame[label]
-        for i in np.flatnonzero(_is_formula(column)):
-            shown = str(column.iat[i])[:40]
-            if label in read:
-                issues.error(i, label, f"holds a formula ({shown!r}); formulas are not "
-                             "evaluated: enter the value itself")
-            else:
-                issues.caution(i, label, f"holds a formula ({shown!r}), passed through as "
-                               "text, not evaluated")
+        rows = np.flatnonzero(_is_formula(column))
+        if rows.size == 0:
+            continue
+        shown = column.iloc[rows].astype(str).str[:40].map(repr).to_numpy(dtype=object)
+        if label in read:
+            issues.error(rows, label, "holds a formula (" + shown + "); formulas are not "
+                         "evaluated: enter the value itself")
+        else:
+            issues.caution(rows, label, "holds a formula (" + shown + "), passed through as "
+                           "text, not evaluated")
 
 
 def _read_containers(column: pd.Series, label, skip: np.ndarray, issues: _Issues,
                      notes: list[str]) -> None:
     text, blank = _text_cells(column)
-    for i in np.flatnonzero(blank & ~skip):
-        issues.caution(i, label, "no container identifier")
-    repeated = pd.Series(text, dtype=object).duplicated(keep=False).to_numpy() & ~blank
+    issues.caution(np.flatnonzero(blank & ~skip), label, "no container identifier")
+    filled = text[~blank]
+    try:
+        import pyarrow as pa
+        import pyarrow.compute as pc
+
+        unique = pc.count_distinct(pa.array(filled.array)).as_py() == len(filled)
+    except (ImportError, TypeError, ValueError, AttributeError):  # pragma: no cover
+        unique = not filled.duplicated().any()
+    if unique:
+        return
+    repeated = text.duplicated(keep=False).to_numpy() & ~blank
     if repeated.any():
         names = pd.unique(text[repeated])
         notes.append(f"{len(names)} container identifier(s) appear on more than one row "
                      f"(for example {names[0]!r}); each row is screened on its own")
 
 
+def _blank_cells(column: pd.Series) -> np.ndarray:
+    missing = column.isna().to_numpy()
+    if not _is_text_column(column):
+        return missing
+    return missing | (column.where(~missing, "").astype(str).str.strip() == "").to_numpy()
+
+
 def _empty_rows(frame: pd.DataFrame, candidates: np.ndarray) -> np.ndarray:
     """Rows whose every cell is blank, looked for among `candidates` only."""
     empty = np.zeros(len(frame), dtype=bool)
-    for i in np.flatnonzero(candidates):
-        empty[i] = all(_is_blank(v) for v in frame.iloc[i].tolist())
+    rows = np.flatnonzero(candidates)
+    if rows.size:
+        part = frame.iloc[rows]
+        every = np.ones(rows.size, dtype=bool)
+        for k in range(part.shape[1]):
+            every &= _blank_cells(part.iloc[:, k])
+        empty[rows[every]] = True
     return empty
 
 
@@ -1281,11 +1666,14 @@ def _read_temperatures(frame, roles, units, issues: _Issues, skip: np.ndarray):
         if base not in roles:
             continue
         label, unit = roles[base], units[base]
-        values, blank, problems = _number_cells(frame[label], _TEMPERATURE_WORDS, unit,
-                                                _TEMPERATURE_SCALES[unit])
-        for i, text in problems.items():
-            issues.error(i, label, text)
-            unreadable[i] = True
+        if unit == _UNIT_IN_CELL:
+            unit = "k"
+            values, blank, (bad, texts) = _unit_cells(frame[label], base, label)
+        else:
+            values, blank, (bad, texts) = _number_cells(frame[label], _TEMPERATURE_WORDS,
+                                                        unit, _TEMPERATURE_SCALES[unit])
+        issues.error(bad, label, texts)
+        unreadable[bad] = True
         columns[base] = _TemperatureColumn(label, unit, values, _to_kelvin(values, unit),
                                            blank)
     nominal = np.full(n, np.nan)
@@ -1301,19 +1689,19 @@ def _read_temperatures(frame, roles, units, issues: _Issues, skip: np.ndarray):
         worst[~high.blank] = high.kelvin[~high.blank]
         worst_from[~high.blank] = 2
     first_label = next(c.label for c in columns.values())
-    for i in np.flatnonzero((nominal_from < 0) & ~unreadable & ~skip):
-        issues.error(i, first_label, "no temperature given")
+    issues.error(np.flatnonzero((nominal_from < 0) & ~unreadable & ~skip), first_label,
+                 "no temperature given")
     for a, b in (("temperature_low", "temperature"), ("temperature", "temperature_high"),
                  ("temperature_low", "temperature_high")):
         if a in columns and b in columns:
             low, high = columns[a], columns[b]
             with np.errstate(invalid="ignore"):
-                wrong = ~low.blank & ~high.blank & (low.kelvin > high.kelvin)
-            for i in np.flatnonzero(wrong):
-                issues.error(i, high.label, f"{high.values[i]:g} "
-                             f"{_TEMPERATURE_SCALES[high.unit]} is below the "
-                             f"{low.values[i]:g} {_TEMPERATURE_SCALES[low.unit]} in "
-                             f"{str(low.label).strip()!r}; a range runs from low to high")
+                wrong = np.flatnonzero(~low.blank & ~high.blank & (low.kelvin > high.kelvin))
+            issues.error(wrong, high.label, _format_each(high.values[wrong], "g")
+                         + f" {_TEMPERATURE_SCALES[high.unit]} is below the "
+                         + _format_each(low.values[wrong], "g")
+                         + f" {_TEMPERATURE_SCALES[low.unit]} in "
+                         f"{str(low.label).strip()!r}; a range runs from low to high")
     return columns, nominal, nominal_from, worst, worst_from
 
 
@@ -1321,17 +1709,18 @@ def _read_fill(frame, roles, issues: _Issues) -> None:
     if "fill_percent" not in roles:
         return
     label = roles["fill_percent"]
-    values, _, problems = _number_cells(frame[label], {"%": "%", "percent": "%"}, "%", "%")
-    for i, text in problems.items():
-        issues.error(i, label, text)
+    values, _, (bad, texts) = _number_cells(frame[label], {"%": "%", "percent": "%"}, "%", "%")
+    issues.error(bad, label, texts)
     with np.errstate(invalid="ignore"):
-        for i in np.flatnonzero(values < 0):
-            issues.error(i, label, f"{values[i]:g} %: a fill level cannot be negative")
-        for i in np.flatnonzero(values > 100):
-            issues.error(i, label, f"{values[i]:g} %: a fill level cannot exceed 100 %")
-        for i in np.flatnonzero(values == 100):
-            issues.caution(i, label, "the container is full: it has no vapour space now; "
-                           "the headspace shown forms as soon as liquid is drawn off")
+        rows = np.flatnonzero(values < 0)
+        issues.error(rows, label, _format_each(values[rows], "g")
+                     + " %: a fill level cannot be negative")
+        rows = np.flatnonzero(values > 100)
+        issues.error(rows, label, _format_each(values[rows], "g")
+                     + " %: a fill level cannot exceed 100 %")
+        issues.caution(np.flatnonzero(values == 100), label, "the container is full: it has "
+                       "no vapour space now; the headspace shown forms as soon as liquid is "
+                       "drawn off")
 
 
 def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) -> np.ndarray:
@@ -1341,34 +1730,42 @@ def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) 
     given = np.zeros(n, dtype=bool)
     if "pressure" in roles:
         label, unit = roles["pressure"], units["pressure"]
-        words = {u: u for u in _PRESSURE_FACTORS} | {"psi": "psia"}
-        values, blank, problems = _number_cells(frame[label], words, unit,
-                                                _PRESSURE_LABELS[unit])
-        for i, text in problems.items():
-            issues.error(i, label, text)
+        if unit == _UNIT_IN_CELL:
+            unit = "pa"
+            values, blank, (bad, texts) = _unit_cells(frame[label], "pressure", label)
+        else:
+            words = {u: u for u in _PRESSURE_FACTORS} | {"psi": "psia"}
+            values, blank, (bad, texts) = _number_cells(frame[label], words, unit,
+                                                        _PRESSURE_LABELS[unit])
+        issues.error(bad, label, texts)
         pascal = values * _PRESSURE_FACTORS[unit]
         with np.errstate(invalid="ignore"):
             inside = (pascal >= _PRESSURE_RANGE[0]) & (pascal <= _PRESSURE_RANGE[1])
-        for i in np.flatnonzero(np.isfinite(pascal) & ~inside):
-            issues.error(i, label, f"{values[i]:g} {_PRESSURE_LABELS[unit]} is not an "
-                         "absolute pressure between 1 kPa and 10 MPa (101.325 kPa is 1 atm; "
-                         "add the barometric pressure to a gauge reading)")
+        rows = np.flatnonzero(np.isfinite(pascal) & ~inside)
+        issues.error(rows, label, _format_each(values[rows], "g")
+                     + f" {_PRESSURE_LABELS[unit]} is not an absolute pressure between 1 kPa "
+                     "and 10 MPa (101.325 kPa is 1 atm; add the barometric pressure to a "
+                     "gauge reading)")
         row_pressure[inside] = pascal[inside]
         given = ~blank
     if "elevation" in roles:
         label, unit = roles["elevation"], units["elevation"]
-        values, blank, problems = _number_cells(frame[label], {unit: unit}, unit, unit)
-        for i, text in problems.items():
-            issues.error(i, label, text)
+        if unit == _UNIT_IN_CELL:
+            unit = "m"
+            values, blank, (bad, texts) = _unit_cells(frame[label], "elevation", label)
+        else:
+            values, blank, (bad, texts) = _number_cells(frame[label], {unit: unit}, unit,
+                                                        unit)
+        issues.error(bad, label, texts)
         metres = values * _ELEVATION_FACTORS[unit]
         with np.errstate(invalid="ignore"):
             inside = (metres >= _ELEVATION_RANGE[0]) & (metres <= _ELEVATION_RANGE[1])
-        for i in np.flatnonzero(np.isfinite(metres) & ~inside):
-            issues.error(i, label, f"{values[i]:g} {unit} is outside -500 to 11000 m above "
-                         "sea level")
-        for i in np.flatnonzero(~blank & given):
-            issues.error(i, label, f"give either {str(roles['pressure']).strip()!r} or the "
-                         "elevation for a row, not both")
+        rows = np.flatnonzero(np.isfinite(metres) & ~inside)
+        issues.error(rows, label, _format_each(values[rows], "g")
+                     + f" {unit} is outside -500 to 11000 m above sea level")
+        issues.error(np.flatnonzero(~blank & given), label,
+                     f"give either {str(roles.get('pressure', '')).strip()!r} or the "
+                     "elevation for a row, not both")
         use = inside & ~given
         if use.any():
             row_pressure[use] = barometric_pressure(metres[use])
@@ -1388,77 +1785,218 @@ def _read_limits(frame, roles, issues: _Issues) -> dict[str, np.ndarray]:
             limits[kind] = np.full(n, np.nan)
             continue
         label = roles[kind]
-        values, blank, problems = _number_cells(frame[label], {"ppm": "ppm"}, "ppm", "ppm")
-        for i, text in problems.items():
-            issues.caution(i, label, f"{text}; this limit is not used")
+        values, blank, (bad_cells, texts) = _number_cells(frame[label], {"ppm": "ppm"},
+                                                          "ppm", "ppm")
+        issues.caution(bad_cells, label, texts + "; this limit is not used")
         with np.errstate(invalid="ignore"):
             bad = np.isfinite(values) & ((values <= 0) | (values >= 1e6))
-        for i in np.flatnonzero(bad):
-            issues.caution(i, label, f"{values[i]:g} ppm is not a limit (it must be above 0 "
-                           "and below 1e6 ppm); this limit is not used")
+        rows = np.flatnonzero(bad)
+        issues.caution(rows, label, _format_each(values[rows], "g")
+                       + " ppm is not a limit (it must be above 0 and below 1e6 ppm); this "
+                       "limit is not used")
         unsourced = np.isfinite(values) & ~bad & no_source
-        for i in np.flatnonzero(unsourced):
-            issues.caution(i, label, f"the {_LIMIT_LABELS[kind]} of {values[i]:g} ppm has no "
-                           "limit_source and is not used; say where it comes from "
-                           "(regulation, standard, company value)")
+        rows = np.flatnonzero(unsourced)
+        issues.caution(rows, label, f"the {_LIMIT_LABELS[kind]} of "
+                       + _format_each(values[rows], "g")
+                       + " ppm has no limit_source and is not used; say where it comes from "
+                       "(regulation, standard, company value)")
         limits[kind] = np.where(bad | unsourced, np.nan, values)
     return limits
 
 
-def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
-    """Resolve each distinct (liquid, basis) once; group rows of equal composition.
+@dataclass(frozen=True)
+class _ComponentSet:
+    """Liquids of the same components in the same order; compositions per row vary.
 
-    Returns the liquids and the group of each row (-1 where unusable).
+    `liquid` is one of them, for what depends on the components only (names,
+    bounds, methods, flammability limits); `fractions` holds the mole fractions of
+    every distinct composition, one row each.
+    """
+
+    liquid: Liquid
+    fractions: np.ndarray  # (compositions, components)
+
+
+_NO_LIQUID = ("no liquid given: enter a substance name, synonym or CAS number, or a "
+              "mixture such as 'toluene 60%, o-xylene 40%'")
+
+
+def _mixture_fractions(amounts: np.ndarray, components, basis: str):
+    """Mole fractions of many compositions of one component set, as `mole_fractions`.
+
+    Returns the fractions (k, n), the problem of each composition ("" if none) and
+    its note ("" if none), with the messages of `estimator.mixtures.mole_fractions`.
+    """
+    from .mixtures import SUM_NORMALISE_LIMIT, SUM_TOLERANCE
+
+    k = amounts.shape[0]
+    problem = _same_text(k, "")
+    note = _same_text(k, "")
+    total = amounts.sum(axis=1)
+    over = (amounts > 1.0 + SUM_TOLERANCE).any(axis=1)
+    problem[over] = "a fraction is above 100 %; give fractions of the whole"
+    off = ~over & (np.abs(total - 1.0) > SUM_NORMALISE_LIMIT)
+    if off.any():
+        problem[off] = [f"the {basis} fractions add up to {100 * t:.4g} %, "
+                        f"{100 * abs(t - 1.0):.3g} points {'over' if t > 1 else 'short of'} "
+                        "100 %; correct the composition" for t in total[off]]
+    scaled = ~over & ~off & (np.abs(total - 1.0) > SUM_TOLERANCE)
+    if scaled.any():
+        note[scaled] = [f"the {basis} fractions added up to {100 * t:.4g} %; they were "
+                        "scaled to 100 %" for t in total[scaled]]
+    a = amounts / total[:, None]
+    if basis == "mole":
+        return a, problem, note
+    if basis == "volume":
+        densities = [c.liquid_density for c in components]
+        if any(d is None for d in densities):
+            problem[problem == ""] = ("a volume-basis composition needs the liquid density "
+                                      "of every component")
+            return a, problem, note
+        a = a * np.array(densities, dtype=float)
+    moles = a / np.array([c.molar_mass for c in components])
+    return moles / moles.sum(axis=1, keepdims=True), problem, note
+
+
+def _resolve_liquids(texts, basis_words):
+    """Resolve distinct (liquid text, basis word) pairs into component sets.
+
+    Mixture texts are split once each; their components are looked up once per
+    name, and the compositions of each component set are converted to mole
+    fractions in one array operation (`_mixture_fractions`).
+
+    Returns
+    -------
+    sets : list of _ComponentSet
+    pair_set, pair_composition : numpy.ndarray
+        The set of each pair (-1 where unusable) and its composition in the set.
+    pair_problem : list
+        None, or (message, where) with where "liquid", "basis" or None (a formula,
+        reported elsewhere).
+    pair_note : numpy.ndarray
+        A note on the composition ("" if none), such as its scaling to 100 %.
+    """
+    pairs = len(texts)
+    pair_problem: list[tuple[str, object] | None] = [None] * pairs
+    pair_note = _same_text(pairs, "")
+    pair_set = np.full(pairs, -1, dtype=np.intp)
+    pair_composition = np.zeros(pairs, dtype=np.intp)
+    names: dict[str, object] = {}
+
+    def component(name: str):
+        if name not in names:
+            try:
+                names[name] = make_liquid(name, field="liquid component").components[0]
+            except InputError as exc:
+                names[name] = exc
+        return names[name]
+
+    pending: dict[tuple, list] = defaultdict(list)  # (keys, basis) -> [(pair, amounts, found)]
+    for k, (text, basis_word) in enumerate(zip(texts, basis_words)):
+        if text.startswith("=") or basis_word.startswith("="):
+            pair_problem[k] = ("", None)  # reported as a formula
+            continue
+        basis = _BASIS_WORDS.get(basis_word) if basis_word else "mass"
+        if not text:
+            pair_problem[k] = (_NO_LIQUID, "liquid")
+            continue
+        if basis is None:
+            pair_problem[k] = (f"{basis_word!r} is not a basis; use mole, mass or volume "
+                               "(blank means mass)", "basis")
+            continue
+        if "%" not in text:
+            found = component(text)
+            if isinstance(found, InputError):
+                pair_problem[k] = (found.reason, "liquid")
+                continue
+            pending[((found.key,), "mole")].append((k, np.ones(1), (found,)))
+            continue
+        parts = _mixture_parts(text)
+        if parts is None:
+            pair_problem[k] = (f"{text!r} cannot be read as a mixture: write each component "
+                               "as a name followed by its percentage, separated by commas, "
+                               "for example 'toluene 60%, o-xylene 40%'", "liquid")
+            continue
+        lowered = [name.lower() for name, _ in parts]
+        if len(set(lowered)) != len(lowered):
+            pair_problem[k] = ("a component is listed twice; give each component once",
+                               "liquid")
+            continue
+        found = [component(name) for name, _ in parts]
+        failed = next((f for f in found if isinstance(f, InputError)), None)
+        if failed is not None:
+            pair_problem[k] = (failed.reason, "liquid")
+            continue
+        keys = tuple(c.key for c in found)
+        if len(set(keys)) != len(keys):
+            pair_problem[k] = ("a component is listed twice (perhaps under two names)",
+                               "liquid")
+            continue
+        pending[(keys, basis)].append((k, np.array([a for _, a in parts]), tuple(found)))
+    sets: list[_ComponentSet] = []
+    set_index: dict[tuple, int] = {}
+    for (keys, basis), members in pending.items():
+        components = members[0][2]
+        members_pairs = np.array([m[0] for m in members])
+        x, problems, notes = _mixture_fractions(np.vstack([m[1] for m in members]),
+                                                components, basis)
+        if keys not in set_index:
+            set_index[keys] = len(sets)
+            liquid = make_liquid(components[0]) if len(components) == 1 else Liquid(
+                components, x[0], np.ones(len(components)))
+            sets.append(_ComponentSet(liquid, np.empty((0, len(components)))))
+        s_id = set_index[keys]
+        offset = sets[s_id].fractions.shape[0]
+        good = problems == ""
+        sets[s_id] = _ComponentSet(sets[s_id].liquid,
+                                   np.vstack([sets[s_id].fractions, x[good]]))
+        pair_set[members_pairs[good]] = s_id
+        pair_composition[members_pairs[good]] = offset + np.arange(int(good.sum()))
+        looked_up = "; ".join(n for c in components if c.origin == "lookup" for n in c.notes)
+        pair_note[members_pairs[good]] = ([f"{n}; {looked_up}" if n else looked_up
+                                           for n in notes[good]] if looked_up
+                                          else notes[good])
+        for m, problem in zip(members_pairs[~good], problems[~good]):
+            pair_problem[m] = (problem, "liquid")
+    return sets, pair_set, pair_composition, pair_problem, pair_note
+
+
+def _read_liquids(frame, roles, skip: np.ndarray, issues: _Issues):
+    """Resolve each distinct (liquid, basis) text once (`_resolve_liquids`).
+
+    Returns the component sets, the set of each row (-1 where unusable) and the
+    row's composition within its set.
     """
     n = len(frame)
     liquid_label = roles["liquid"]
     liquid_text, _ = _text_cells(frame[liquid_label])
     if "basis" in roles:
         basis_text, _ = _text_cells(frame[roles["basis"]])
-        basis_key = pd.Series(basis_text).str.lower().str.replace(" ", "").to_numpy(object)
+        basis_key = basis_text.str.lower().str.replace(" ", "")
     else:
-        basis_key = np.full(n, "", dtype=object)
+        basis_key = _same_text(n, "")
     liquid_codes, liquid_uniques = pd.factorize(liquid_text)
     basis_codes, basis_uniques = pd.factorize(basis_key)
     width = len(basis_uniques) + 1
     pair_codes, pair_uniques = pd.factorize(liquid_codes * width + basis_codes)
-    rows_of_pair = _rows_by_code(pair_codes, len(pair_uniques))
-    group_of_pair = np.full(len(pair_uniques), -1, dtype=np.intp)
-    groups: list[Liquid] = []
-    index: dict[tuple, int] = {}
-    for k, code in enumerate(pair_uniques):
-        text = liquid_uniques[code // width]
-        basis_word = basis_uniques[code % width]
-        rows = rows_of_pair[k]
-        if text.startswith("=") or basis_word.startswith("="):
-            continue  # reported as a formula
-        problem, label = None, liquid_label
-        basis = _BASIS_WORDS.get(basis_word) if basis_word else "mass"
-        if not text:
-            problem = ("no liquid given: enter a substance name, synonym or CAS number, or "
-                       "a mixture such as 'toluene 60%, o-xylene 40%'")
-        elif basis is None:
-            problem, label = (f"{basis_word!r} is not a basis; use mole, mass or volume "
-                              "(blank means mass)"), roles["basis"]
-        else:
-            try:
-                liq = parse_liquid(text, basis)
-            except InputError as exc:
-                problem = exc.reason
-        if problem is not None:
-            for i in rows[~skip[rows]]:
-                issues.error(i, label, problem)
+    liquid_uniques, basis_uniques = list(liquid_uniques), list(basis_uniques)
+    sets, pair_set, pair_composition, pair_problem, pair_note = _resolve_liquids(
+        [liquid_uniques[code // width] for code in pair_uniques],
+        [basis_uniques[code % width] for code in pair_uniques])
+    labels = {"liquid": liquid_label, "basis": roles.get("basis")}
+    # Rows of each pair with a problem or a note: one array call each.
+    order, edges = _group_order(pair_codes, len(pair_uniques))
+    for k in range(len(pair_uniques)):
+        if pair_problem[k] is None and not pair_note[k]:
             continue
-        key = _liquid_key(liq)
-        if key not in index:
-            index[key] = len(groups)
-            groups.append(liq)
-        group_of_pair[k] = index[key]
-        looked_up = [n for c in liq.components if c.origin == "lookup" for n in c.notes]
-        for note in (*liq.warnings, *looked_up):
-            for i in rows:
-                issues.caution(i, liquid_label, note)
-    return groups, group_of_pair[pair_codes]
+        rows = np.sort(order[edges[k]:edges[k + 1]])
+        if pair_problem[k] is not None:
+            problem, where = pair_problem[k]
+            if problem:
+                issues.error(rows[~skip[rows]], labels[where], problem)
+        else:
+            issues.caution(rows, liquid_label, pair_note[k])
+    return sets, pair_set[pair_codes], pair_composition[pair_codes]
 
 
 def _method_labels(liq: Liquid, method_nominal: np.ndarray, method_worst: np.ndarray,
@@ -1503,8 +2041,7 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
 
     _, liquid_blank = _text_cells(frame[roles["liquid"]])
     empty = _empty_rows(frame, liquid_blank)
-    for i in np.flatnonzero(empty):
-        issues.error(i, None, "the row is empty")
+    issues.error(np.flatnonzero(empty), None, "the row is empty")
     _read_formulas(frame, roles, issues)
     _read_containers(frame[roles["container"]], roles["container"], empty, issues, notes)
     temperatures, nominal, nominal_from, worst, worst_from = _read_temperatures(
@@ -1512,24 +2049,26 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
     _read_fill(frame, roles, issues)
     row_pressure = _read_pressures(frame, roles, units, file_pressure, issues)
     limits = _read_limits(frame, roles, issues)
-    groups, row_group = _read_liquids(frame, roles, empty, issues)
+    sets, row_set, row_composition = _read_liquids(frame, roles, empty, issues)
 
-    # Temperature limits of each liquid (melting point, critical point), per group.
-    row_group = np.where(issues.error_mask(n), -1, row_group)
-    for g, rows in enumerate(_rows_by_code(row_group, len(groups))):
+    # Temperature limits of each liquid (melting point, critical point), per set.
+    row_set = np.where(issues.error_mask(n), -1, row_set)
+    for g, rows in enumerate(_rows_by_code(row_set, len(sets))):
         if rows.size == 0:
             continue
-        bounds = _bounds(groups[g])
+        liq = sets[g].liquid
+        bounds = _bounds(liq)
         for column in temperatures.values():
             codes = _temperature_problems(bounds, column.kelvin[rows])
             codes[column.blank[rows]] = 0
-            for r, code in zip(rows[codes > 0], codes[codes > 0]):
-                issues.error(r, column.label, _temperature_message(
-                    int(code), column.values[r], column.unit, bounds, groups[g]))
+            for code in np.unique(codes[codes > 0]):
+                bad = rows[codes == code]
+                issues.error(bad, column.label, _temperature_messages(
+                    int(code), column.values[bad], column.unit, bounds, liq))
 
-    # Each group in one evaluation, at the liquid and the worst-case temperatures.
-    row_group = np.where(issues.error_mask(n), -1, row_group)
-    computed = row_group >= 0
+    # Each component set in one evaluation, at the liquid and worst-case temperatures.
+    row_set = np.where(issues.error_mask(n), -1, row_set)
+    computed = row_set >= 0
     result = {name: np.full(n, np.nan) for name in
               ("headspace_ppm", "worst_case_ppm", "worst_case_mg_per_m3",
                "worst_case_percent_lfl", "worst_case_oxygen_percent",
@@ -1540,16 +2079,19 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
     uncertainty_of = method_uncertainty()
     temperature_label = {i: roles.get(b) for i, b in enumerate(_TEMPERATURE_BASES)}
     evaluated = 0
-    for g, rows in enumerate(_rows_by_code(row_group, len(groups))):
+    for g, rows in enumerate(_rows_by_code(row_set, len(sets))):
         if rows.size == 0:
             continue
-        liq = groups[g]
-        evaluated += 1
+        liq = sets[g].liquid
+        used = sets[g].fractions[row_composition[rows]]  # (m, components)
+        evaluated += np.unique(np.round(sets[g].fractions[np.unique(row_composition[rows])],
+                                        12), axis=0).shape[0]
         m = rows.size
         differ = np.flatnonzero(worst[rows] != nominal[rows])
         t_all = np.concatenate([nominal[rows], worst[rows[differ]]])
         p_all = np.concatenate([row_pressure[rows], row_pressure[rows[differ]]])
-        res = _evaluate_liquid(liq, t_all, p_all)
+        weights = None if liq.is_pure else np.concatenate([used, used[differ]]).T
+        res = _evaluate_liquid(liq, t_all, p_all, weights)
         at = np.arange(m)
         at_worst = at.copy()
         at_worst[differ] = m + np.arange(differ.size)
@@ -1562,15 +2104,17 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
         has_fuel[rows] = any(c.lower_flammability_limit for c in liq.components)
         method_text[rows], result["vapor_pressure_uncertainty"][rows] = _method_labels(
             liq, res.method_index[:, at], res.method_index[:, at_worst], uncertainty_of)
-        for positions, source in ((at, nominal_from), (at_worst, worst_from)):
-            _group_cautions(liq, res, rows, positions, t_all, p_all, source[rows],
-                            temperature_label, issues)
+        _group_cautions(liq, res, rows, at, t_all, p_all, nominal_from[rows],
+                        temperature_label, issues)
+        # The worst case adds its own cautions where its temperature or column differs.
+        other = (at_worst != at) | (worst_from[rows] != nominal_from[rows])
+        _group_cautions(liq, res, rows[other], at_worst[other], t_all, p_all,
+                        worst_from[rows][other], temperature_label, issues)
         if any(c.lower_flammability_limit and not c.upper_flammability_limit
                for c in liq.components):
-            for r in rows:
-                issues.caution(r, roles["liquid"], "an upper flammability limit is missing "
-                               "for a flammable component; the too-rich state cannot be "
-                               "judged for it")
+            issues.caution(rows, roles["liquid"], "an upper flammability limit is missing "
+                           "for a flammable component; the too-rich state cannot be judged "
+                           "for it")
 
     # Limits, vapour hazard ratio and concern.
     with np.errstate(invalid="ignore", divide="ignore"):
@@ -1598,25 +2142,20 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
     rank = pd.Series(concern).rank(ascending=False, method="min").astype("Int64")
 
     # Status and reason: errors first, then cautions.
-    status = np.full(n, "ok", dtype=object)
-    reason = np.full(n, "", dtype=object)
-    for i, texts in issues.cautions.items():
-        status[i] = "warning"
-        reason[i] = "; ".join(dict.fromkeys(texts))
-    for i, texts in issues.errors.items():
-        status[i] = "error"
-        reason[i] = "; ".join(dict.fromkeys(texts + issues.cautions.get(i, [])))
+    status, reason = issues.assemble(n)
 
     # Rows left without a result always say why (a guard; every path above reports).
-    for i in np.flatnonzero(~computed & (status != "error")):
-        status[i] = "error"
-        reason[i] = f"line {lines[i]}: the row could not be computed"
+    unexplained = np.flatnonzero(~computed & (status != "error"))
+    if unexplained.size:
+        status[unexplained] = "error"
+        reason[unexplained] = ("line " + lines[unexplained].astype(str).astype(object)
+                               + ": the row could not be computed")
 
     def text(values):
         return pd.Series(values, index=frame.index, dtype=object)
 
     states = np.array(FLAMMABILITY_CODES + (None,), dtype=object)
-    added = pd.DataFrame({
+    columns_added = {
         "source_line": lines,
         "status": text(status),
         "reason": text(reason),
@@ -1638,73 +2177,119 @@ def _screen(frame: pd.DataFrame, columns: _Columns, file_pressure: float,
         "concern_rank": pd.Series(rank.to_numpy(), index=frame.index, dtype="Int64"),
         "vapor_pressure_method": text(method_text),
         "vapor_pressure_uncertainty": result["vapor_pressure_uncertainty"],
-    }, index=frame.index)
-    return pd.concat([frame, added], axis=1), evaluated, notes
+    }
+    del result, ratios
+    # Column by column, so that pandas keeps each array as it is instead of copying
+    # all float columns into one block (which would double their memory for a moment).
+    table = frame.copy(deep=False)
+    for name in OUTPUT_COLUMNS:
+        table[name] = columns_added.pop(name)
+    return table, evaluated, notes
 
 
 def _group_cautions(liq: Liquid, res: _LiquidArrays, rows: np.ndarray, positions: np.ndarray,
                     t_all: np.ndarray, p_all: np.ndarray, sources: np.ndarray,
                     source_labels: Mapping[int, object], issues: _Issues):
-    """Extrapolation and boiling cautions of one group at one of its temperatures.
+    """Extrapolation and boiling cautions of one set at one of its temperatures.
 
     `sources` says which temperature column each row's value came from.
     """
+    if rows.size == 0:
+        return
+
+    def by_source(mask, texts):
+        for source in np.unique(sources[mask]):
+            pick = sources[mask] == source
+            issues.caution(rows[mask][pick], source_labels[int(source)],
+                           texts if isinstance(texts, str) else texts[pick])
+
     extrapolated = res.extrapolated[:, positions]
-    for j in np.flatnonzero(extrapolated.any(axis=0)):
-        for c in np.flatnonzero(extrapolated[:, j]):
-            component = liq.components[c]
-            first = component.correlations[0]
-            issues.caution(rows[j], source_labels[int(sources[j])],
-                           f"{component.name}: {t_all[positions[j]]:.1f} K lies outside the "
-                           f"{first.tmin:.1f}-{first.tmax:.1f} K range of the "
-                           f"{METHODS[first.method]}; the value is an extrapolation")
-    for j in np.flatnonzero(res.boiling[positions]):
-        issues.caution(rows[j], source_labels[int(sources[j])],
-                       f"the liquid boils at this temperature and "
-                       f"{p_all[positions[j]] / 1000:.1f} kPa: the vapour pressure reaches the "
-                       "pressure of the space, which then holds essentially pure vapour "
-                       "(air displaced)")
+    for c in np.flatnonzero(extrapolated.any(axis=1)):
+        mask = extrapolated[c]
+        component = liq.components[c]
+        first = component.correlations[0]
+        by_source(mask, f"{component.name}: " + _format_each(t_all[positions[mask]], ".1f")
+                  + f" K lies outside the {first.tmin:.1f}-{first.tmax:.1f} K range of the "
+                  f"{METHODS[first.method]}; the value is an extrapolation")
+    boiling = res.boiling[positions]
+    if boiling.any():
+        by_source(boiling, "the liquid boils at this temperature and "
+                  + _format_each(p_all[positions[boiling]] / 1000, ".1f")
+                  + " kPa: the vapour pressure reaches the pressure of the space, which then "
+                  "holds essentially pure vapour (air displaced)")
     if not liq.is_pure:
         above = res.above_own_boiling[:, positions]
-        for j in np.flatnonzero(above.any(axis=0) & ~res.boiling[positions]):
-            names = ", ".join(liq.components[c].name for c in np.flatnonzero(above[:, j]))
-            issues.caution(rows[j], source_labels[int(sources[j])],
-                           f"{names} is above its own boiling point at this pressure; in an "
-                           "open vessel it would boil off")
+        flagged = above.any(axis=0) & ~boiling
+        if flagged.any():
+            combos, inverse = np.unique(above[:, flagged].T, axis=0, return_inverse=True)
+            inverse = np.asarray(inverse).ravel()
+            texts = np.array([", ".join(liq.components[c].name for c in np.flatnonzero(combo))
+                              + " is above its own boiling point at this pressure; in an "
+                              "open vessel it would boil off" for combo in combos],
+                             dtype=object)[inverse]
+            by_source(flagged, texts)
 
 
-def _temperature_message(code: int, value: float, unit: str, bounds: _Bounds,
-                         liq: Liquid) -> str:
-    shown = f"{value:g} {_TEMPERATURE_SCALES[unit]}"
+def _temperature_messages(code: int, values: np.ndarray, unit: str, bounds: _Bounds,
+                          liq: Liquid) -> np.ndarray:
+    """The message of one temperature problem code for many values (in the header unit)."""
+    shown = _format_each(values, "g") + f" {_TEMPERATURE_SCALES[unit]}"
     if code == 1:
-        return f"{shown} is not a finite number"
+        return shown + " is not a finite number"
     if code == 2:
-        return f"{shown} is at or below absolute zero; check the unit in the header"
+        return shown + " is at or below absolute zero; check the unit in the header"
     whose = "" if liq.is_pure else ", a component"
     if code == 3:
-        return (f"{shown} is above the critical temperature of {bounds.critical_name}{whose} "
-                f"({_format_temperature(bounds.critical, unit)}): no liquid can exist there")
+        return shown + (f" is above the critical temperature of {bounds.critical_name}{whose} "
+                        f"({_format_temperature(bounds.critical, unit)}): no liquid can exist "
+                        "there")
     if not liq.is_pure:
-        return (f"{shown} is below {_format_temperature(bounds.melting, unit)}, the lowest "
-                "temperature computed for this mixture: a component is taken as a subcooled "
-                "liquid at most 25 K below its own melting point, and some component must "
-                f"be above its own (the highest melting point is {bounds.melting_name}'s)")
-    return (f"{shown} is below the melting point of {bounds.melting_name}{whose} "
-            f"({_format_temperature(bounds.melting, unit)}): it would be solid; ullage does "
-            "not model sublimation")
+        return shown + (f" is below {_format_temperature(bounds.melting, unit)}, the lowest "
+                        "temperature computed for this mixture: a component is taken as a "
+                        "subcooled liquid at most 25 K below its own melting point, and some "
+                        "component must be above its own (the highest melting point is "
+                        f"{bounds.melting_name}'s)")
+    return shown + (f" is below the melting point of {bounds.melting_name}{whose} "
+                    f"({_format_temperature(bounds.melting, unit)}): it would be solid; "
+                    "ullage does not model sublimation")
 
 
 # ------------------------------------------------------------------------- writing
 
-_INJECTION_STARTS = ("=", "+", "-", "@", "\t", "\r")
-_PLAIN_NUMBER = re.compile(r"[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?")
+#: Rows converted and written per batch (bounds the memory the writer needs).
+_WRITE_BATCH = 100_000
 
 
-def _neutralise(value):
-    if (isinstance(value, str) and value.startswith(_INJECTION_STARTS)
-            and not _PLAIN_NUMBER.fullmatch(value)):
-        return "'" + value
-    return value
+def _arrow_column(column: pd.Series):
+    """One column as an Arrow array for the CSV writer, text cells neutralised.
+
+    Floats keep every digit (NaN is written as an empty cell); text and mixed
+    columns are written as text, as pandas would print each cell.
+    """
+    import pyarrow as pa
+
+    if pd.api.types.is_bool_dtype(column.dtype):
+        return pa.array(column.astype(str).to_numpy(dtype=object), type=pa.string())
+    if pd.api.types.is_numeric_dtype(column.dtype):
+        return pa.Array.from_pandas(column)
+    if column.dtype == object:
+        try:
+            array = pa.array(column.to_numpy(), type=pa.string(), from_pandas=True)
+        except (pa.ArrowInvalid, pa.ArrowTypeError):
+            array = pa.array(column.map(lambda v: None if _is_blank_value(v) else str(v))
+                             .to_numpy(), type=pa.string(), from_pandas=True)
+    elif _is_text_column(column):
+        array = pa.array(column.array)
+        if not pa.types.is_string(array.type) and not pa.types.is_large_string(array.type):
+            array = array.cast(pa.string())
+    else:
+        array = pa.array(column.astype(str).where(column.notna(), None).to_numpy(),
+                         type=pa.string(), from_pandas=True)
+    return neutralise_arrow(array)
+
+
+def _is_blank_value(value) -> bool:
+    return value is None or (isinstance(value, float) and math.isnan(value))
 
 
 def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
@@ -1713,10 +2298,16 @@ def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
     Text cells (and headers) beginning with =, +, -, @, a tab or a carriage return
     are prefixed with a single quote so that a spreadsheet shows them as text
     instead of running them as formulas; numbers, and text that is a plain number
-    such as "-5", are left alone. The file is written to a temporary file in the
-    same directory and then moved into place, so a reader never sees half a file.
-    UTF-8 with a byte-order mark, which spreadsheet programs recognise, and CRLF
-    line ends (RFC 4180).
+    such as "-5", are left alone (`estimator.files.neutralise_arrow`). Text cells
+    and headers are always quoted. The cautions come first, each on a line of its
+    own beginning with "# ", so that ``pandas.read_csv(path, comment="#")`` (or any
+    CSV reader told to skip comment lines) reads the table back, the header being
+    the first line that is not a comment. UTF-8 with a byte-order mark, which
+    spreadsheet programs recognise, and CRLF line ends (RFC 4180).
+
+    The file is written in batches to a temporary file beside the target, which
+    then replaces it (`estimator.files.atomic_writer`): a reader never sees half a
+    file, and no temporary file is left behind, whatever stops the write.
 
     Parameters
     ----------
@@ -1732,6 +2323,9 @@ def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
     pathlib.Path
         The path written.
     """
+    import pyarrow as pa
+    import pyarrow.csv as pa_csv
+
     frame = result.table if isinstance(result, InventoryScreening) else result
     if not isinstance(frame, pd.DataFrame):
         raise InputError("result", "give a screening result or its table")
@@ -1739,30 +2333,20 @@ def write_inventory_csv(result, path, *, cautions: bool = True) -> Path:
     directory = target.parent if str(target.parent) else Path(".")
     if not directory.is_dir():
         raise InputError("path", f"the folder for {target.name} does not exist")
-    safe = frame.copy()
-    safe.columns = [_neutralise(str(c)) for c in safe.columns]
-    for position in range(safe.shape[1]):
-        column = safe.iloc[:, position]
-        if _is_text_column(column):
-            safe.isetitem(position, column.astype(object).map(_neutralise))
-    descriptor, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp",
-                                             dir=directory)
-    try:
-        with os.fdopen(descriptor, "w", encoding="utf-8-sig", newline="") as handle:
-            if cautions:
-                writer = csv.writer(handle, lineterminator="\r\n")
-                for caution in CAUTIONS:
-                    writer.writerow([f"# {caution}"])
-            # CRLF line ends (RFC 4180) also make the writer quote cells holding a lone
-            # carriage return, which would otherwise split the row when read back.
-            safe.to_csv(handle, index=False, lineterminator="\r\n")
-            handle.flush()
-            os.fsync(handle.fileno())
-        mode = target.stat().st_mode & 0o777 if target.exists() else 0o644
-        os.chmod(temporary, mode)
-        os.replace(temporary, target)
-    except BaseException:
-        with contextlib.suppress(FileNotFoundError):
-            os.unlink(temporary)
-        raise
+    names = [neutralise_cell(str(c)) for c in frame.columns]
+    options = pa_csv.WriteOptions(include_header=False, eol="\r\n", quoting_style="needed",
+                                  batch_size=8192)
+    with atomic_writer(target, binary=True, field="path") as handle:
+        handle.write(codecs.BOM_UTF8)
+        if cautions:
+            for caution in CAUTIONS:
+                handle.write(("# " + " ".join(caution.split()) + "\r\n").encode("utf-8"))
+        header = io.StringIO()
+        csv.writer(header, lineterminator="\r\n", quoting=csv.QUOTE_ALL).writerow(names)
+        handle.write(header.getvalue().encode("utf-8"))
+        for start in range(0, len(frame), _WRITE_BATCH):
+            part = frame.iloc[start:start + _WRITE_BATCH]
+            arrays = [_arrow_column(part.iloc[:, k]) for k in range(part.shape[1])]
+            table = pa.Table.from_arrays(arrays, names=[f"c{k}" for k in range(len(arrays))])
+            pa_csv.write_csv(table, handle, options)
     return target

@@ -16,9 +16,8 @@ import html
 import io
 import json
 import math
-import os
+import os  # noqa: F401  (the atomic writer uses it through estimator.files)
 import re
-import tempfile
 import warnings
 from dataclasses import dataclass
 from pathlib import Path
@@ -26,6 +25,7 @@ from pathlib import Path
 import numpy as np
 
 from .errors import InputError
+from .files import neutralise_cell, write_text_atomic  # noqa: F401  (re-exported)
 
 __all__ = [
     "write_text_atomic",
@@ -41,8 +41,6 @@ __all__ = [
     "MAX_SERIES_POINTS",
     "monte_carlo_curves",
 ]
-
-_FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
 
 #: Format name -> file endings that select it.
 REPORT_FORMATS = {
@@ -62,54 +60,6 @@ MAX_SERIES_POINTS = 2000
 
 _NOT_SHOWN = "–"
 _NOT_XML = re.compile("[\x00-\x08\x0b\x0c\x0e-\x1f\x7f\ufffe\uffff]")
-
-
-def write_text_atomic(path, text: str) -> None:
-    """Write text to a file so that an interruption never leaves half a file.
-
-    The text goes to a temporary file in the same folder, which then replaces the
-    target in one step (os.replace).
-    """
-    target = Path(path)
-    folder = target.parent if str(target.parent) else Path(".")
-    if not folder.is_dir():
-        from .errors import InputError
-
-        raise InputError("output", f"the folder {str(folder)!r} does not exist; create it or "
-                         "choose another place to write")
-    fd, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=folder)
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as handle:
-            handle.write(text)
-        os.chmod(temporary, _file_mode(target))
-        os.replace(temporary, target)
-    except BaseException:
-        try:
-            os.unlink(temporary)
-        except OSError:
-            pass
-        raise
-
-
-def _file_mode(target: Path) -> int:
-    """Permissions for a written file: the old file's, else what a plain open gives."""
-    try:
-        return target.stat().st_mode & 0o777
-    except OSError:
-        mask = os.umask(0o022)
-        os.umask(mask)
-        return 0o666 & ~mask
-
-
-def neutralise_cell(value):
-    """Make a text cell inert in spreadsheets (formula injection): prefix a quote.
-
-    Text beginning with =, +, -, @, a tab or a carriage return would be run as a
-    formula by spreadsheet programs (OWASP, CSV injection). Numbers are left alone.
-    """
-    if isinstance(value, str) and value.startswith(_FORMULA_START):
-        return "'" + value
-    return value
 
 
 # ---------------------------------------------------------------------------

@@ -651,10 +651,34 @@ def _choose(substance, lo: float, hi: float, method: str | None):
             raise InputError("method", f"{substance.name} has no data for {method!r}; "
                              f"it has {list(available)}")
         return available[method]
-    for correlation in substance.correlations:
-        if correlation.tmin <= lo and hi <= correlation.tmax:
+    def reach(c):
+        return max(0.0, c.tmin - lo) + max(0.0, hi - c.tmax)
+
+    # The first correlation that covers the range. A fitted set a few kelvin short
+    # of it (one ending just below the critical point, say) extrapolates better
+    # than a Clausius-Clapeyron estimate from the boiling point: it is preferred
+    # within `EXTRAPOLATION_MARGIN`. With nothing near, the least extrapolation.
+    fitted = [c for c in substance.correlations if c.method in _FITTED]
+    for correlation in fitted:
+        if reach(correlation) == 0.0:
             return correlation
-    return substance.correlations[0]
+    for correlation in fitted:
+        if reach(correlation) <= EXTRAPOLATION_MARGIN:
+            return correlation
+    for correlation in substance.correlations:
+        if reach(correlation) == 0.0:
+            return correlation
+    return min(substance.correlations, key=reach)
+
+
+#: Methods fitted to measured vapour pressures (the others estimate from the boiling
+#: point).
+_FITTED = ("antoine", "dippr101", "clausius-clapeyron-fit")
+
+#: How far outside its range a correlation may be extrapolated before a better-covering
+#: method is preferred. [K] Chosen here: 10 K, within which the fitted sets of the
+#: table stay smooth and monotonic (checked by the property tests).
+EXTRAPOLATION_MARGIN = 10.0
 
 
 def vapor_pressure_estimate(substance, temperature, method: str | None = None,

@@ -201,8 +201,6 @@ INVENTORY = [
     ("empty file", "", "empty"),
     ("header only", INVENTORY_HEADER, "no data rows"),
     ("missing liquid column", "container,temperature_C\nT1,20\n", "liquid"),
-    ("temperature without unit in header", "container,liquid,temperature\nT1,toluene,20\n",
-     "temperature"),
 ]
 
 INVENTORY_ROWS = [
@@ -267,6 +265,16 @@ def test_inventory_rows(case):
     assert list(table["status"]) [0] == "error"
     assert fragment.lower() in table["reason"].iloc[0].lower()
     assert table["status"].iloc[1] in ("ok", "warning")
+
+
+def test_inventory_quantity_without_unit_in_cell():
+    """Header without a unit: a cell without one is refused for its row, naming the column."""
+    frame = pd.DataFrame({"container": ["T1", "T2"], "liquid": ["toluene"] * 2,
+                          "temperature": ["20", "20 degC"]})
+    table = screen_inventory(frame).table
+    assert table["status"].iloc[0] == "error"
+    assert "column 'temperature': '20' has no unit" in table["reason"].iloc[0]
+    assert table["status"].iloc[1] == "ok"
 
 
 def _latin1(path):

@@ -1,6 +1,7 @@
 """Whole-inventory screening: row accounting, agreement with the single-row model, files."""
 
 import csv
+import io
 import os
 import time
 import warnings
@@ -38,9 +39,10 @@ def _screen(frame, **kwargs):
 
 def _lines_after_cautions(path):
     with open(path, encoding="utf-8-sig", newline="") as handle:
-        rows = list(csv.reader(handle))
-    assert [r[0] for r in rows[:len(CAUTIONS)]] == [f"# {c}" for c in CAUTIONS]
-    return rows[len(CAUTIONS):]
+        text = handle.read()
+    lines = text.split("\r\n")
+    assert lines[:len(CAUTIONS)] == [f"# {c}" for c in CAUTIONS]
+    return list(csv.reader(io.StringIO("\r\n".join(lines[len(CAUTIONS):]), newline="")))
 
 
 # ----------------------------------------------------------------- row accounting
@@ -418,9 +420,10 @@ def test_empty_header_only_and_missing_columns(tmp_path):
     with pytest.raises(InputError, match="no temperature column.*rename 'temp_c'"):
         screen_inventory(no_temperature)
     unitless = pd.DataFrame({"container": ["A"], "liquid": ["toluene"], "temperature": [20]})
-    with pytest.raises(InputError, match="does not say its unit") as info:
-        screen_inventory(unitless)
-    assert info.value.field == "columns"
+    row = _screen(unitless).table.iloc[0]       # refused for the row, naming the column
+    assert row["status"] == "error"
+    assert "line 2, column 'temperature': 20 has no unit" in row["reason"]
+    assert "temperature_C" in row["reason"]
     clash = pd.DataFrame({"container": ["A"], "liquid": ["toluene"], "temperature_C": [20],
                           "Status": ["in use"]})
     with pytest.raises(InputError, match="'Status' is a column the screening writes"):
@@ -529,3 +532,269 @@ def test_subcooled_component_rows_are_computed():
     assert hs.ppm[0] == pytest.approx(single.total_ppm, rel=1e-9)
     single = headspace({"benzene": 0.05, "toluene": 0.95}, 273.15, basis="mass")
     assert hs.ppm[1] == pytest.approx(single.total_ppm, rel=1e-9)
+
+
+# ------------------------------------------------------------- inventory at scale
+
+def _cli(capsys, *argv):
+    from estimator.cli import main
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", UllageWarning)
+        code = main(["inventory", *map(str, argv)])
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def _small_file(path, rows=("T1,toluene,20", "T2,acetone,18")):
+    path.write_text("container,liquid,temperature_C\n" + "\n".join(rows) + "\n",
+                    encoding="utf-8")
+    return path
+
+
+def test_output_csv_reads_back_with_pandas_comment_lines(tmp_path):
+    """pandas.read_csv(out, comment="#") gives the table back: header first, every row and cell."""
+    frame = pd.DataFrame({
+        "container": ["Tank #3", "a,b \"quoted\"", "line\nbreak", "=evil", "-5", "plain"],
+        "liquid": ["toluene", "acetone", "toluene 60%, o-xylene 40%", "MEK", "tolune",
+                   "n-hexane"],
+        "temperature_C": [20.0, 18.0, 22.0, 25.0, 20.0, 15.0],
+        "note #": ["x", "", "# not a comment", "y", "z", "w"],
+    })
+    result = _screen(frame)
+    path = tmp_path / "out.csv"
+    write_inventory_csv(result, path)
+    with open(path, encoding="utf-8-sig") as handle:
+        head = [handle.readline().rstrip("\n") for _ in range(len(CAUTIONS))]
+    assert head == [f"# {c}" for c in CAUTIONS]          # the cautions stay in the file
+    back = pd.read_csv(path, comment="#", encoding="utf-8-sig", keep_default_na=False)
+    table = result.table
+    assert list(back.columns) == list(table.columns)
+    assert len(back) == len(table)
+    assert list(back["container"]) == ["Tank #3", "a,b \"quoted\"", "line\nbreak", "'=evil",
+                                       "-5", "plain"]
+    assert list(back["note #"]) == ["x", "", "# not a comment", "y", "z", "w"]
+    assert list(back["status"]) == list(table["status"])
+    assert list(back["reason"]) == list(table["reason"])
+    computed = table["status"] != "error"
+    for column in ("headspace_ppm", "worst_case_ppm", "concern", "worst_case_percent_lfl"):
+        # floats are written with every digit, so they read back exactly
+        np.testing.assert_array_equal(pd.to_numeric(back[column][computed]),
+                                      table[column][computed].to_numpy())
+    assert (back["headspace_ppm"][~computed] == "").all()
+
+
+def test_cli_exit_status_says_when_rows_were_not_computed(tmp_path, capsys):
+    """Rows not computed: exit 2 as for `run`, every row still in the output; else 0 (or 1)."""
+    bad = _small_file(tmp_path / "bad.csv", ("T1,toluene,20", "T2,tolune,20", "T3,acetone,x"))
+    out = tmp_path / "out.csv"
+    code, stdout, err = _cli(capsys, bad, "-o", out)
+    assert code == 2
+    assert "2 row(s) could not be computed" in err
+    back = pd.read_csv(out, comment="#", encoding="utf-8-sig")
+    assert list(back["container"]) == ["T1", "T2", "T3"]
+    assert list(back["status"]) == ["ok", "error", "error"]
+    good = _small_file(tmp_path / "good.csv")
+    assert _cli(capsys, good, "-o", out)[0] == 0
+    limits = tmp_path / "limits.csv"
+    limits.write_text("container,liquid,temperature_C,twa_ppm,limit_source\n"
+                      "T1,toluene,20,20,illustrative value\n", encoding="utf-8")
+    assert _cli(capsys, limits)[0] == 0
+    assert _cli(capsys, limits, "--signal-exceedance")[0] == 1
+
+
+def test_writer_failure_leaves_no_temporary_file(tmp_path, monkeypatch):
+    """A failure, Ctrl-C or SIGTERM inside the writer leaves the old file and no temporary."""
+    import signal
+
+    import pyarrow.csv
+
+    result = _screen(EXAMPLE)
+    path = tmp_path / "screened.csv"
+    path.write_text("previous", encoding="utf-8")
+    real = pyarrow.csv.write_csv
+
+    def half_then(error):
+        def write(table, handle, options):
+            real(table.slice(0, 2), handle, options)   # part of the file is on disk
+            if error == "sigterm":
+                os.kill(os.getpid(), signal.SIGTERM)
+            raise error
+        return write
+
+    for error, expected in ((OSError("disk full (simulated)"), OSError),
+                            (KeyboardInterrupt(), KeyboardInterrupt),
+                            ("sigterm", SystemExit)):
+        monkeypatch.setattr(pyarrow.csv, "write_csv", half_then(error))
+        with pytest.raises(expected):
+            write_inventory_csv(result, path)
+        assert os.listdir(tmp_path) == ["screened.csv"], error
+        assert path.read_text(encoding="utf-8") == "previous"
+    assert signal.getsignal(signal.SIGTERM) == signal.SIG_DFL   # handler restored
+    monkeypatch.undo()
+    write_inventory_csv(result, path)
+    assert os.listdir(tmp_path) == ["screened.csv"]
+
+
+def test_stale_temporary_files_of_killed_runs_are_cleared(tmp_path):
+    """Temporaries of a dead process are removed before writing; others are left alone."""
+    import subprocess
+    import sys
+
+    from estimator.files import PARTIAL_MARK
+
+    done = subprocess.run([sys.executable, "-c", "import os; print(os.getpid())"],
+                          capture_output=True, text=True, check=True)
+    dead = int(done.stdout)
+    stale = tmp_path / f".screened.csv{PARTIAL_MARK}{dead}-0123456789abcdef.tmp"
+    stale.write_bytes(b"x" * 1000)
+    live = tmp_path / f".screened.csv{PARTIAL_MARK}{os.getpid()}-fedcba9876543210.tmp"
+    live.write_bytes(b"in progress")
+    other = tmp_path / f".other.csv{PARTIAL_MARK}{dead}-0123456789abcdef.tmp"
+    other.write_bytes(b"another target")
+    mine = tmp_path / ".screened.csv.keep"
+    mine.write_bytes(b"user file")
+    write_inventory_csv(_screen(EXAMPLE), tmp_path / "screened.csv")
+    assert sorted(p.name for p in tmp_path.iterdir()) == sorted(
+        [live.name, other.name, mine.name, "screened.csv"])
+
+
+@pytest.mark.parametrize("codec, bom", [("utf-16", b""), ("utf-16-le", b""),
+                                        ("utf-16-be", b""), ("utf-32", b""),
+                                        ("utf-8", b"\xef\xbb\xbf")])
+def test_utf16_and_utf32_files_are_read(tmp_path, codec, bom):
+    """UTF-16/32 files (by byte-order mark, or by their zero bytes without one) read like UTF-8."""
+    text = "container;liquid;temperature_C\r\nCuve n°2;toluene;25,0\r\nCuve 3;acétone?;20\r\n"
+    path = tmp_path / "wide.csv"
+    path.write_bytes(bom + text.encode(codec))
+    table = _screen(path).table
+    assert list(table["container"]) == ["Cuve n°2", "Cuve 3"]
+    assert table["headspace_ppm"].iat[0] == pytest.approx(headspace("toluene", 298.15).total_ppm,
+                                                          rel=1e-12)
+    assert "line 3, column 'liquid'" in table["reason"].iat[1]
+
+
+def test_broken_utf16_is_named_as_utf16(tmp_path):
+    """A UTF-16 file with a broken character is called UTF-16, not a legacy encoding."""
+    path = tmp_path / "broken.csv"
+    path.write_bytes("container,liquid,temperature_C\nT1,toluene,20\n".encode("utf-16")
+                     + b"\x00\xd8T\x00")   # an unpaired high surrogate
+    with pytest.raises(InputError, match="not UTF-16 text") as info:
+        read_inventory(path)
+    assert "Latin-1" not in str(info.value) and "line 3" in str(info.value)
+    wide = tmp_path / "wide.csv"   # UTF-16 without a mark, text beyond ASCII
+    wide.write_bytes("contenant;liquide\nCuve n°2 – été;toluène\n".encode("utf-16-le"))
+    with pytest.raises(InputError, match="UTF-16 or UTF-32 text without a byte-order mark"):
+        read_inventory(wide)
+
+
+def test_size_option_and_size_text(tmp_path, capsys, monkeypatch):
+    """--max-size sets the limit of a local file (default far above the upload cap)."""
+    import estimator.inventory as inventory
+    from estimator.files import parse_size
+
+    assert parse_size("500 MB") == 500_000_000
+    assert parse_size("2GB") == 2_000_000_000
+    assert parse_size("1 GiB") == 2**30       # IEC 80000-13 binary prefix
+    for text, fragment in (("500", "has no unit"), ("5 parsecs", "not a unit of size"),
+                           ("lots", "not a size"), ("0 MB", "above zero")):
+        with pytest.raises(InputError, match=fragment) as info:
+            parse_size(text)
+        assert info.value.field == "--max-size"
+    path = _small_file(tmp_path / "inv.csv", [f"T{i},toluene,20" for i in range(200)])
+    code, _, err = _cli(capsys, path, "--max-size", "1 kB")
+    assert code == 2 and "above the 1000 bytes limit" in err and "--max-size" in err
+    assert _cli(capsys, path, "--max-size", "1 MB")[0] == 0
+    code, _, err = _cli(capsys, path, "--max-size", "300")
+    assert code == 2 and "--max-size" in err and "no unit" in err
+    monkeypatch.setattr(inventory, "MAX_FILE_BYTES", 1000)
+    with pytest.raises(InputError, match="1000 bytes limit"):
+        screen_inventory(path)                   # the API keeps the small default
+    assert screen_inventory(path, max_bytes=10_000).summary.rows == 200
+    assert _cli(capsys, path)[0] == 0            # the command line: LOCAL_FILE_BYTES
+    assert inventory.LOCAL_FILE_BYTES >= 100_000_000
+
+
+def test_summary_output_and_top(capsys, tmp_path):
+    """The terminal shows counts by concern, the --top rows by concern and every row not computed."""
+    result = _screen(EXAMPLE)
+    code, out, _ = _cli(capsys, EXAMPLE, "--top", "3", "-o", tmp_path / "o.csv")
+    assert code == 2
+    assert "Highest concern (3 of 11 rows)" in out
+    ranked = sorted_by_concern(result).head(3)
+    body = out.split("Highest concern", 1)[1].split("Not computed", 1)[0].splitlines()[2:5]
+    assert [int(line.split()[1]) for line in body] == list(ranked["source_line"])
+    assert [int(line.split()[0]) for line in body] == [1, 2, 3]
+    failed = result.table[result.table["status"] == "error"]
+    assert f"Not computed ({len(failed)} row(s))" in out
+    for container, reason in zip(failed["container"], failed["reason"]):
+        assert f"{container}: {reason}" in out
+    bands = {}
+    for line in out.split("Concern in the worst case", 1)[1].splitlines()[1:6]:
+        label, count = line.rsplit(None, 1)
+        bands[label.strip()] = int(count)
+    assert sum(bands.values()) == result.summary.rows
+    assert bands["1 or more (a limit or alarm reached)"] == result.summary.at_or_above_alarm
+    assert CAUTIONS[0] in out
+    # a large file: the terminal holds the summary, not the table
+    rows = [f"Bay {i},{'toluene' if i % 2 else 'acetone'},{10 + i % 30}" for i in range(3000)]
+    big = _small_file(tmp_path / "big.csv", rows)
+    code, out, _ = _cli(capsys, big, "--top", "5", "-o", tmp_path / "big_out.csv")
+    assert code == 0 and len(out.splitlines()) < 40
+    assert "Every row, with its reasons, is in" in out
+    assert len(pd.read_csv(tmp_path / "big_out.csv", comment="#")) == 3000
+    assert _cli(capsys, big, "--top", "-1")[0] == 2
+
+
+def test_distinct_blends_each_equal_the_single_row_model():
+    """Blends differing on every row are parsed once each and equal headspace() row by row."""
+    rng = np.random.default_rng(11)
+    shares = rng.integers(100, 9900, 300) / 100.0
+    liquids = [f"toluene {a:.2f}%, o-xylene {100 - a:.2f}%" for a in shares]
+    bases = rng.choice(["mass", "mole", "volume"], 300)
+    liquids[5] = "toluene 60%, o-xylene 39.5%"           # 99.5 %: scaled, with a caution
+    liquids[6] = "toluene 60%, o-xylene 20%"             # 80 %: refused
+    liquids[7] = "o-xylene 40%, toluene 60%"             # another order of components
+    frame = pd.DataFrame({"container": [f"B{i}" for i in range(300)], "liquid": liquids,
+                          "basis": bases, "temperature_C": rng.uniform(15, 40, 300).round(1)})
+    result = _screen(frame)
+    table = result.table
+    for i in rng.choice(np.arange(8, 300), 25, replace=False).tolist() + [5, 7]:
+        parts = dict(reversed(p.rsplit(" ", 1)) for p in liquids[i].split(", "))
+        spec = {name: float(share.rstrip("%")) / 100 for share, name in parts.items()}
+        total = sum(spec.values())
+        spec = {k: v / total for k, v in spec.items()}
+        single = headspace(spec, frame["temperature_C"].iat[i] + 273.15, basis=bases[i])
+        assert table["headspace_ppm"].iat[i] == pytest.approx(single.total_ppm, rel=1e-12)
+    mass_rows = np.flatnonzero((bases == "mass") & (np.arange(300) > 7))
+    core = headspace_arrays([liquids[i] for i in mass_rows],
+                            frame["temperature_C"].to_numpy()[mass_rows] + 273.15)
+    np.testing.assert_allclose(core.ppm, table["headspace_ppm"].to_numpy()[mass_rows],
+                               rtol=1e-12)
+    assert table["status"].iat[5] == "warning" and "scaled to 100 %" in table["reason"].iat[5]
+    assert table["status"].iat[6] == "error" and "20 points short" in table["reason"].iat[6]
+    assert result.summary.liquids == len({(liquids[i], bases[i]) for i in range(300)} - {
+        (liquids[6], bases[6])})
+
+
+def test_cells_carry_their_unit_under_a_header_without_one():
+    """Headers without a unit take a unit in every cell; a bare number is refused for its row."""
+    frame = pd.DataFrame({
+        "container": list("ABCDE"), "liquid": ["toluene"] * 5,
+        "temperature": ["77 degF", "298.15 K", "25", "25 degC", "25 kg"],
+        "pressure": ["95 kPa", "", "", "1 atm", ""],
+        "elevation": ["", "1200 ft", "", "", ""],
+    })
+    table = _screen(frame).table
+    assert list(table["status"]) == ["ok", "ok", "error", "ok", "error"]
+    # 77 degF = 25 degC exactly (NIST SP 811); 1200 ft = 365.76 m (international foot)
+    assert table["headspace_ppm"].iat[0] == pytest.approx(
+        headspace("toluene", 298.15, 95000.0).total_ppm, rel=1e-12)
+    assert table["vapor_space_pressure_pa"].iat[1] == pytest.approx(
+        barometric_pressure(365.76), rel=1e-12)
+    assert table["vapor_space_pressure_pa"].iat[3] == pytest.approx(101325.0)
+    assert "column 'temperature': '25' has no unit" in table["reason"].iat[2]
+    assert "column 'temperature'" in table["reason"].iat[4]
+    numbers_header = pd.DataFrame({"container": ["A"], "liquid": ["toluene"],
+                                   "temperature_C": ["25 degC"]})
+    assert _screen(numbers_header).table["status"].iat[0] == "ok"   # header unit repeated
