@@ -40,6 +40,7 @@ from .mixtures import Liquid, liquid
 from .headspace import headspace, temperature_for_concentration
 from .evaporation import evaporation_rate
 from .indoor import well_mixed_room
+from .sds import read_sds
 from .scenario import load_scenario, loads_scenario
 from .screening import run_scenario
 
@@ -61,6 +62,7 @@ __all__ = [
     "temperature_for_concentration",
     "evaporation_rate",
     "well_mixed_room",
+    "read_sds",
     "load_scenario",
     "loads_scenario",
     "run_scenario",
