@@ -344,13 +344,15 @@ class SdsReading:
         method = ("composition from the safety data sheet's ranges: each component's "
                   f"{model.basis} fraction drawn uniformly within its stated range, "
                   "independently, and every sample scaled to sum to 100 % (so the "
-                  "ranges describe relative amounts)" + model.treatment_words())
+                  "ranges describe relative amounts, and scaling can carry a sample a "
+                  "little outside a stated range; point='worst' keeps every range)"
+                  + model.treatment_words())
         return liq, MappingProxyType(spec), method
 
     def monte_carlo(self, temperature, pressure=STANDARD_ATMOSPHERE, *, unidentified="inert",
                     **kwargs):
         """`estimator.uncertainty.headspace_monte_carlo` with the ranges as composition
-        uncertainty; the method is stated in the result's notes."""
+        uncertainty; the method is stated first in the result's warnings."""
         from .uncertainty import headspace_monte_carlo
 
         liq, spec, method = self.composition_ranges(unidentified)
@@ -360,7 +362,9 @@ class SdsReading:
                              "sampled; give the ranges by mass")
         result = headspace_monte_carlo(liq, temperature, pressure, composition=dict(spec),
                                        composition_basis=basis, **kwargs)
-        return type(result)(**{**result.__dict__, "notes": (method,) + tuple(result.notes)})
+        from dataclasses import replace
+
+        return replace(result, warnings=(method,) + tuple(result.warnings))
 
     def cross_check(self, unidentified="inert", pressure=STANDARD_ATMOSPHERE
                     ) -> tuple[SdsCheck, ...]:
@@ -674,6 +678,11 @@ def _basis_of(text: str) -> str | None:
 
 
 def _name(text: str) -> str:
+    text = re.sub(r"^\s*(?:chemical|substance|component|ingredient|product)?\s*name\s*:\s*",
+                  "", text.strip(), flags=re.I)
+    text = re.sub(r"(?:\s+|\|)(?:trade\s*secret|proprietary|withheld|confidential|"
+                  r"not\s+(?:available|disclosed)|n/?a|-)\s*[|;]?\s*$", "", text.strip(),
+                  flags=re.I)
     text = re.sub(r"\b(?:CAS(?:[- ]?(?:No|Number|RN|#))?\.?|EC(?:[- ]?No)?\.?|"
                   r"Index(?:[- ]?No)?\.?)\s*[:#]?\s*$", "", text.strip(), flags=re.I)
     text = re.sub(r"[|;:\t]+", " ", text)
@@ -692,9 +701,10 @@ def _composition(lines: list[str], notes: list[str]):
                      "or mole: taken as mass % (what safety data sheets usually give)")
     need_percent = "%" in section and bool(re.search(rf"{_NUM}\s*%", section))
     found, unknown = [], []
+    used: set[int] = set()
     for k, raw in enumerate(lines):
         line = raw.strip()
-        if not line:
+        if not line or k in used:
             continue
         cas_match = [m for m in _CAS.finditer(line)]
         if cas_match:
@@ -705,6 +715,8 @@ def _composition(lines: list[str], notes: list[str]):
             j = k + 1
             while hit is None and j < min(k + 3, len(lines)) and not _CAS.search(lines[j]):
                 hit = _find_range(_strip_noise(lines[j]), need_percent)
+                if hit is not None:
+                    used.add(j)
                 j += 1
             name = _name(before)
             if not name:
@@ -846,7 +858,12 @@ def _properties(lines: list[str], notes: list[str]) -> dict:
                  lower_flammability_limit=None, upper_flammability_limit=None, density=None)
 
     def following(i):
-        return lines[i + 1].strip() if i + 1 < len(lines) else ""
+        """The next line, when this one holds only the label (a two-line layout)."""
+        part = lines[i].split(":", 1)[1] if ":" in lines[i] else ""
+        if part.strip() or i + 1 >= len(lines):
+            return ""
+        nxt = lines[i + 1].strip()
+        return "" if any(p.search(nxt) for p in _LABELS.values()) else nxt
 
     for i, raw in enumerate(lines):
         line = raw.strip()
@@ -1312,7 +1329,9 @@ class _Model:
         lo_band, hi_band = low / (1 + u), high * (1 + u)
         agrees = lo_band <= p_sheet <= hi_band
         tolerance = (f"the span over the composition ranges widened by the stated "
-                     f"uncertainty of the vapour-pressure methods (±{100 * u:.3g} %)")
+                     f"uncertainty of the vapour-pressure methods (±{100 * u:.3g} %); "
+                     "Raoult's law for an ideal solution unless activity coefficients are "
+                     "given (mixtures with water or alcohols can deviate)")
         model_words = (f"{model / 1000:.3g} kPa at the midpoints ({low / 1000:.3g}-"
                        f"{high / 1000:.3g} kPa over the ranges)")
         if agrees:

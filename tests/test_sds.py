@@ -1,0 +1,384 @@
+"""Safety data sheets: every field of each invented sheet, the worst case against brute
+force, the cross-check, the ranges in the Monte Carlo, and the PDF route.
+
+The sheets in tests/data/sds/ are invented products of invented suppliers at invented
+sites; their CAS numbers are real and their property values plausible for the
+components. Expected values are what each sheet says, converted with the unit
+definitions (NIST SP 811, 2008 edition, Appendix B): 1 mmHg = 133.322387 Pa,
+1 psi = 6894.757 Pa, 1 lb = 0.45359237 kg, 1 US gal = 3.785411784 L,
+°F = 1.8 °C + 32.
+"""
+
+import itertools
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+import estimator
+from estimator.headspace import headspace
+from estimator.limits import exposure_limit
+from estimator.sds import (FLASH_POINT_TOLERANCE, WATER_DENSITY_20C, cas_checksum_ok,
+                           read_sds, resolve_cas)
+from sds_pdf import text_pdf
+
+DATA = Path(__file__).resolve().parent / "data" / "sds"
+MMHG = 133.322387415
+PSI = 6894.757293168
+LB_PER_GAL = 0.45359237 / 3.785411784e-3
+
+
+def c(celsius):
+    return celsius + 273.15
+
+
+def f(fahrenheit):
+    return (fahrenheit - 32.0) / 1.8 + 273.15
+
+
+# sheet -> every field: product, layout, basis, components (cas, name, low, high),
+# unidentified (cas, name, low, high), flash point, (T, p), boiling point, LFL, UFL,
+# density
+EXPECTED = {
+    "reach-thinner.txt": dict(
+        product="Harbourline Thinner 210", layout="section 3", basis="mass",
+        components=[("108-88-3", "Toluene", 0.40, 0.60),
+                    ("123-86-4", "n-Butyl acetate", 0.20, 0.30),
+                    ("141-78-6", "Ethyl acetate", 0.10, 0.20)],
+        unidentified=[], flash_point=c(2), vapor_pressure=(c(20), 3800.0),
+        boiling_point=c(77), lfl=0.012, ufl=0.078, density=870.0),
+    "hazcom-degreaser.txt": dict(
+        product="QuickStrip Degreaser 44", layout="section 3", basis="mass",
+        components=[("67-63-0", "Isopropyl alcohol", 0.50, 0.70),
+                    ("67-64-1", "Acetone", 0.10, 0.20),
+                    ("142-82-5", "n-Heptane", 0.0, 0.01)],
+        unidentified=[("", "Proprietary surfactant blend", 0.01, 0.05),
+                      ("", "remainder not listed on the sheet", 0.04, 0.39)],
+        flash_point=f(35), vapor_pressure=(f(68), 60 * MMHG), boiling_point=f(133),
+        lfl=0.020, ufl=0.127, density=0.79 * WATER_DENSITY_20C),
+    "older-cleaner.txt": dict(
+        product="Brightwell Parts Cleaner PC-3", layout="section 2", basis="mass",
+        components=[("78-93-3", "Methyl ethyl ketone", 0.10, 0.30),
+                    ("108-88-3", "Toluene", 0.60, 0.80),
+                    ("67-56-1", "Methanol", 0.0, 0.05)],
+        unidentified=[], flash_point=f(21), vapor_pressure=(f(68), 0.86 * PSI),
+        boiling_point=f(176), lfl=0.012, ufl=0.075, density=7.2 * LB_PER_GAL),
+    "xylene-blend.txt": dict(
+        product="Ferncliff Aromatic Solvent X", layout="section 3", basis="mass",
+        components=[("1330-20-7", "Xylene (mixed isomers)", 0.75, 0.90),
+                    ("100-41-4", "Ethylbenzene", 0.10, 0.25)],
+        unidentified=[], flash_point=c(24), vapor_pressure=(c(20), 850.0),
+        boiling_point=c(137), lfl=0.010, ufl=0.070, density=0.865 * WATER_DENSITY_20C),
+    "resin-coating.txt": dict(
+        product="Tidewater Epoxy Topcoat Part A", layout="section 3", basis="mass",
+        components=[("1330-20-7", "Xylene", 0.10, 0.20),
+                    ("123-86-4", "n-Butyl acetate", 0.05, 0.10)],
+        unidentified=[("", "Proprietary modified resin", 0.05, 0.10),
+                      ("9004-70-0", "Nitrocellulose", 0.20, 0.30),
+                      ("64742-95-6", "Solvent naphtha (petroleum), light arom", 0.10, 0.20),
+                      ("", "remainder not listed on the sheet", 0.10, 0.50)],
+        flash_point=c(27), vapor_pressure=(c(20), 1000.0), boiling_point=c(126),
+        lfl=None, ufl=None, density=1200.0),
+    "mislabelled-acetate.txt": dict(
+        product="Orchard Row Butyl Acetate 98", layout="section 3", basis="mass",
+        components=[("123-86-4", "n-Butyl acetate", 0.95, 1.00),
+                    ("78-83-1", "Isobutanol", 0.0, 0.02)],
+        unidentified=[], flash_point=f(72), vapor_pressure=(f(68), 80 * MMHG),
+        boiling_point=f(259), lfl=0.012, ufl=0.075, density=0.88 * WATER_DENSITY_20C),
+    "sanitiser-volume.txt": dict(
+        product="Meadowgate Hand Rub 70", layout="section 3", basis="volume",
+        components=[("64-17-5", "Ethanol", 0.60, 0.70), ("67-63-0", "Propan-2-ol", 0.05, 0.10),
+                    ("7732-18-5", "Water", 0.20, 0.35)],
+        unidentified=[], flash_point=c(21), vapor_pressure=(c(20), 4000.0),
+        boiling_point=c(80), lfl=0.033, ufl=0.19, density=870.0),
+    "stripper-pdf.txt": dict(
+        product="Kestrel Paint Stripper 9", layout="section 3", basis="mass",
+        components=[("75-09-2", "Dichloromethane", 0.60, 0.80),
+                    ("67-56-1", "Methanol", 0.05, 0.15), ("108-88-3", "Toluene", 0.10, 0.20)],
+        unidentified=[("", "Confidential thickener", 0.01, 0.03)],
+        flash_point=None, vapor_pressure=(c(20), 35000.0), boiling_point=c(40),
+        lfl=0.060, ufl=0.36, density=1.22 * WATER_DENSITY_20C),
+}
+
+
+def check_fields(reading, expected):
+    assert reading.product == expected["product"]
+    assert reading.layout == expected["layout"]
+    assert reading.basis == expected["basis"]
+    got = [(i.cas, i.name, i.low, i.high) for i in reading.components]
+    assert [g[:2] for g in got] == [e[:2] for e in expected["components"]]
+    for g, e in zip(got, expected["components"]):
+        assert g[2:] == pytest.approx(e[2:], abs=1e-12)
+    got = [(i.cas, i.name, i.low, i.high) for i in reading.unidentified]
+    assert [g[:2] for g in got] == [e[:2] for e in expected["unidentified"]]
+    for g, e in zip(got, expected["unidentified"]):
+        assert g[2:] == pytest.approx(e[2:], abs=1e-9)
+    assert all(i.basis == expected["basis"] for i in reading.components + reading.unidentified)
+    for name, key in (("flash_point", "flash_point"), ("boiling_point", "boiling_point"),
+                      ("lower_flammability_limit", "lfl"),
+                      ("upper_flammability_limit", "ufl"), ("density", "density")):
+        value = getattr(reading, name)
+        if expected[key] is None:
+            assert value is None, name
+        else:
+            assert value == pytest.approx(expected[key], rel=1e-9), name
+    if expected["vapor_pressure"] is None:
+        assert reading.vapor_pressure is None
+    else:
+        assert reading.vapor_pressure == pytest.approx(expected["vapor_pressure"], rel=1e-9)
+
+
+@pytest.mark.parametrize("name", sorted(EXPECTED))
+def test_every_field_of_each_sheet(name):
+    """Each invented sheet reads to exactly what it says, in SI units."""
+    check_fields(read_sds(DATA / name), EXPECTED[name])
+
+
+def test_at_least_eight_sheets():
+    """Eight or more sheets, every one of them checked."""
+    files = sorted(p.name for p in DATA.glob("*.txt"))
+    assert len(files) >= 8 and files == sorted(EXPECTED)
+
+
+def test_pasted_text_reads_like_the_file():
+    """Text pasted in reads the same as the .txt file."""
+    path = DATA / "hazcom-degreaser.txt"
+    pasted = read_sds(path.read_text(encoding="utf-8"))
+    check_fields(pasted, EXPECTED["hazcom-degreaser.txt"])
+    assert pasted.source == "pasted text"
+
+
+def test_pdf_made_from_text(tmp_path):
+    """A PDF with a text layer, written in the test, reads like its text."""
+    text = (DATA / "stripper-pdf.txt").read_text(encoding="utf-8")
+    path = tmp_path / "stripper.pdf"
+    path.write_bytes(text_pdf(text))
+    reading = read_sds(path)
+    check_fields(reading, EXPECTED["stripper-pdf.txt"])
+    assert reading.source == "stripper.pdf"
+    assert "Kestrel" in reading.text
+    check_fields(read_sds(path.read_bytes()), EXPECTED["stripper-pdf.txt"])
+
+
+def test_several_pages_of_pdf(tmp_path):
+    """Composition and properties on different pages of a PDF are both found."""
+    text = (DATA / "reach-thinner.txt").read_text(encoding="utf-8")
+    reading = read_sds(text_pdf(text, lines_per_page=12))
+    check_fields(reading, EXPECTED["reach-thinner.txt"])
+
+
+def test_trade_secret_kept_with_its_range():
+    """A trade-secret line is never dropped: it is an unidentified share, said in the notes."""
+    r = read_sds(DATA / "hazcom-degreaser.txt")
+    secret = r.unidentified[0]
+    assert secret.reason == "withheld as a trade secret" and secret.cas == ""
+    assert any("trade secret" in n for n in r.notes)
+    shares = r.screen("mid").fractions
+    assert shares["Proprietary surfactant blend"] > 0
+
+
+def test_unknown_cas_kept_as_unidentified():
+    """A CAS number the property data do not know stays, with its share and a note."""
+    r = read_sds(DATA / "resin-coating.txt")
+    assert resolve_cas("64742-95-6") is None  # a petroleum stream, not one compound
+    naphtha = [i for i in r.unidentified if i.cas == "64742-95-6"][0]
+    assert naphtha.reason == "CAS number not known to the property data"
+    assert any("64742-95-6" in n and "unidentified" in n for n in r.notes)
+
+
+def test_isomer_mixture_split_and_merged():
+    """Mixed xylenes split by the stated default; ethylbenzene listed too is merged."""
+    r = read_sds(DATA / "xylene-blend.txt")
+    assert any("isomer mixture" in n and "ATSDR" in n for n in r.notes)
+    liq = r.liquid("mid")
+    keys = [s.key for s in liq.components]
+    assert sorted(keys) == ["ethylbenzene", "m-xylene", "o-xylene", "p-xylene"]
+    mass = dict(zip(keys, liq.mass_fractions))
+    # midpoints 82.5 % xylene and 17.5 % ethylbenzene (sum 100 %): m-xylene 44 % of it,
+    # ethylbenzene 16 % of the xylene plus its own line
+    assert mass["m-xylene"] == pytest.approx(0.44 * 0.825, rel=1e-9)
+    assert mass["ethylbenzene"] == pytest.approx(0.16 * 0.825 + 0.175, rel=1e-9)
+
+
+def test_check_digits():
+    """CAS check digits (CAS registry rule): toluene right, a typo wrong."""
+    assert cas_checksum_ok("108-88-3") and cas_checksum_ok("7732-18-5")
+    assert not cas_checksum_ok("108-88-4")
+    sheet = ("3. COMPOSITION/INFORMATION ON INGREDIENTS\nToluene 108-88-4 90 - 100 %\n"
+             "Acetone 67-64-1 0 - 10 %\n")
+    r = read_sds(sheet)
+    assert r.unidentified[0].cas == "108-88-4"
+    assert any("check digit" in n for n in r.notes)
+
+
+# ----------------------------------------------------------------- midpoints
+
+def test_midpoints_are_normalised():
+    """point='mid' uses the midpoints scaled to 100 % (MEK 20, toluene 70, methanol 2.5)."""
+    r = read_sds(DATA / "older-cleaner.txt")
+    liq = r.liquid("mid")
+    total = 0.20 + 0.70 + 0.025
+    assert dict(zip(liq.names, liq.mass_fractions)) == pytest.approx(
+        {"Methyl ethyl ketone": 0.20 / total, "Toluene": 0.70 / total,
+         "Methanol": 0.025 / total}, rel=1e-9)
+    assert any("normalised midpoints" in w for w in liq.warnings)
+
+
+def test_inert_and_surrogate_are_said():
+    """Unidentified shares are inert by default or a chosen surrogate, and results say so."""
+    r = read_sds(DATA / "resin-coating.txt")
+    inert = r.liquid("mid")
+    assert "Unidentified share (taken as inert)" in inert.names
+    hs = headspace(inert, c(20))
+    k = inert.names.index("Unidentified share (taken as inert)")
+    assert float(hs.partial_pressures[k]) == 0.0
+    assert any("taken as inert" in w for w in hs.warnings)
+    cumene = r.liquid("mid", unidentified="cumene")
+    assert "Cumene" in cumene.names
+    assert any("taken as Cumene" in w for w in headspace(cumene, c(20)).warnings)
+    # a volatile surrogate raises the vapour the inert default leaves out
+    assert headspace(cumene, c(20)).total_ppm > hs.total_ppm
+
+
+# ----------------------------------------------------------------- worst case
+
+def _ranges_sheet(lines):
+    rows = "\n".join(f"{name}  {cas}  {lo:g} - {hi:g} %" for name, cas, lo, hi in lines)
+    return f"SECTION 3: Composition/information on ingredients\n{rows}\n"
+
+
+def _grid_maximum(keys, lows, highs, temperature, measure, steps=101):
+    """Brute force: every grid composition within the ranges that sums to 100 %."""
+    best, best_w = -np.inf, None
+    axes = [np.linspace(lo, hi, steps) for lo, hi in zip(lows[:-1], highs[:-1])]
+    for head in itertools.product(*axes):
+        last = 1.0 - sum(head)
+        if not lows[-1] - 1e-12 <= last <= highs[-1] + 1e-12:
+            continue
+        w = dict(zip(keys, list(head) + [last]))
+        value = measure(headspace(w, temperature, basis="mass"))
+        if value > best:
+            best, best_w = value, w
+    return best, best_w
+
+
+@pytest.mark.parametrize("lines,temperature", [
+    ([("Acetone", "67-64-1", 20, 60), ("Toluene", "108-88-3", 40, 80)], c(20)),
+    ([("n-Hexane", "110-54-3", 5, 30), ("Ethanol", "64-17-5", 40, 70),
+      ("n-Butyl acetate", "123-86-4", 10, 40)], c(15)),
+])
+def test_worst_case_against_brute_force(lines, temperature):
+    """The linear programme finds the grid's highest % LFL, within the ranges."""
+    r = read_sds(_ranges_sheet(lines))
+    worst = r.screen("worst", temperature=temperature)
+    keys = [resolve_cas(cas).key for _, cas, _, _ in lines]
+    lows = [lo / 100 for _, _, lo, _ in lines]
+    highs = [hi / 100 for _, _, _, hi in lines]
+    best, _ = _grid_maximum(keys, lows, highs, temperature, lambda hs: float(hs.percent_lfl),
+                            steps=201 if len(lines) == 2 else 61)
+    assert worst.value >= best * (1 - 1e-9)
+    assert worst.value <= best * 1.01  # the grid is close to the optimum
+    chosen = list(worst.fractions.values())
+    assert sum(chosen) == pytest.approx(1.0)
+    for value, lo, hi in zip(chosen, lows, highs):
+        assert lo - 1e-9 <= value <= hi + 1e-9
+    assert float(headspace(worst.liquid, temperature).percent_lfl) == pytest.approx(worst.value)
+    assert worst.value >= float(headspace(r.liquid("mid"), temperature).percent_lfl)
+    assert worst.objective == "headspace % LFL"
+    assert any("worst case within the ranges" in n for n in worst.notes)
+
+
+def test_worst_case_for_the_exposure_index_against_brute_force():
+    """With limits, the worst case maximises the additive index (29 CFR 1910.1000(d)(2)(i))."""
+    lines = [("Acetone", "67-64-1", 30, 70), ("Toluene", "108-88-3", 30, 70)]
+    r = read_sds(_ranges_sheet(lines))
+    limits = [exposure_limit("acetone", "TWA", 250, "ppm", "illustrative"),
+              exposure_limit("toluene", "TWA", 20, "ppm", "illustrative")]
+    worst = r.screen("worst", temperature=c(25), limits=limits)
+
+    def index(hs):
+        y = dict(zip([s.key for s in hs.liquid.components], hs.volume_fractions))
+        return float(y["acetone"] / 250e-6 + y["toluene"] / 20e-6)
+
+    best, best_w = _grid_maximum(["acetone", "toluene"], [0.3, 0.3], [0.7, 0.7], c(25),
+                                 index, steps=401)
+    assert worst.objective == "additive exposure index (TWA)"
+    assert worst.value == pytest.approx(best, rel=1e-3)
+    assert best_w["toluene"] == pytest.approx(0.7)  # toluene's limit is the lower
+    # % LFL alone would pick the other end: more acetone
+    assert read_sds(_ranges_sheet(lines)).screen("worst", temperature=c(25)).fractions[
+        "Acetone (67-64-1)"] == pytest.approx(0.7)
+
+
+# ----------------------------------------------------------------- cross-check
+
+def test_cross_check_flags_a_contradicting_sheet():
+    """80 mmHg for ~98 % n-butyl acetate, ten times its 1.1 kPa at 20 degC, is flagged."""
+    checks = {ck.quantity: ck for ck in read_sds(DATA / "mislabelled-acetate.txt").cross_check()}
+    vp = checks["vapour pressure"]
+    assert vp.agrees is False and "DISAGREES" in vp.statement
+    # n-butyl acetate near 20 degC: about 1.2 kPa (CRC Handbook, 97th ed., vapour pressure
+    # of organic compounds; from memory 10 mmHg at 20 degC)
+    assert 900.0 < vp.model < 1500.0
+    assert checks["flash point"].agrees is True  # 22 degC closed cup (NFPA 497: 22 degC)
+
+
+def test_cross_check_agrees_for_a_consistent_sheet():
+    """The thinner's own 38 hPa and 2 degC fit its composition."""
+    checks = read_sds(DATA / "reach-thinner.txt").cross_check()
+    assert [ck.agrees for ck in checks] == [True, True]
+    assert all(ck.model_low <= ck.model <= ck.model_high for ck in checks)
+
+
+def test_flash_point_tolerance_catches_a_unit_mix_up():
+    """A flash point written in °F but labelled °C (the thinner's 2 °C as 36 °C) is flagged."""
+    text = (DATA / "reach-thinner.txt").read_text(encoding="utf-8").replace(
+        "Flash point: 2 °C", "Flash point: 36 °C")
+    check = [ck for ck in read_sds(text).cross_check() if ck.quantity == "flash point"][0]
+    assert check.agrees is False and FLASH_POINT_TOLERANCE == 10.0
+
+
+def test_cross_check_mentions_the_inert_assumption():
+    """A gap with unidentified shares taken as inert says they may be volatile."""
+    vp = read_sds(DATA / "resin-coating.txt").cross_check()[0]
+    assert vp.agrees is False and "taken as inert" in vp.statement
+
+
+# ----------------------------------------------------------------- Monte Carlo
+
+def test_ranges_feed_the_monte_carlo():
+    """Samples drawn within the ranges and normalised; % LFL within the corners' span."""
+    r = read_sds(DATA / "reach-thinner.txt")
+    result = r.monte_carlo(c(20), n=4000, seed=3, include_method_uncertainty=False)
+    assert "drawn uniformly within its stated range" in result.warnings[0]
+    toluene = result.input_samples["mass_fraction[Toluene]"]
+    total = 0.4 + 0.2 + 0.1
+    assert toluene.min() >= 0.4 / (0.6 + 0.3 + 0.2) - 1e-9
+    assert toluene.max() <= 0.6 / total + 1e-9
+    # a linear-fractional function over a box peaks at a corner: every corner of the
+    # ranges, normalised, bounds the samples
+    corners = [dict(zip(["toluene", "n-butyl acetate", "ethyl acetate"], v))
+               for v in itertools.product((0.4, 0.6), (0.2, 0.3), (0.1, 0.2))]
+    values = [float(headspace({k: x / sum(w.values()) for k, x in w.items()}, c(20),
+                              basis="mass").percent_lfl) for w in corners]
+    sampled = result.outputs["percent_lfl"]
+    assert min(values) * (1 - 1e-6) <= float(sampled.min())
+    assert float(sampled.max()) <= max(values) * (1 + 1e-6)
+    mid = float(headspace(r.liquid("mid"), c(20)).percent_lfl)
+    assert float(np.median(sampled)) == pytest.approx(mid, rel=0.02)
+
+
+# ----------------------------------------------------------------- scenario block
+
+def test_toml_block_round_trips_into_a_scenario(tmp_path):
+    """The [[liquid]] block written for a sheet loads, keeping its ranges."""
+    r = read_sds(DATA / "hazcom-degreaser.txt")
+    block = r.to_toml("degreaser")
+    scenario = estimator.loads_scenario(
+        '[scenario]\ntitle = "t"\n' + block +
+        '[[tank]]\nname = "T1"\nliquid = "degreaser"\ntemperature = "20 degC"\n')
+    spec = scenario.liquids["degreaser"]["spec"]
+    mid = r.screen("mid")
+    got = {s.key: v for s, v in spec.items()}
+    want = {s.key: float(v) for s, v in zip(mid.liquid.components, mid.liquid.mass_fractions)}
+    assert got == pytest.approx(want, rel=1e-9)
