@@ -382,3 +382,36 @@ def test_toml_block_round_trips_into_a_scenario(tmp_path):
     got = {s.key: v for s, v in spec.items()}
     want = {s.key: float(v) for s, v in zip(mid.liquid.components, mid.liquid.mass_fractions)}
     assert got == pytest.approx(want, rel=1e-9)
+
+
+def test_scenario_with_the_sheet_text_and_the_worst_case():
+    """A scenario keeps the sheet's text; point = "worst" screens at its tank's temperature."""
+    from estimator.scenario import dumps_scenario, loads_scenario
+    from estimator.screening import run_scenario
+
+    text = (DATA / "older-cleaner.txt").read_text(encoding="utf-8")
+    doc = {"scenario": {"title": "t"},
+           "liquid": [{"name": "cleaner", "sds_text": text, "point": "worst"}],
+           "tank": [{"name": "T1", "liquid": "cleaner", "temperature": "30 degC"}]}
+    scenario = loads_scenario(dumps_scenario(doc))
+    assert any("worst case within the ranges screened at 30.0 degC" in a
+               for a in scenario.assumptions)
+    spec = {s.key: v for s, v in scenario.liquids["cleaner"]["spec"].items()}
+    worst = read_sds(text).screen("worst", temperature=c(30))
+    assert spec == pytest.approx({s.key: float(v) for s, v in zip(
+        worst.liquid.components, worst.liquid.mass_fractions)}, rel=1e-9)
+    result = run_scenario(scenario)
+    assert float(result.tanks[0].headspace.percent_lfl) == pytest.approx(worst.value, rel=1e-6)
+    again = loads_scenario(dumps_scenario(scenario))
+    assert again.document["liquid"][0]["sds_text"] == text
+
+
+def test_scenario_with_a_surrogate():
+    """unidentified_as names the surrogate for unidentified shares."""
+    from estimator.scenario import loads_scenario
+
+    block = read_sds(DATA / "stripper-pdf.txt").to_toml("stripper", unidentified="toluene")
+    scenario = loads_scenario('[scenario]\ntitle = "t"\n' + block)
+    keys = [s.key for s in scenario.liquids["stripper"]["spec"]]
+    assert "unidentified-inert" not in keys and "toluene" in keys
+    assert any("taken as Toluene" in a for a in scenario.assumptions)
