@@ -522,8 +522,7 @@ def _text_of(source) -> tuple[str, str]:
         data, name = bytes(source), "the sheet"
     elif isinstance(source, Path) or (isinstance(source, str) and "\n" not in source
                                       and len(source) < 1024
-                                      and re.search(r"\.(txt|pdf|text)$", source.strip(),
-                                                    re.IGNORECASE)):
+                                      and re.search(r"\.[A-Za-z0-9]{1,5}$", source.strip())):
         path = Path(source)
         name = path.name
         if path.suffix.lower() not in (".txt", ".pdf", ".text"):

@@ -415,3 +415,22 @@ def test_scenario_with_a_surrogate():
     keys = [s.key for s in scenario.liquids["stripper"]["spec"]]
     assert "unidentified-inert" not in keys and "toluene" in keys
     assert any("taken as Toluene" in a for a in scenario.assumptions)
+
+
+def test_command_line_reads_and_writes_the_block(tmp_path, capsys):
+    """`ullage sds FILE -o liquid.toml`: what was read, the cross-check, the cautions,
+    and a block that loads in a scenario."""
+    from estimator.cli import main
+    from estimator.scenario import loads_scenario
+
+    target = tmp_path / "liquid.toml"
+    code = main(["sds", str(DATA / "mislabelled-acetate.txt"), "-o", str(target),
+                 "--name", "acetate", "--point", "worst"])
+    out = capsys.readouterr().out
+    assert code == 0
+    assert "n-Butyl acetate" in out and "DISAGREES" in out
+    assert all(caution in " ".join(out.split()) for caution in estimator.CAUTIONS)
+    block = target.read_text(encoding="utf-8")
+    assert 'point = "worst"' in block and '123-86-4 = ["95 %", "100 %"]' in block
+    scenario = loads_scenario('[scenario]\ntitle = "t"\n' + block)
+    assert "acetate" in scenario.liquids
