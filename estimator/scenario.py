@@ -471,7 +471,7 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
             from .sds import scenario_liquid
 
             try:
-                spec, entry["basis"], notes = scenario_liquid(
+                sheet_entry, notes = scenario_liquid(
                     v, doc, base_dir, lambda k: partial.resolve(k, "ranges"),
                     f"[[liquid]] #{i + 1}")
             except InputError as exc:
@@ -479,7 +479,7 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
                                         "unidentified_as") if k in exc.field), from_sheet[0])
                 raise ScenarioError(r.where("liquid", i, key), exc.reason) from None
             r.assumptions.extend(notes)
-            entry.update(kind="liquid", spec=spec)
+            entry.update(kind="liquid", **sheet_entry)
         elif "substance" in v:
             entry.update(kind="liquid", spec=resolve("liquid", i, "substance", v["substance"]))
         elif "components" in v:

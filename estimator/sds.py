@@ -1523,8 +1523,11 @@ def scenario_liquid(values: dict, document, base_dir, resolve, field: str):
 
     Returns
     -------
-    (dict, str, list of str)
-        Substance -> fraction on the basis, the basis, and the assumptions.
+    (dict, list of str)
+        The liquid entry's keys (``spec`` substance -> fraction on ``basis``, and
+        ``composition``, ``composition_basis`` and ``composition_method``, the
+        ranges as composition uncertainty for a Monte Carlo run), and the
+        assumptions.
     """
     point = values.get("point", "mid")
     if point not in POINTS:
@@ -1559,5 +1562,13 @@ def scenario_liquid(values: dict, document, base_dir, resolve, field: str):
     liq = chosen.liquid
     notes += [f"liquid {name!r}: {w}" for w in liq.warnings]
     if reading.basis == "mass":
-        return dict(zip(liq.components, (float(v) for v in liq.mass_fractions))), "mass", notes
-    return dict(zip(liq.components, (float(v) for v in liq.mole_fractions))), "mole", notes
+        entry = {"spec": dict(zip(liq.components, (float(v) for v in liq.mass_fractions))),
+                 "basis": "mass"}
+    else:
+        entry = {"spec": dict(zip(liq.components, (float(v) for v in liq.mole_fractions))),
+                 "basis": "mole"}
+    if reading.basis in ("mass", "mole") and len(liq.components) > 1:
+        _, ranges, method = reading.composition_ranges(treat)
+        entry.update(composition=dict(ranges), composition_basis=reading.basis,
+                     composition_method=method)
+    return entry, notes

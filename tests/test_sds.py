@@ -434,3 +434,22 @@ def test_command_line_reads_and_writes_the_block(tmp_path, capsys):
     assert 'point = "worst"' in block and '123-86-4 = ["95 %", "100 %"]' in block
     scenario = loads_scenario('[scenario]\ntitle = "t"\n' + block)
     assert "acetate" in scenario.liquids
+
+
+def test_scenario_monte_carlo_samples_the_ranges():
+    """A tank of a sheet's liquid with an uncertain temperature also samples the ranges."""
+    from estimator.scenario import loads_scenario
+    from estimator.screening import run_scenario
+
+    block = read_sds(DATA / "reach-thinner.txt").to_toml("thinner")
+    scenario = loads_scenario(
+        '[scenario]\ntitle = "t"\n' + block + '[[tank]]\nname = "T1"\nliquid = "thinner"\n'
+        'temperature = "20 degC"\n[[uncertain]]\nitem = "T1"\ninput = "temperature"\n'
+        'distribution = { uniform = ["18 degC", "22 degC"] }\n'
+        '[monte_carlo]\nsamples = 2000\nseed = 5\n')
+    mc = run_scenario(scenario).tanks[0].monte_carlo
+    assert "mass_fraction[Toluene]" in mc.inputs
+    assert any("drawn uniformly within its stated range" in w
+               for w in run_scenario(scenario).tanks[0].warnings)
+    toluene = mc.input_samples["mass_fraction[Toluene]"]
+    assert 0.4 / 1.1 - 1e-9 <= toluene.min() and toluene.max() <= 0.6 / 0.7 + 1e-9
