@@ -43,6 +43,9 @@ __all__ = [
     "FLASH_POINT_TOLERANCE",
     "WATER_DENSITY_20C",
     "POINTS",
+    "reading_from_ranges",
+    "scenario_liquid",
+    "sheet_path",
 ]
 
 #: Largest sheet read, text or PDF. [bytes] A safety data sheet is 10-20 pages.
@@ -1485,6 +1488,38 @@ def _ranges_reading(ranges, unlisted, basis, resolve, field) -> SdsReading:
                        for i in components)
     return SdsReading(None, tuple(named) + components, unidentified, None, None, None, None,
                       None, None, tuple(notes), "ranges", "", "scenario ranges")
+
+
+def reading_from_ranges(ranges, unlisted=None, basis: str = "mass", *, properties=None,
+                        product=None, text: str = "", source: str = "edited reading"
+                        ) -> SdsReading:
+    """A reading from ranges a user has checked or edited (the browser's tables).
+
+    Parameters
+    ----------
+    ranges : mapping
+        CAS number or substance name -> (low, high) fractions. [-]
+    unlisted : mapping, optional
+        Name -> (low, high) of shares with no identity. [-]
+    basis : str
+        "mass", "volume" or "mole".
+    properties : mapping, optional
+        Section-9 values in SI: flash_point, vapor_pressure (T, p), boiling_point,
+        lower_flammability_limit, upper_flammability_limit, density.
+    """
+    from dataclasses import replace
+
+    from .substances import substance
+
+    if basis not in ("mass", "volume", "mole"):
+        raise InputError("composition basis", f"{basis!r} is not a basis; use mass, volume "
+                         "or mole")
+    reading = _ranges_reading(ranges, unlisted, basis,
+                              lambda k: substance(k, "ingredient"), "ingredient")
+    values = {k: v for k, v in (properties or {}).items() if k in (
+        "flash_point", "vapor_pressure", "boiling_point", "lower_flammability_limit",
+        "upper_flammability_limit", "density")}
+    return replace(reading, product=product, text=text, source=source, **values)
 
 
 def _screening_temperature(name: str, document) -> tuple[float, str]:

@@ -201,6 +201,7 @@ LIQUID_PREFIXES = ("tank", "indoor", "outdoor")
 LIQUID_DEFAULTS = {"tank": "toluene", "indoor": "acetone", "outdoor": "toluene"}
 LIQUID_KINDS = {"table": "One substance from the table", "mixture": "A mixture",
                 "own": "My own substance (SDS values)",
+                "sds": "From a safety data sheet (paste or upload)",
                 "water": "Water with dissolved solvents"}
 
 LIMIT_COLUMNS = ["substance", "kind", "value", "unit", "source"]
@@ -336,6 +337,10 @@ def _substance_label(sub) -> str:
 
 
 def _set_liquid(state, prefix: str, entry: dict, scenario) -> None:
+    from ui import sds_input
+
+    if sds_input.set_from_scenario(state, prefix, entry, scenario):
+        return
     kind = entry["kind"]
     state[key(f"{prefix}.liquid_name")] = entry["name"]
     state[key(f"{prefix}.find")] = ""
@@ -629,6 +634,10 @@ def liquid_item(state, prefix: str) -> tuple[dict, list[str]]:
     kind = state.get(key(f"{prefix}.kind"), "table")
     named = str(state.get(key(f"{prefix}.liquid_name")) or "").strip()
     problems = []
+    if kind == "sds":
+        from ui import sds_input
+
+        return sds_input.liquid_item(state, prefix)
     if kind == "own":
         name = own_substance(state)["name"]
         return {"name": named or name, "substance": name}, problems
@@ -838,7 +847,7 @@ def uncertainty_unavailable(state, study: str) -> str | None:
     if study == "tank" and kind == "water":
         return ("Probabilistic screening is not available for water with dissolved "
                 "solvents; it covers liquids and their mixtures.")
-    if study == "indoor" and kind == "mixture":
+    if study == "indoor" and kind in ("mixture", "sds"):
         return ("Probabilistic screening of a spill covers one substance: a mixture's pool "
                 "changes composition as it evaporates, which the sampled room model does not "
                 "follow.")
