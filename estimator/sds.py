@@ -76,6 +76,16 @@ ISOMER_MIXTURES = MappingProxyType({
         "typical commercial mixed xylene: 44 % m-, 20 % o-, 20 % p-xylene and 16 % "
         "ethylbenzene (ATSDR Toxicological Profile for Xylene, 2007, chapter 4; from "
         "memory)"),
+    "25551-13-7": (
+        "trimethylbenzene, mixed isomers",
+        (("95-63-6", 1 / 3), ("108-67-8", 1 / 3), ("526-73-8", 1 / 3)),
+        "equal parts of 1,2,4-, 1,3,5- and 1,2,3-trimethylbenzene (a stated convention: "
+        "sheets rarely give the split; ask the supplier)"),
+    "25340-17-4": (
+        "diethylbenzene, mixed isomers",
+        (("135-01-3", 1 / 3), ("141-93-5", 1 / 3), ("105-05-5", 1 / 3)),
+        "equal parts of o-, m- and p-diethylbenzene (a stated convention: sheets rarely "
+        "give the split; ask the supplier)"),
 })
 
 _CAS = re.compile(r"(?<![\d-])(\d{2,7}-\d{2}-\d)(?![\d-])")

@@ -453,3 +453,74 @@ def test_scenario_monte_carlo_samples_the_ranges():
                for w in run_scenario(scenario).tanks[0].warnings)
     toluene = mc.input_samples["mass_fraction[Toluene]"]
     assert 0.4 / 1.1 - 1e-9 <= toluene.min() and toluene.max() <= 0.6 / 0.7 + 1e-9
+
+
+# ----------------------------------------------------------------- formats
+
+def _one(composition_line, property_line=""):
+    return read_sds("SECTION 3: Composition/information on ingredients\n"
+                    f"{composition_line}\nSECTION 9: Physical and chemical properties\n"
+                    f"{property_line}\n")
+
+
+@pytest.mark.parametrize("text,low,high", [
+    ("Toluene 108-88-3 40 - 60 %", 0.40, 0.60),
+    ("Toluene 108-88-3 10-30", 0.10, 0.30),
+    ("Toluene 108-88-3 99-100", 0.99, 1.00),
+    ("Toluene 108-88-3 < 1 %", 0.0, 0.01),
+    ("Toluene 108-88-3 ≤ 5", 0.0, 0.05),
+    ("Toluene 108-88-3 ≥ 50 - < 70", 0.50, 0.70),
+    ("Toluene 108-88-3 >=50 - <=70 %", 0.50, 0.70),
+    ("Toluene 108-88-3 25 %", 0.25, 0.25),
+    ("Toluene 108-88-3 12,5 %", 0.125, 0.125),
+    ("Toluene 108-88-3 30 to 40 %", 0.30, 0.40),
+    ("108-88-3 Toluene 40–60 %", 0.40, 0.60),
+])
+def test_range_styles(text, low, high):
+    """Every range style the issue lists reads to its fractions."""
+    item = _one(text).components[0]
+    assert (item.cas, item.low, item.high) == ("108-88-3", pytest.approx(low),
+                                               pytest.approx(high))
+    assert item.name == "Toluene"
+
+
+@pytest.mark.parametrize("line,field,value", [
+    ("Flash point: 7 °C (closed cup)", "flash_point", c(7)),
+    ("Flash point: 72 °F (22 °C) TCC", "flash_point", f(72)),
+    ("Flash point: -4 °C", "flash_point", c(-4)),
+    ("Flash point  45 deg F", "flash_point", f(45)),
+    ("Vapour pressure: 2.9 kPa at 20 °C", "vapor_pressure", (c(20), 2900.0)),
+    ("Vapour pressure: 29 hPa (20 °C)", "vapor_pressure", (c(20), 2900.0)),
+    ("Vapour pressure: 29 mbar at 20 °C", "vapor_pressure", (c(20), 2900.0)),
+    ("Vapor pressure: 22 mmHg @ 68 °F", "vapor_pressure", (f(68), 22 * MMHG)),
+    ("Vapor pressure: 0.42 psi at 100 °F", "vapor_pressure", (f(100), 0.42 * PSI)),
+    ("Vapour pressure: 2900 Pa at 20 °C", "vapor_pressure", (c(20), 2900.0)),
+    ("Lower explosion limit: 1.1 % (V)", "lower_flammability_limit", 0.011),
+    ("Upper explosion limit: 12.8 %(V)", "upper_flammability_limit", 0.128),
+    ("Flammability limits: Lower 1.7 Upper 7.6", "upper_flammability_limit", 0.076),
+    ("Explosive limits: 1.2 - 7.1 vol %", "lower_flammability_limit", 0.012),
+    ("Density: 870 kg/m3", "density", 870.0),
+    ("Density: 0.87 g/ml at 20 °C", "density", 870.0),
+    ("Specific gravity (water = 1): 0.87", "density", 0.87 * WATER_DENSITY_20C),
+    ("Initial boiling point and boiling range: 110 - 140 °C", "boiling_point", c(110)),
+])
+def test_property_formats(line, field, value):
+    """Flash points, vapour pressures (kPa, hPa, mbar, mmHg, psi, Pa; °C or °F),
+    flammability limits and densities in the forms the issue lists."""
+    got = getattr(_one("Toluene 108-88-3 100 %", line), field)
+    assert got == pytest.approx(value, rel=1e-9)
+
+
+def test_missing_values_are_none_and_said():
+    """A property the sheet does not give is None, with a note; 'not available' is no value."""
+    r = _one("Toluene 108-88-3 100 %", "Flash point: not available")
+    assert r.flash_point is None and r.vapor_pressure is None and r.density is None
+    assert any("no flash point" in n for n in r.notes)
+    assert not any("could not read the flash point" in n for n in r.notes)
+
+
+def test_unreadable_property_line_is_noted():
+    """A property line with a value that cannot be read is kept in the notes."""
+    r = _one("Toluene 108-88-3 100 %", "Vapour pressure: see technical data sheet 4")
+    assert r.vapor_pressure is None
+    assert any("could not read the vapour pressure" in n for n in r.notes)
