@@ -1093,6 +1093,9 @@ def inert_substance(molar_mass: float, liquid_density: float | None) -> Substanc
         key="unidentified-inert", name="Unidentified share (taken as inert)", cas="",
         molar_mass=float(molar_mass), boiling_point=math.inf,
         liquid_density=liquid_density, correlations=(_NonVolatile(),),
+        # it gives off no vapour, so its diffusion coefficient never matters; a
+        # typical solvent's Fuller volume keeps the evaporation models whole
+        diffusion_volume=100.0,
         sources=MappingProxyType({"all": "unidentified share of a safety data sheet, taken "
                                   "as a non-volatile, non-flammable diluent"}),
         origin="user")
@@ -1585,6 +1588,8 @@ def scenario_liquid(values: dict, document, base_dir, resolve, field: str):
         except InputError as exc:
             raise InputError(f"{field} unidentified_as", exc.reason) from None
     name = values["name"]
+    if "sds" in values:
+        path = sheet_path(values["sds"], base_dir, f"{field} sds")
     if "ranges" in values or "unlisted" in values:
         reading = _ranges_reading(values.get("ranges"), values.get("unlisted"),
                                   values.get("basis", "mass"), resolve, field)
@@ -1593,7 +1598,6 @@ def scenario_liquid(values: dict, document, base_dir, resolve, field: str):
         reading = read_sds(values["sds_text"], source=f"the sheet text of {name!r}")
         origin = "the sheet text kept in the file"
     else:
-        path = sheet_path(values["sds"], base_dir, f"{field} sds")
         reading = read_sds(path)
         origin = f"the sheet {values['sds']}"
     notes = [f"liquid {name!r}: composition from {origin}"]
@@ -1606,6 +1610,9 @@ def scenario_liquid(values: dict, document, base_dir, resolve, field: str):
         chosen = reading.screen("mid", unidentified=treat)
     liq = chosen.liquid
     notes += [f"liquid {name!r}: {w}" for w in liq.warnings]
+    if reading.vapor_pressure is not None or reading.flash_point is not None:
+        notes += [f"liquid {name!r}: {ck.statement}" for ck in reading.cross_check(treat)
+                  if ck.agrees is False]
     if reading.basis == "mass":
         entry = {"spec": dict(zip(liq.components, (float(v) for v in liq.mass_fractions))),
                  "basis": "mass"}

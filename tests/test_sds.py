@@ -524,3 +524,14 @@ def test_unreadable_property_line_is_noted():
     r = _one("Toluene 108-88-3 100 %", "Vapour pressure: see technical data sheet 4")
     assert r.vapor_pressure is None
     assert any("could not read the vapour pressure" in n for n in r.notes)
+
+
+def test_scenario_says_when_the_sheet_disagrees():
+    """A scenario liquid from a contradicting sheet carries the disagreement in its
+    assumptions, so every report shows it."""
+    from estimator.scenario import loads_scenario
+
+    text = (DATA / "mislabelled-acetate.txt").read_text(encoding="utf-8")
+    scenario = loads_scenario('[scenario]\ntitle = "t"\n[[liquid]]\nname = "a"\n'
+                              f'sds_text = """{text}"""\n')
+    assert any("Vapour pressure DISAGREES" in a for a in scenario.assumptions)
