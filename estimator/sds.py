@@ -648,9 +648,15 @@ def _fraction(value: str) -> float:
     return _number(value) / 100.0
 
 
-def _find_range(text: str, need_percent: bool):
-    """(low, high, matched text) of a concentration range in `text`, or None."""
-    for pattern in (_RANGE, _UPPER, _LOWER, _SINGLE):
+def _find_range(text: str, need_percent: bool, allow_single: bool = True):
+    """(low, high, matched text) of a concentration range in `text`, or None.
+
+    With `need_percent`, only values with a % sign count; a bare single number
+    counts only with `allow_single`.
+    """
+    patterns = (_RANGE, _UPPER, _LOWER, _SINGLE) if allow_single or need_percent \
+        else (_RANGE, _UPPER, _LOWER)
+    for pattern in patterns:
         for m in pattern.finditer(text):
             d = m.groupdict()
             has_percent = bool(d.get("p") or d.get("p1") or d.get("p2"))
@@ -711,7 +717,8 @@ def _composition(lines: list[str], notes: list[str]):
     if section_basis is None:
         notes.append("the sheet does not say whether its percentages are by mass, volume "
                      "or mole: taken as mass % (what safety data sheets usually give)")
-    need_percent = "%" in section and bool(re.search(rf"{_NUM}\s*%", section))
+    # a table whose values carry no % sign (the unit in its header) is read without
+    need_percent = bool(re.search(rf"{_NUM}\s*%", section))
     found, unknown = [], []
     used: set[int] = set()
     for k, raw in enumerate(lines):
@@ -723,10 +730,12 @@ def _composition(lines: list[str], notes: list[str]):
             m = cas_match[0]
             before, after = line[:m.start()], line[m.end():]
             cleaned = _strip_noise(_CAS.sub(" ", after))
-            hit = _find_range(cleaned, need_percent)
+            hit = _find_range(cleaned, True) or _find_range(cleaned, False)
             j = k + 1
             while hit is None and j < min(k + 3, len(lines)) and not _CAS.search(lines[j]):
-                hit = _find_range(_strip_noise(lines[j]), need_percent)
+                nxt = _strip_noise(lines[j])
+                if len(re.findall(r"[A-Za-z]{2,}", nxt)) <= 4:
+                    hit = _find_range(nxt, True) or _find_range(nxt, False, False)
                 if hit is not None:
                     used.add(j)
                 j += 1
@@ -746,13 +755,16 @@ def _composition(lines: list[str], notes: list[str]):
             item_basis = _basis_of(line) or basis
             found.append((cas, name or cas, lo, hi, item_basis, line))
             continue
-        hit = _find_range(_strip_noise(line), need_percent)
+        stripped = _strip_noise(line)
+        hit = None if re.match(r"^\s*\d+(?:\.\d+)+\s", line) else (
+            _find_range(stripped, True) or _find_range(stripped, need_percent, False))
         if hit is None:
             if _SECRET.search(line):
                 notes.append(f"the sheet says: {line!r}")
             continue
         words = re.findall(r"[A-Za-z]{2,}", line)
-        sentence = len(words) > 12 or (line.endswith(".") and len(words) > 6)
+        sentence = (len(words) > 12 or (line.endswith(".") and len(words) > 3)
+                    or re.search(r"\b(?:are|is|were|been|may|shall)\b", line, re.I))
         if sentence:
             notes.append(f"not read as an ingredient (a sentence): {line!r}")
             continue

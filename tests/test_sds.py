@@ -535,3 +535,14 @@ def test_scenario_says_when_the_sheet_disagrees():
     scenario = loads_scenario('[scenario]\ntitle = "t"\n[[liquid]]\nname = "a"\n'
                               f'sds_text = """{text}"""\n')
     assert any("Vapour pressure DISAGREES" in a for a in scenario.assumptions)
+
+
+def test_values_without_percent_beside_a_footnote_with_one():
+    """A table of bare numbers is read even when a footnote elsewhere has a % sign;
+    a numbered sub-heading is not an ingredient."""
+    r = read_sds("SECTION 3. COMPOSITION/INFORMATION ON INGREDIENTS\n3.2 Mixtures\n"
+                 "Chemical name   CAS number   Weight %\nAcetone   67-64-1   60-80\n"
+                 "Toluene   108-88-3   20 - 40\nIngredients below 1 % are not listed.\n")
+    assert [(i.cas, i.low, i.high) for i in r.components] == [
+        ("67-64-1", 0.6, 0.8), ("108-88-3", 0.2, 0.4)]
+    assert r.unidentified == ()
