@@ -440,3 +440,25 @@ def test_safety_data_sheet_files(tmp_path, capsys):
         code = cli_main(["sds"] + argv)
         out, err = capsys.readouterr()
         assert code == 2 and fragment in err and "Traceback" not in out + err, argv
+
+
+@pytest.mark.parametrize("name,data,fragment", [
+    ("scan.pdf", None, "no text layer"),
+    ("sheet.txt", "SECTION 3: Composition\nToluene 108-88-3 100 °C %\n".encode("cp1252"),
+     "not UTF-8"),
+    ("empty.txt", b"", "is empty"),
+])
+def test_browser_safety_data_sheet_uploads(name, data, fragment):
+    """Browser: a bad sheet upload is explained next to the liquid input, never raised."""
+    pytest.importorskip("streamlit")
+    from sds_pdf import image_only_pdf
+
+    at = _page("tank.py")
+    at.radio(key="w:tank.kind").set_value("sds")
+    at.run()
+    at.file_uploader(key="up:tank.sds").set_value(
+        (name, image_only_pdf() if data is None else data,
+         "application/pdf" if name.endswith(".pdf") else "text/plain"))
+    at.run()
+    assert not at.exception
+    assert any(fragment in e.value for e in at.error)

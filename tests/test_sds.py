@@ -546,3 +546,11 @@ def test_values_without_percent_beside_a_footnote_with_one():
     assert [(i.cas, i.low, i.high) for i in r.components] == [
         ("67-64-1", 0.6, 0.8), ("108-88-3", 0.2, 0.4)]
     assert r.unidentified == ()
+
+
+def test_one_cell_per_line_as_pdfs_often_give():
+    """A table extracted one cell per line (name, CAS, EC, range) is read row by row."""
+    r = read_sds("SECTION 3: Composition/information on ingredients\nToluene\n108-88-3\n"
+                 "203-625-9\n40 - 60 %\nAcetone\n67-64-1\n200-662-2\n40 - 60 %\n")
+    assert [(i.cas, i.name, i.low, i.high) for i in r.components] == [
+        ("108-88-3", "Toluene", 0.4, 0.6), ("67-64-1", "Acetone", 0.4, 0.6)]

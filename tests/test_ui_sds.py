@@ -103,3 +103,23 @@ def test_loaded_scenario_shows_the_sheet_liquid_again():
     assert not problems
     assert item["ranges"] == doc["liquid"][0]["ranges"]
     assert item["sds_text"] == doc["liquid"][0]["sds_text"]
+
+
+def test_uploaded_pdf_is_read():
+    """An uploaded PDF with a text layer fills the tables like the text it came from."""
+    from sds_pdf import text_pdf
+
+    at = AppTest.from_file(str(ROOT / "ui" / "screens" / "tank.py"), default_timeout=60).run()
+    at.radio(key="w:tank.kind").set_value("sds")
+    at.run()
+    text = (SHEETS / "stripper-pdf.txt").read_text(encoding="utf-8")
+    at.file_uploader(key="up:tank.sds").set_value(("stripper.pdf", text_pdf(text),
+                                                   "application/pdf"))
+    at.run()
+    assert not at.exception, at.exception
+    assert at.text_input(key="w:tank.liquid_name").value == "Kestrel Paint Stripper 9"
+    state = at.session_state["ullage"]
+    from ui import case
+
+    rows = case._rows(state[case.table_key("tank.sds_ingredients")])
+    assert [r["CAS"] for r in rows] == ["75-09-2", "67-56-1", "108-88-3"]
