@@ -43,12 +43,15 @@ def _store() -> dict:
 
 
 def _frames(reading) -> tuple[pd.DataFrame, pd.DataFrame, pd.DataFrame]:
+    def pct(v):
+        return round(100 * v, 6)
+
     ingredients = pd.DataFrame(
-        [(i.cas, i.name, 100 * i.low, 100 * i.high) for i in reading.components],
+        [(i.cas, i.name, pct(i.low), pct(i.high)) for i in reading.components],
         columns=INGREDIENT_COLUMNS).astype({"CAS": "object", "ingredient": "object",
                                             "low %": "float", "high %": "float"})
     unlisted = pd.DataFrame(
-        [(i.name + (f" ({i.cas})" if i.cas else ""), 100 * i.low, 100 * i.high)
+        [(i.name + (f" ({i.cas})" if i.cas else ""), pct(i.low), pct(i.high))
          for i in reading.unidentified], columns=UNLISTED_COLUMNS).astype(
         {"share": "object", "low %": "float", "high %": "float"})
     vp = reading.vapor_pressure
