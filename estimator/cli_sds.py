@@ -29,6 +29,7 @@ def add_parser(sub) -> None:
 
 def command(args) -> int:
     from .cli import EXIT_OK, _BadInput, _cautions_block
+    from .errors import UllageError
     from .headspace import headspace
     from .report import write_text_atomic
     from .sds import read_sds
@@ -45,20 +46,25 @@ def command(args) -> int:
 
         treat = substance(treat, "--surrogate")
     out = [reading.summary(), ""]
-    for point in ("mid", "worst"):
-        chosen = reading.screen(point, unidentified=treat, temperature=temperature)
-        hs = headspace(chosen.liquid, temperature)
-        label = "Midpoints" if point == "mid" else "Worst case within the ranges"
-        out.append(f"{label} ({chosen.basis} %), headspace at {temperature - 273.15:.1f} degC: "
-                   f"{hs.total_ppm:,.0f} ppm, {float(hs.percent_lfl):.3g} % LFL")
-        for item, value in chosen.fractions.items():
-            out.append(f"  {item:<46} {100 * value:6.3g} %")
-    out += ["", "Checked against the sheet:"]
-    checks = reading.cross_check(unidentified=treat)
-    out += [f"  - {ck.statement}" for ck in checks] or [
-        "  - the sheet gives no vapour pressure or flash point to check"]
-    notes = reading.screen("mid", unidentified=treat).notes
-    out += ["", "Treatment of the composition:"] + [f"  - {n}" for n in notes]
+    try:
+        for point in ("mid", "worst"):
+            chosen = reading.screen(point, unidentified=treat, temperature=temperature)
+            hs = headspace(chosen.liquid, temperature)
+            label = "Midpoints" if point == "mid" else "Worst case within the ranges"
+            out.append(f"{label} ({chosen.basis} %), headspace at "
+                       f"{temperature - 273.15:.1f} degC: {hs.total_ppm:,.0f} ppm, "
+                       f"{float(hs.percent_lfl):.3g} % LFL")
+            for item, value in chosen.fractions.items():
+                out.append(f"  {item:<46} {100 * value:6.3g} %")
+        out += ["", "Checked against the sheet:"]
+        checks = reading.cross_check(unidentified=treat)
+        out += [f"  - {ck.statement}" for ck in checks] or [
+            "  - the sheet gives no vapour pressure or flash point to check"]
+        notes = reading.screen("mid", unidentified=treat).notes
+        out += ["", "Treatment of the composition:"] + [f"  - {n}" for n in notes]
+    except UllageError as exc:
+        out += [f"The liquid could not be screened: {exc}. What was read is shown above; "
+                "correct the composition or pick a surrogate (--surrogate)."]
     sys.stdout.write("\n".join(out) + "\n" + _cautions_block() + "\n")
     if args.output:
         write_text_atomic(args.output, reading.to_toml(args.name, point=args.point,

@@ -51,6 +51,10 @@ __all__ = [
 #: Largest sheet read, text or PDF. [bytes] A safety data sheet is 10-20 pages.
 MAX_SDS_BYTES = 10_000_000
 
+#: Ingredients melting above this are taken as dissolved, non-volatile solids (resins,
+#: pigments, additives): solid at ordinary storage temperatures. [K] (40 degC)
+SOLID_ABOVE = 313.15
+
 #: Ways of picking one composition within the sheet's ranges.
 POINTS = ("mid", "worst")
 
@@ -1113,6 +1117,19 @@ def inert_substance(molar_mass: float, liquid_density: float | None) -> Substanc
         origin="user")
 
 
+def dissolved_solid(sub: Substance) -> Substance:
+    """A solid ingredient (a resin, an additive) as a dissolved, non-volatile component
+    with its own molar mass."""
+    return Substance(
+        key=f"{sub.key}-dissolved", name=f"{sub.name} (dissolved solid)", cas=sub.cas,
+        molar_mass=sub.molar_mass, boiling_point=math.inf,
+        liquid_density=sub.liquid_density, correlations=(_NonVolatile(),),
+        diffusion_volume=100.0,
+        sources=MappingProxyType({**dict(sub.sources), "vapour pressure": "solid at "
+                                  "ordinary temperatures: taken as non-volatile"}),
+        origin="user")
+
+
 @dataclass
 class _Model:
     """Entries of the sheet (each a range) mapped onto the liquid's substances."""
@@ -1147,7 +1164,11 @@ class _Model:
             return len(subs) - 1
 
         labels, lows, highs = [], [], []
+        solids = [i for i in reading.components if i.substance is not None
+                  and (i.substance.melting_point or 0.0) > SOLID_ABOVE]
         for item in reading.components:
+            if item in solids:
+                continue
             if item.substance is not None:
                 parts = [(index(item.substance), 1.0)]
             else:
@@ -1162,10 +1183,24 @@ class _Model:
                              "CAS number, so there is nothing to screen; pick a surrogate "
                              "substance for the unidentified shares, or enter the liquid "
                              "by hand")
+        inert = None
+        if reading.unidentified and unidentified in ("inert", None):
+            if not subs:
+                raise InputError("safety data sheet", "no volatile ingredient of the sheet "
+                                 "is known by its CAS number, so there is nothing to screen; "
+                                 "pick a surrogate substance or enter the liquid by hand")
+            inert = inert_substance(*_mean_properties(reading, subs, rows, lows, highs, basis))
+        for item in solids:
+            rows.append([(index(dissolved_solid(item.substance)), 1.0)])
+            labels.append(f"{item.name} ({item.cas})")
+            lows.append(item.low)
+            highs.append(item.high)
+            notes.append(f"{item.name} ({item.cas}) melts at "
+                         f"{item.substance.melting_point - 273.15:.0f} degC: taken as a "
+                         "dissolved, non-volatile solid with its own molar mass")
         if reading.unidentified:
             if unidentified == "inert" or unidentified is None:
-                m, rho = _mean_properties(reading, subs, rows, lows, highs, basis)
-                surrogate = inert_substance(m, rho)
+                surrogate = inert
                 treatment = ("unidentified shares taken as inert: a non-volatile, "
                              "non-flammable diluent with the mean molar mass of the "
                              "identified components; if they are volatile this "
@@ -1226,6 +1261,13 @@ class _Model:
                    if v < lo - 1e-6 or v > hi + 1e-6]
         liq = make_liquid(spec, self.basis, field="composition from the safety data sheet")
         notes = [f"composition from the safety data sheet, {how} ({self.basis} %): {words}"]
+        inert = [k for k, c in enumerate(liq.components) if c.key == "unidentified-inert"]
+        if inert and liq.mole_fractions[inert[0]] < 1.0:
+            x = float(liq.mole_fractions[inert[0]])
+            notes.append(f"the inert share is {100 * x:.3g} % of the liquid's moles (taken "
+                         "with the mean molar mass of the identified components); were it "
+                         "much heavier (a resin, say) the vapour would be up to "
+                         f"{1 / (1 - x):.3g} times higher")
         if outside:
             notes.append("normalising put " + ", ".join(outside) + " outside the sheet's "
                          "range: the ranges do not fit together")

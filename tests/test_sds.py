@@ -554,3 +554,23 @@ def test_one_cell_per_line_as_pdfs_often_give():
                  "203-625-9\n40 - 60 %\nAcetone\n67-64-1\n200-662-2\n40 - 60 %\n")
     assert [(i.cas, i.name, i.low, i.high) for i in r.components] == [
         ("108-88-3", "Toluene", 0.4, 0.6), ("67-64-1", "Acetone", 0.4, 0.6)]
+
+
+def test_solid_ingredient_is_a_dissolved_non_volatile_share():
+    """An ingredient melting above 40 degC (here the epoxy resin the property data
+    carry with a melting point of 69 degC) is dissolved solid: no vapour, said so."""
+    sheet = ("SECTION 3: Composition/information on ingredients\n"
+             "Epoxy resin 25068-38-6 50 - 60 %\nToluene 108-88-3 40 - 50 %\n")
+    r = read_sds(sheet)
+    liq = r.liquid("mid")
+    resin = resolve_cas("25068-38-6")
+    assert liq.names == ("Toluene", f"{resin.name} (dissolved solid)")
+    assert any("dissolved, non-volatile solid" in w for w in liq.warnings)
+    # its own molar mass sets its mole share: Raoult's law for toluene alone
+    x = (0.45 / 0.09214) / (0.45 / 0.09214 + 0.55 / resin.molar_mass)
+    hs = headspace(liq, c(25))
+    assert float(hs.partial_pressures[0]) == pytest.approx(
+        x * estimator.vapor_pressure("toluene", c(25)), rel=2e-3)
+    assert float(hs.partial_pressures[1]) == 0.0
+    # with a surrogate for unidentified shares, the solid stays non-volatile
+    assert f"{resin.name} (dissolved solid)" in r.liquid("mid", unidentified="acetone").names
