@@ -984,9 +984,9 @@ def _properties(lines: list[str], notes: list[str]) -> dict:
                     value = _number(n.group(1))
                     if relative or value < 3.0:
                         props["density"] = value * WATER_DENSITY_20C
-                        notes.append(f"density from the {'relative density' if relative else 'unitless value'} "
-                                     f"{value:g} × water at 20 degC ({WATER_DENSITY_20C:g} "
-                                     "kg/m3)")
+                        what = "relative density" if relative else "unitless value"
+                        notes.append(f"density from the {what} {value:g} × water at 20 "
+                                     f"degC ({WATER_DENSITY_20C:g} kg/m3)")
                     else:
                         notes.append(f"could not read the density from {line!r} (no unit)")
                 elif not _NO_VALUE.search(part):

@@ -41,6 +41,7 @@ def f(fahrenheit):
 # density
 EXPECTED = {
     "reach-thinner.txt": dict(
+        notes=[],
         product="Harbourline Thinner 210", layout="section 3", basis="mass",
         components=[("108-88-3", "Toluene", 0.40, 0.60),
                     ("123-86-4", "n-Butyl acetate", 0.20, 0.30),
@@ -48,6 +49,10 @@ EXPECTED = {
         unidentified=[], flash_point=c(2), vapor_pressure=(c(20), 3800.0),
         boiling_point=c(77), lfl=0.012, ufl=0.078, density=870.0),
     "hazcom-degreaser.txt": dict(
+        notes=["the sheet says: '*The specific chemical identity",
+               'Proprietary surfactant blend: 1-5 % withheld as a trade secret',
+               'the remainder (4-39 %)',
+               'relative density 0.79'],
         product="QuickStrip Degreaser 44", layout="section 3", basis="mass",
         components=[("67-63-0", "Isopropyl alcohol", 0.50, 0.70),
                     ("67-64-1", "Acetone", 0.10, 0.20),
@@ -57,6 +62,7 @@ EXPECTED = {
         flash_point=f(35), vapor_pressure=(f(68), 60 * MMHG), boiling_point=f(133),
         lfl=0.020, ufl=0.127, density=0.79 * WATER_DENSITY_20C),
     "older-cleaner.txt": dict(
+        notes=['section 2 (older sheet layout)'],
         product="Brightwell Parts Cleaner PC-3", layout="section 2", basis="mass",
         components=[("78-93-3", "Methyl ethyl ketone", 0.10, 0.30),
                     ("108-88-3", "Toluene", 0.60, 0.80),
@@ -64,12 +70,20 @@ EXPECTED = {
         unidentified=[], flash_point=f(21), vapor_pressure=(f(68), 0.86 * PSI),
         boiling_point=f(176), lfl=0.012, ufl=0.075, density=7.2 * LB_PER_GAL),
     "xylene-blend.txt": dict(
+        notes=['taken as mass %', 'names an isomer mixture', 'relative density 0.865'],
         product="Ferncliff Aromatic Solvent X", layout="section 3", basis="mass",
         components=[("1330-20-7", "Xylene (mixed isomers)", 0.75, 0.90),
                     ("100-41-4", "Ethylbenzene", 0.10, 0.25)],
         unidentified=[], flash_point=c(24), vapor_pressure=(c(20), 850.0),
         boiling_point=c(137), lfl=0.010, ufl=0.070, density=0.865 * WATER_DENSITY_20C),
     "resin-coating.txt": dict(
+        notes=['taken as mass %',
+               '9004-70-0 (Nitrocellulose) is not known',
+               '64742-95-6',
+               '1330-20-7 (Xylene) names an isomer mixture',
+               'Proprietary modified resin: 5-10 % withheld',
+               'the remainder (10-50 %)',
+               'no lower flammability limit'],
         product="Tidewater Epoxy Topcoat Part A", layout="section 3", basis="mass",
         components=[("1330-20-7", "Xylene", 0.10, 0.20),
                     ("123-86-4", "n-Butyl acetate", 0.05, 0.10)],
@@ -80,18 +94,24 @@ EXPECTED = {
         flash_point=c(27), vapor_pressure=(c(20), 1000.0), boiling_point=c(126),
         lfl=None, ufl=None, density=1200.0),
     "mislabelled-acetate.txt": dict(
+        notes=['relative density 0.88'],
         product="Orchard Row Butyl Acetate 98", layout="section 3", basis="mass",
         components=[("123-86-4", "n-Butyl acetate", 0.95, 1.00),
                     ("78-83-1", "Isobutanol", 0.0, 0.02)],
         unidentified=[], flash_point=f(72), vapor_pressure=(f(68), 80 * MMHG),
         boiling_point=f(259), lfl=0.012, ufl=0.075, density=0.88 * WATER_DENSITY_20C),
     "sanitiser-volume.txt": dict(
+        notes=[],
         product="Meadowgate Hand Rub 70", layout="section 3", basis="volume",
         components=[("64-17-5", "Ethanol", 0.60, 0.70), ("67-63-0", "Propan-2-ol", 0.05, 0.10),
                     ("7732-18-5", "Water", 0.20, 0.35)],
         unidentified=[], flash_point=c(21), vapor_pressure=(c(20), 4000.0),
         boiling_point=c(80), lfl=0.033, ufl=0.19, density=870.0),
     "stripper-pdf.txt": dict(
+        notes=['taken as mass %',
+               'Confidential thickener: 1-3 % withheld',
+               'relative density 1.22',
+               'no flash point'],
         product="Kestrel Paint Stripper 9", layout="section 3", basis="mass",
         components=[("75-09-2", "Dichloromethane", 0.60, 0.80),
                     ("67-56-1", "Methanol", 0.05, 0.15), ("108-88-3", "Toluene", 0.10, 0.20)],
@@ -122,6 +142,9 @@ def check_fields(reading, expected):
             assert value is None, name
         else:
             assert value == pytest.approx(expected[key], rel=1e-9), name
+    assert len(reading.notes) == len(expected["notes"]), reading.notes
+    for fragment in expected["notes"]:
+        assert any(fragment in n for n in reading.notes), fragment
     if expected["vapor_pressure"] is None:
         assert reading.vapor_pressure is None
     else:
