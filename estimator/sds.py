@@ -27,7 +27,7 @@ from types import MappingProxyType
 import numpy as np
 
 from .constants import STANDARD_ATMOSPHERE
-from .errors import InputError, UnknownSubstanceError
+from .errors import InputError
 from .substances import Substance
 
 __all__ = [
@@ -102,8 +102,8 @@ _SECTION_WORDS = {
     11: ("toxicolog",), 12: ("ecolog",), 13: ("disposal",), 14: ("transport",),
     15: ("regulatory",), 16: ("other",),
 }
-_HEADER = re.compile(r"^\s*(?:section\s*)?(\d{1,2})\s*(?:[:.)]|\s-|\s–)\s*([A-Za-z].*)$",
-                     re.IGNORECASE)
+_HEADER = re.compile(r"^\s*(?:section\s*(\d{1,2})\s*[:.)-]?|(\d{1,2})\s*(?:[:.)]|\s-))"
+                     r"\s*([A-Za-z].*)$", re.IGNORECASE)
 _SECRET = re.compile(r"trade\s*secret|proprietary|confidential|withheld|not\s+disclosed|"
                      r"\bcbi\b|undisclosed", re.IGNORECASE)
 _NO_VALUE = re.compile(r"not\s+(?:available|applicable|determined|established|known)|"
@@ -482,7 +482,7 @@ def resolve_cas(cas: str) -> Substance | None:
 
     try:
         return substance(cas, "cas")
-    except UnknownSubstanceError:
+    except InputError:  # unknown to the table (UnknownSubstanceError) or refused
         pass
     try:
         return lookup_cas(cas)
@@ -598,10 +598,10 @@ def _sections(lines: list[str]) -> dict[int, tuple[int, int, str]]:
         m = _HEADER.match(line.strip())
         if not m:
             continue
-        number, title = int(m.group(1)), m.group(2).lower()
+        number, title = int(m.group(1) or m.group(2)), m.group(3).lower()
         if number in _SECTION_WORDS and any(w in title for w in _SECTION_WORDS[number]) \
                 and len(title) < 120:
-            heads.append((i, number, m.group(2).strip()))
+            heads.append((i, number, m.group(3).strip()))
     out = {}
     for k, (i, number, title) in enumerate(heads):
         end = heads[k + 1][0] if k + 1 < len(heads) else len(lines)

@@ -597,3 +597,18 @@ def test_solid_ingredient_is_a_dissolved_non_volatile_share():
     assert float(hs.partial_pressures[1]) == 0.0
     # with a surrogate for unidentified shares, the solid stays non-volatile
     assert f"{resin.name} (dissolved solid)" in r.liquid("mid", unidentified="acetone").names
+
+
+@pytest.mark.parametrize("heading", [
+    "SECTION 3: Composition/information on ingredients",
+    "SECTION 3. COMPOSITION/INFORMATION ON INGREDIENTS",
+    "SECTION 3 COMPOSITION/INFORMATION ON INGREDIENTS",
+    "Section 3 - Composition / information on ingredients",
+    "3. COMPOSITION/INFORMATION ON INGREDIENTS",
+    "3) Composition",
+])
+def test_section_headings(heading):
+    """The composition section is found under the headings sheets use (GHS Annex 4)."""
+    r = read_sds(f"{heading}\nToluene 108-88-3 100 %\n"
+                 "SECTION 9: Physical and chemical properties\nFlash point: 4 °C\n")
+    assert r.components[0].cas == "108-88-3" and r.flash_point == pytest.approx(c(4))
