@@ -736,7 +736,7 @@ def _composition(lines: list[str], notes: list[str]):
             cleaned = _strip_noise(_CAS.sub(" ", after))
             hit = _find_range(cleaned, True) or _find_range(cleaned, False)
             j = k + 1
-            while hit is None and j < min(k + 3, len(lines)) and not _CAS.search(lines[j]):
+            while hit is None and j < min(k + 6, len(lines)) and not _CAS.search(lines[j]):
                 nxt = _strip_noise(lines[j])
                 if len(re.findall(r"[A-Za-z]{2,}", nxt)) <= 4:
                     hit = _find_range(nxt, True) or _find_range(nxt, False, False)

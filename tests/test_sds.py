@@ -612,3 +612,17 @@ def test_section_headings(heading):
     r = read_sds(f"{heading}\nToluene 108-88-3 100 %\n"
                  "SECTION 9: Physical and chemical properties\nFlash point: 4 °C\n")
     assert r.components[0].cas == "108-88-3" and r.flash_point == pytest.approx(c(4))
+
+
+def test_ingredient_block_over_several_lines():
+    """An EU-style block (name; CAS and EC; index; registration; classes and range on
+    later lines) reads as one ingredient each."""
+    r = read_sds("SECTION 3: Composition/information on ingredients\n3.2 Mixtures\n"
+                 "Toluene\nCAS-No.: 108-88-3     EC-No.: 203-625-9\n"
+                 "Index-No.: 601-021-00-3\nRegistration number: 01-2119471310-51-XXXX\n"
+                 "Flam. Liq. 2; H225\nAsp. Tox. 1; H304       ≥ 25 - < 50 %\n"
+                 "Acetone\nCAS-No.: 67-64-1     EC-No.: 200-662-2\n"
+                 "Index-No.: 606-001-00-8\nFlam. Liq. 2; H225   ≥ 50 - < 75 %\n")
+    assert [(i.cas, i.name, i.low, i.high) for i in r.components] == [
+        ("108-88-3", "Toluene", 0.25, 0.50), ("67-64-1", "Acetone", 0.50, 0.75)]
+    assert r.unidentified == ()
