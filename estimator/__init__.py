@@ -40,6 +40,7 @@ from .mixtures import Liquid, liquid
 from .headspace import boiling_temperature, headspace, temperature_for_concentration
 from .evaporation import evaporation_rate
 from .indoor import well_mixed_room
+from .sds import read_sds
 from .scenario import load_scenario, loads_scenario
 from .screening import run_scenario
 
@@ -62,6 +63,7 @@ __all__ = [
     "boiling_temperature",
     "evaporation_rate",
     "well_mixed_room",
+    "read_sds",
     "load_scenario",
     "loads_scenario",
     "run_scenario",

@@ -458,6 +458,10 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--address", default="127.0.0.1", help="address to listen on")
     p.add_argument("--port", type=_port, default=8501, help="port (default 8501)")
     p.set_defaults(func=_cmd_app)
+
+    from .cli_sds import add_parser as add_sds_parser
+
+    add_sds_parser(sub)
     return parser
 
 

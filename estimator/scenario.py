@@ -88,7 +88,11 @@ _ARRAYS = {
                "components": ("composition", False), "basis": ("text", False),
                "activity_coefficients": ("composition", False),
                "activity_source": ("text", False), "activity_estimate": ("text", False),
-               "dissolved_in_water": ("concentrations", False)},
+               "dissolved_in_water": ("concentrations", False),
+               # a liquid from a safety data sheet (estimator.sds.scenario_liquid)
+               "sds": ("sds_path", False), "sds_text": ("text", False),
+               "ranges": ("ranges", False), "unlisted": ("ranges", False),
+               "point": ("text", False), "unidentified_as": ("text", False)},
     "tank": {"name": ("text", True), "liquid": ("text", True), "volume": ("volume", False),
              "fill": ("fraction", False), "temperature": ("temperature", True),
              "worst_temperature": ("temperature", False),
@@ -278,6 +282,20 @@ def _convert(raw, kind, where):
         return parse_temperature(raw, where)
     if kind in ("limit", "distribution"):
         return raw
+    if kind == "sds_path":
+        return _convert(raw, "text", where)
+    if kind == "ranges":
+        if not isinstance(raw, dict) or not raw:
+            raise ScenarioError(where, "expected a table such as { toluene = [\"40 %\", "
+                                "\"60 %\"] }")
+        out = {}
+        for k, v in raw.items():
+            pair = v if isinstance(v, list) else [v, v]
+            if len(pair) != 2:
+                raise ScenarioError(f"{where} {k}", "give [low, high], such as [\"40 %\", "
+                                    "\"60 %\"], or one value")
+            out[str(k)] = tuple(parse_quantity(x, "fraction", f"{where} {k}") for x in pair)
+        return out
     if kind in ("composition", "concentrations"):
         if not isinstance(raw, dict) or not raw:
             raise ScenarioError(where, "expected a table such as { toluene = \"60 %\" }")
@@ -308,8 +326,11 @@ def _positive(reader, section, index, key, value, allow_zero=False):
     return value
 
 
-def loads_scenario(text: str, source_path: str = "") -> Scenario:
+def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenario:
     """Load and check a scenario from TOML text.
+
+    `base_dir` is the folder of the scenario file, where a [[liquid]] ``sds`` file
+    is looked for (confined to it); text not read from a file has none.
 
     Raises
     ------
@@ -432,9 +453,11 @@ def loads_scenario(text: str, source_path: str = "") -> Scenario:
         r.check_keys("liquid", i, item)
         v = {k: r.value("liquid", i, item, k) for k in item}
         given = [k for k in ("substance", "components", "dissolved_in_water") if k in v]
-        if len(given) != 1:
-            r.fail("liquid", i, None, "give exactly one of 'substance', 'components' or "
-                   "'dissolved_in_water'")
+        from_sheet = [k for k in ("ranges", "sds", "sds_text") if k in v]
+        if len(given) + bool(from_sheet) != 1 or {"sds", "sds_text"} <= set(v):
+            r.fail("liquid", i, None, "give exactly one of 'substance', 'components', "
+                   "'dissolved_in_water', or a safety data sheet ('sds' file or 'sds_text', "
+                   "and/or its 'ranges')")
         name = v["name"]
         if name.lower() in {n.lower() for n in liquids}:
             r.fail("liquid", i, "name", f"the name {name!r} is used twice")
@@ -445,7 +468,20 @@ def loads_scenario(text: str, source_path: str = "") -> Scenario:
         if basis not in ("mole", "mass", "volume"):
             r.fail("liquid", i, "basis", f"{basis!r} is not a basis; use mole, mass or volume")
         entry = {"name": name, "basis": basis}
-        if "substance" in v:
+        if from_sheet:
+            from .sds import scenario_liquid
+
+            try:
+                sheet_entry, notes = scenario_liquid(
+                    v, doc, base_dir, lambda k: partial.resolve(k, "ranges"),
+                    f"[[liquid]] #{i + 1}")
+            except InputError as exc:
+                key = next((k for k in ("ranges", "unlisted", "sds_text", "sds", "point",
+                                        "unidentified_as") if k in exc.field), from_sheet[0])
+                raise ScenarioError(r.where("liquid", i, key), exc.reason) from None
+            r.assumptions.extend(notes)
+            entry.update(kind="liquid", **sheet_entry)
+        elif "substance" in v:
             entry.update(kind="liquid", spec=resolve("liquid", i, "substance", v["substance"]))
         elif "components" in v:
             spec = {resolve("liquid", i, "components", k): x for k, x in v["components"].items()}
@@ -722,7 +758,7 @@ def load_scenario(path) -> Scenario:
         raise ScenarioError("scenario file", f"{p.name} is not UTF-8 text; save it as UTF-8") from None
     except OSError as exc:
         raise ScenarioError("scenario file", f"cannot read {p.name}: {exc.strerror}") from None
-    return loads_scenario(text, str(p))
+    return loads_scenario(text, str(p), base_dir=p.resolve().parent)
 
 
 def _toml_value(value) -> str:

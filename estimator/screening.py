@@ -779,11 +779,15 @@ def _tank_monte_carlo(scenario, tank, result):
         raise InputError("uncertain", "probabilistic screening of water with dissolved "
                          "volatiles is not available")
     mc = scenario.monte_carlo
-    return (), headspace_monte_carlo(
+    # a liquid from a safety data sheet brings its ranges as composition uncertainty
+    notes = (entry["composition_method"],) if entry.get("composition") else ()
+    return notes, headspace_monte_carlo(
         result.headspace.liquid, inputs.get("temperature", tank["temperature"]),
         result.pressure, scenario.limits, n=mc["samples"], seed=mc["seed"],
         include_method_uncertainty=mc["method_uncertainty"],
-        lfl_alarm=scenario.alarms.percent_lfl, oxygen_alarm=scenario.alarms.oxygen_low)
+        lfl_alarm=scenario.alarms.percent_lfl, oxygen_alarm=scenario.alarms.oxygen_low,
+        composition=entry.get("composition"),
+        composition_basis=entry.get("composition_basis", "mole"))
 
 
 def _spill_monte_carlo(scenario, spill, result):

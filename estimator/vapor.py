@@ -523,6 +523,7 @@ METHODS = {
                                  "Watson's ΔHvap(T)",
     "clausius-clapeyron": "Clausius-Clapeyron from the normal boiling point, constant ΔHvap",
     "trouton": "Clausius-Clapeyron from the normal boiling point, ΔHvap by Trouton's rule",
+    "non-volatile": "taken as non-volatile (no vapour): an inert share of a liquid",
 }
 
 _UNCERTAINTY_FILE = Path(__file__).with_name("data") / "method_uncertainty.csv"

@@ -415,3 +415,80 @@ def test_browser_front_end(case):
     assert not at.exception
     shown = "\n".join(e.value for e in at.error)
     assert fragment.lower() in shown.lower()
+
+
+# ------------------------------------------------------------ safety data sheets
+
+def _sds_cases():
+    from estimator.sds import MAX_SDS_BYTES
+    from sds_pdf import image_only_pdf
+
+    sheet = ("SECTION 3: Composition/information on ingredients\n"
+             "Toluene 108-88-3 90 - 100 %\nFlash point: 4 °C\n")
+    return [
+        ("image-only PDF", image_only_pdf(), "no text layer", "OCR"),
+        ("empty file", b"", "is empty", "give the sheet's text"),
+        ("blank text file", b"  \n\n ", "is empty", "PDF from the supplier"),
+        ("no composition section", "SECTION 9: Physical and chemical properties\n"
+         "Flash point: 4 °C\n", "no composition section", "enter the mixture by hand"),
+        ("composition without concentrations", "SECTION 3: Composition/information on "
+         "ingredients\nToluene 108-88-3\n", "lists no ingredient", "enter the mixture"),
+        ("oversize text", "x" * (MAX_SDS_BYTES + 1), "longer than", "paste only the sheet"),
+        ("oversize bytes", b"x" * (MAX_SDS_BYTES + 1), "bytes", "at most"),
+        ("Windows-1252 text", sheet.encode("cp1252"), "not UTF-8", "save it as UTF-8"),
+        ("not a PDF inside", b"%PDF-1.4\nbroken", "could not be read as a PDF", "paste it"),
+        ("unknown point", lambda: estimator.read_sds(sheet).liquid("best"), "not a point",
+         "'mid' or 'worst'"),
+        ("nothing identified", lambda: estimator.read_sds(
+            "3. COMPOSITION/INFORMATION ON INGREDIENTS\nSecret blend  trade secret  100 %\n"
+            ).liquid(), "nothing to screen", "pick a surrogate"),
+    ]
+
+
+@pytest.mark.parametrize("case", _sds_cases(), ids=[c[0] for c in _sds_cases()])
+def test_safety_data_sheets(case):
+    """Safety data sheets: InputError naming the sheet, saying what is wrong and what to do."""
+    _, given, fragment, advice = case
+    with pytest.raises(InputError) as info:
+        given() if callable(given) else estimator.read_sds(given)
+    assert fragment in str(info.value) and advice in str(info.value)
+    assert info.value.field in ("safety data sheet", "point")
+
+
+def test_safety_data_sheet_files(tmp_path, capsys):
+    """`ullage sds` on bad files: exit 2, the reason, no traceback; big files refused unread."""
+    from estimator.sds import MAX_SDS_BYTES
+
+    big = tmp_path / "big.pdf"
+    with open(big, "wb") as handle:
+        handle.truncate(MAX_SDS_BYTES + 1)
+    cases = [([str(big)], "at most"), ([str(tmp_path / "none.txt")], "cannot read"),
+             ([str(tmp_path / "sheet.docx")], ".txt or .pdf"),
+             ([str(big), "-o", "out.csv"], ".toml")]
+    (tmp_path / "sheet.docx").write_bytes(b"x")
+    for argv, fragment in cases:
+        code = cli_main(["sds"] + argv)
+        out, err = capsys.readouterr()
+        assert code == 2 and fragment in err and "Traceback" not in out + err, argv
+
+
+@pytest.mark.parametrize("name,data,fragment", [
+    ("scan.pdf", None, "no text layer"),
+    ("sheet.txt", "SECTION 3: Composition\nToluene 108-88-3 100 °C %\n".encode("cp1252"),
+     "not UTF-8"),
+    ("empty.txt", b"", "is empty"),
+])
+def test_browser_safety_data_sheet_uploads(name, data, fragment):
+    """Browser: a bad sheet upload is explained next to the liquid input, never raised."""
+    pytest.importorskip("streamlit")
+    from sds_pdf import image_only_pdf
+
+    at = _page("tank.py")
+    at.radio(key="w:tank.kind").set_value("sds")
+    at.run()
+    at.file_uploader(key="up:tank.sds").set_value(
+        (name, image_only_pdf() if data is None else data,
+         "application/pdf" if name.endswith(".pdf") else "text/plain"))
+    at.run()
+    assert not at.exception
+    assert any(fragment in e.value for e in at.error)

@@ -90,13 +90,59 @@ def test_oversized_uploads_are_refused(tmp_path):
         load_scenario(scenario)
 
 
-def test_scenario_files_name_no_paths():
-    """No scenario key is a file path, so a scenario cannot make ullage read or write
-    anywhere: paths come only from the command line or the browser's file dialogs."""
-    kinds = {kind for section in SCHEMA.values() for kind, _ in section.values()}
-    assert not {k for k in kinds if "path" in k or "file" in k}
-    for section in SCHEMA.values():
-        assert not [key for key in section if "path" in key or "file" in key]
+def test_scenario_files_name_one_confined_path():
+    """The one scenario key that is a file path is a [[liquid]]'s safety data sheet
+    (`sds`), read-only; every other path comes from the command line or the
+    browser's file dialogs. No key can make ullage write anywhere."""
+    paths = [(name, key) for name, section in SCHEMA.items()
+             for key, (kind, _) in section.items()
+             if "path" in kind or "file" in kind or "path" in key or "file" in key]
+    assert paths == [("liquid", "sds")]
+    assert SCHEMA["liquid"]["sds"][0] == "sds_path"
+
+
+SHEET = ("3. COMPOSITION/INFORMATION ON INGREDIENTS\nToluene 108-88-3 100 %\n")
+
+
+def _sds_scenario(path_text):
+    return ('[scenario]\ntitle = "t"\n[[liquid]]\nname = "x"\n'
+            f'sds = "{path_text}"\n')
+
+
+@pytest.mark.parametrize("path_text,fragment", [
+    ("/etc/passwd.txt", "absolute path"),
+    ("C:/sheets/a.txt", "absolute path"),
+    ("../outside.txt", "leaves the scenario file's folder"),
+    ("sheets/../../outside.txt", "leaves the scenario file's folder"),
+    ("link/outside.txt", "leads outside"),
+    ("scenario.toml", ".txt or .pdf"),
+    ("missing.txt", "not found"),
+])
+def test_sheet_path_stays_in_the_scenario_folder(tmp_path, path_text, fragment):
+    """Absolute paths, '..' and links out of the scenario's folder are refused."""
+    outside = tmp_path / "outside.txt"
+    outside.write_text(SHEET)
+    folder = tmp_path / "case"
+    folder.mkdir()
+    (folder / "link").symlink_to(tmp_path, target_is_directory=True)
+    scenario = folder / "scenario.toml"
+    scenario.write_text(_sds_scenario(path_text))
+    with pytest.raises(ScenarioError, match=fragment) as info:
+        load_scenario(scenario)
+    assert "sds" in info.value.field
+
+
+def test_sheet_path_inside_the_folder_is_read(tmp_path):
+    """A sheet beside the scenario is read; the same text not read from a file is refused."""
+    (tmp_path / "sheets").mkdir()
+    (tmp_path / "sheets" / "t.txt").write_text(SHEET)
+    scenario = tmp_path / "scenario.toml"
+    scenario.write_text(_sds_scenario("sheets/t.txt"))
+    loaded = load_scenario(scenario)
+    assert [s.key for s in loaded.liquids["x"]["spec"]] == ["toluene"]
+    with pytest.raises(ScenarioError, match="sds_text"):
+        from estimator.scenario import loads_scenario
+        loads_scenario(scenario.read_text(), "uploaded.toml")
 
 
 def test_browser_app_binds_to_loopback_by_default():

@@ -199,6 +199,7 @@ LIQUID_PREFIXES = ("tank", "indoor", "outdoor")
 LIQUID_DEFAULTS = {"tank": "toluene", "indoor": "acetone", "outdoor": "toluene"}
 LIQUID_KINDS = {"table": "One substance from the table", "mixture": "A mixture",
                 "own": "My own substance (SDS values)",
+                "sds": "From a safety data sheet (paste or upload)",
                 "water": "Water with dissolved solvents"}
 
 LIMIT_COLUMNS = ["substance", "kind", "value", "unit", "source"]
@@ -349,6 +350,10 @@ def remember_library_substance(state, sub) -> None:
 
 
 def _set_liquid(state, prefix: str, entry: dict, scenario) -> None:
+    from ullage_ui import sds_input
+
+    if sds_input.set_from_scenario(state, prefix, entry, scenario):
+        return
     kind = entry["kind"]
     state[key(f"{prefix}.liquid_name")] = entry["name"]
     state[key(f"{prefix}.find")] = ""
@@ -644,6 +649,10 @@ def liquid_item(state, prefix: str) -> tuple[dict, list[str]]:
     kind = state.get(key(f"{prefix}.kind"), "table")
     named = str(state.get(key(f"{prefix}.liquid_name")) or "").strip()
     problems = []
+    if kind == "sds":
+        from ullage_ui import sds_input
+
+        return sds_input.liquid_item(state, prefix)
     if kind == "own":
         name = own_substance(state)["name"]
         return {"name": named or name, "substance": name}, problems
@@ -853,7 +862,7 @@ def uncertainty_unavailable(state, study: str) -> str | None:
     if study == "tank" and kind == "water":
         return ("Probabilistic screening is not available for water with dissolved "
                 "solvents; it covers liquids and their mixtures.")
-    if study == "indoor" and kind == "mixture":
+    if study == "indoor" and kind in ("mixture", "sds"):
         return ("Probabilistic screening of a spill covers one substance: a mixture's pool "
                 "changes composition as it evaporates, which the sampled room model does not "
                 "follow.")

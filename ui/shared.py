@@ -434,7 +434,7 @@ def own_substance_block(slots: Slots) -> None:
 
 
 def liquid_block(prefix: str, slots: Slots, *, allow_water: bool = False) -> None:
-    kinds = ["table", "mixture", "own"] + (["water"] if allow_water else [])
+    kinds = ["table", "mixture", "own", "sds"] + (["water"] if allow_water else [])
     kind = choice("Liquid", f"{prefix}.kind", kinds, format_func=case.LIQUID_KINDS.get,
                   horizontal=True)
     if kind == "table":
@@ -454,6 +454,10 @@ def liquid_block(prefix: str, slots: Slots, *, allow_water: bool = False) -> Non
                       "add up to within 5 % of 100 (with a note).")
     elif kind == "own":
         own_substance_block(slots)
+    elif kind == "sds":
+        from ullage_ui.sds_input import sds_block
+
+        sds_block(prefix, slots)
     else:
         text_box("Name of the water", f"{prefix}.liquid_name",
                  placeholder="water with dissolved solvents")
