@@ -30,7 +30,7 @@ from estimator.screening import run_scenario  # noqa: E402
 SCREENS = ROOT / "ui" / "screens"
 DEMOS = sorted((ROOT / "scenarios").glob("*.toml"))
 WAREHOUSE = ROOT / "scenarios" / "warehouse-drum-spill.toml"
-PAGES = ["tank.py", "spill_indoors.py", "spill_outdoors.py", "inventory.py", "compare.py",
+PAGES = ["start.py", "tank.py", "spill_indoors.py", "spill_outdoors.py", "inventory.py", "compare.py",
          "limits.py"]
 #: The first demo's thinner, as its file gives it (mass fractions).
 THINNER = {"toluene": 0.45, "o-xylene": 0.25, "n-butyl acetate": 0.20, "MEK": 0.10}
@@ -40,9 +40,11 @@ DEMO_ELEVATION = 210.0
 config.set_option("browser.gatherUsageStats", False)
 
 
-def page(name: str) -> AppTest:
-    at = AppTest.from_file(str(SCREENS / name), default_timeout=30)
-    return at.run()
+def page(name: str, demo: Path | None = DEMOS[0]) -> AppTest:
+    """A page run headless; with `demo`, that demo loaded from the sidebar (a new
+    session starts empty)."""
+    at = AppTest.from_file(str(SCREENS / name), default_timeout=30).run()
+    return at if demo is None else load_demo(at, demo)
 
 
 def metric(at: AppTest, label: str) -> str:
@@ -62,18 +64,62 @@ def button(at: AppTest, label: str):
 
 def load_demo(at: AppTest, path: Path) -> AppTest:
     at.selectbox(key="w:demo").select(path.name)
-    button(at, "Load this demo").click()
+    at.run()
+    at.button(key="load:sidebar").click()
     return at.run()
 
 
-def test_first_demo_is_on_screen_at_start():
-    """The tank page opens with the first demo scenario's tank and its result."""
+def test_first_demo_is_on_screen_when_loaded():
+    """Loading the first demo puts its tank on the tank page, with its result."""
     at = page("tank.py")
     assert not at.exception
     first = load_scenario(DEMOS[0])
     assert at.number_input(key="w:tank.temperature").value == pytest.approx(
         first.tanks[0]["temperature"] - 273.15)
     assert metric(at, "Headspace, all vapour").endswith("ppm")
+    assert f"On screen: {DEMOS[0].name}" in at.sidebar.markdown[0].value
+
+
+def test_a_new_session_starts_empty():
+    """A first visit loads no demo: no tank name, worst case, elevation or limits."""
+    at = page("tank.py", demo=None)
+    assert not at.exception
+    assert "On screen: a new, empty case" in at.sidebar.markdown[0].value
+    assert at.number_input(key="w:tank.worst").value is None
+    assert at.text_input(key="w:tank.name").value == "tank 1"
+    assert any("No exposure limit entered" in c.value for c in at.caption)
+    assert any("sea level (101.325 kpa)" in c.value.lower() for c in at.caption)
+    assert at.selectbox(key="w:demo").value is None
+    core = headspace("toluene", 298.15, 101325.0)
+    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+
+
+def test_new_case_after_a_demo_drops_everything_of_the_demo():
+    """"Start a new, empty case" after the demo leaves none of the demo's inputs."""
+    from ui import case
+
+    at = page("tank.py")
+    at.button(key="new:sidebar").click()
+    at.run()
+    assert not at.exception
+    assert "On screen: a new, empty case" in at.sidebar.markdown[0].value
+    assert at.number_input(key="w:tank.worst").value is None
+    assert at.number_input(key="w:tank.temperature").value == 25.0
+    assert at.text_input(key="w:tank.name").value == "tank 1"
+    assert at.radio(key="w:mc.tank.temperature.kind").value == "fixed"
+    doc = case.full_document(at.session_state["ullage"])
+    assert set(doc) == {"scenario"}  # nothing entered yet: nothing but the title
+
+
+def test_sidebar_names_the_file_loaded_last():
+    """After another file is loaded the sidebar names it, not the first demo."""
+    at = page("tank.py")
+    at.file_uploader(key="up:scenario").set_value(
+        ("my-site.toml", WAREHOUSE.read_bytes(), "application/toml"))
+    at.run()
+    assert not at.exception
+    head = at.sidebar.markdown[0].value
+    assert "my-site.toml" in head and DEMOS[0].name not in head
 
 
 def test_tank_headspace_shown_equals_core():
@@ -342,13 +388,14 @@ def test_app_navigates_every_page():
         at.switch_page(f"screens/{name}").run()
         assert not at.exception, name
         titles.append(at.title[0].value)
-    assert titles == ["Tank headspace", "Spill indoors", "Spill outdoors", "Site inventory",
+    assert titles == ["Start a case", "Tank headspace", "Spill indoors", "Spill outdoors", "Site inventory",
                       "Two cases side by side", "Limits, alarms and site"]
 
 
 def test_inputs_survive_a_page_switch():
     """A value typed on one page is still there after visiting another page."""
     at = AppTest.from_file(str(ROOT / "ui" / "app.py"), default_timeout=30).run()
+    at.switch_page("screens/tank.py").run()
     at.number_input(key="w:tank.temperature").set_value(41.0)
     at.run()
     at.switch_page("screens/spill_indoors.py").run()
@@ -359,6 +406,8 @@ def test_inputs_survive_a_page_switch():
 def test_units_choice_survives_a_page_switch():
     """US customary units stay chosen on every page, and the numbers keep their meaning."""
     at = AppTest.from_file(str(ROOT / "ui" / "app.py"), default_timeout=30).run()
+    at.switch_page("screens/tank.py").run()
+    load_demo(at, DEMOS[0])
     before = metric(at, "Headspace, all vapour")
     at.toggle(key="w:units").set_value(True)
     at.run()
@@ -386,17 +435,76 @@ def test_saved_scenario_reloads_to_the_same_case():
 
 
 def test_us_units_save_in_us_units():
-    """Inputs in US customary units are saved with their units and mean the same in SI."""
+    """An input changed in US customary units is saved in them and means the same in SI;
+    inputs left as loaded are saved as the file wrote them."""
     from ui import case
 
     state = {}
     case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
     case.switch_units(state, "SI", "US")
     state[case.key("units")] = True
+    assert state[case.key("tank.temperature")] == pytest.approx(93.2)
+    state[case.key("tank.temperature")] = 95.0
     text = dumps_scenario(case.full_document(state))
-    assert "degF" in text and "gal" in text
+    assert 'temperature = "95.0 degF"' in text
+    assert 'volume = "2500 gal"' in text  # unchanged: as in the file
     again = loads_scenario(text)
-    assert again.tanks[0]["temperature"] == pytest.approx(307.15, abs=1e-6)
+    assert again.tanks[0]["temperature"] == pytest.approx(308.15, abs=1e-6)  # 95 °F
+
+
+def test_load_then_save_gives_the_same_scenario():
+    """Every demo, in SI and US units on screen, saves back to the scenario it loaded."""
+    from ui import case
+
+    def summary(s):
+        return {"pressure": s.pressure, "air": s.air_temperature,
+                "tanks": [dict(x) for x in s.tanks], "rooms": [dict(x) for x in s.rooms],
+                "spills": [dict(x) for x in s.spills], "outdoors": s.outdoors,
+                "limits": [(x.substance, x.kind, x.ppm, x.source) for x in s.limits],
+                "alarms": s.alarms, "shift": s.shift,
+                "liquids": {k: (v["kind"], repr(v["spec"])) for k, v in s.liquids.items()},
+                "uncertain": [(u["item"], u["input"], vars(u["distribution"]))
+                              for u in s.uncertain],
+                "monte_carlo": dict(s.monte_carlo)}
+
+    for path in DEMOS:
+        first = load_scenario(path)
+        for units in ("SI", "US"):
+            state = {}
+            case.apply_scenario(state, first, path.name)
+            if units == "US":
+                case.switch_units(state, "SI", "US")
+                state[case.key("units")] = True
+            again = loads_scenario(dumps_scenario(case.full_document(state)))
+            assert summary(again) == summary(first), (path.name, units)
+
+
+def test_spill_only_file_saves_without_a_tank():
+    """A spill-only file loaded while the tank page is open saves with no tank."""
+    from ui import case
+
+    text = WAREHOUSE.read_text(encoding="utf-8")
+    at = page("tank.py", demo=None)
+    at.file_uploader(key="up:scenario").set_value(
+        ("spills.toml", text.encode("utf-8"), "application/toml"))
+    at.run()
+    assert not at.exception
+    saved = loads_scenario(dumps_scenario(case.full_document(at.session_state["ullage"])))
+    assert not saved.tanks
+    assert [s["name"] for s in saved.spills] == ["punctured drum", "yard transfer hose"]
+
+
+def test_an_input_changed_on_a_page_puts_its_study_in_the_file():
+    """A new case saves a tank once a tank input is changed, and not before."""
+    from ui import case
+
+    at = page("tank.py", demo=None)
+    assert "tank" not in case.full_document(at.session_state["ullage"])
+    at.number_input(key="w:tank.temperature").set_value(31.0)
+    at.run()
+    saved = loads_scenario(dumps_scenario(case.full_document(at.session_state["ullage"])))
+    assert saved.tanks[0]["temperature"] == pytest.approx(304.15)
+    assert not saved.spills and not saved.limits
 
 
 def test_reports_carry_the_cautions():

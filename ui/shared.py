@@ -118,8 +118,34 @@ def _sync_widgets() -> None:
             st.session_state[name] = inputs[key(name[2:])]
 
 
-def bound(widget, label: str, name: str, **kwargs):
-    """Draw a widget for the input `name`, seeded from and written back to the store."""
+def entered() -> None:
+    """Mark the study of the page on screen as entered: the saved file holds it.
+
+    Called when the user changes an input of a study page (never when a page is only
+    drawn), so that saving writes what was entered and nothing more.
+    """
+    study = st.session_state.get("page.study")
+    if study:
+        store().setdefault("case.studies", {})[study] = True
+
+
+def _changed_then(callback=None, args=(), kwargs=None):
+    def run():
+        entered()
+        if callback is not None:
+            callback(*(args or ()), **(kwargs or {}))
+    return run
+
+
+def bound(widget, label: str, name: str, *, marks: bool = True, **kwargs):
+    """Draw a widget for the input `name`, seeded from and written back to the store.
+
+    A change made on screen marks the page's study as entered (`entered`), unless
+    `marks` is false (the sidebar's own inputs).
+    """
+    if marks:
+        kwargs["on_change"] = _changed_then(kwargs.pop("on_change", None),
+                                            kwargs.pop("args", ()), kwargs.pop("kwargs", None))
     inputs = store()
     widget_key = "w:" + name
     # The live value wins (a change just made on screen); otherwise the stored one.
@@ -134,17 +160,25 @@ def bound(widget, label: str, name: str, **kwargs):
 
 
 def _first_visit() -> None:
+    """A first visit starts a new, empty case; a demo loads only when asked."""
     inputs = store()
     if inputs.get("case.ready"):
         return
-    case.reset_defaults(inputs)
     inputs[key("units")] = False
+    case.new_case(inputs)
     inputs["units.shown"] = "SI"
-    files = case.demo_files()
-    if files:
-        _load_text(files[0].read_text(encoding="utf-8"), files[0].name)
-    inputs[key("demo")] = files[0].name if files else ""
+    inputs["load.message"] = inputs["load.error"] = ""
     inputs["case.ready"] = True
+
+
+def start_new_case() -> None:
+    """The sidebar's and the start page's control: a new, empty case."""
+    inputs = store()
+    case.new_case(inputs)
+    inputs["load.error"] = ""
+    inputs["load.message"] = ("New, empty case: no tank, spill, limits, elevation or worst "
+                              "case from any file.")
+    _sync_widgets()
 
 
 def _load_text(text: str, source: str) -> None:
@@ -164,8 +198,11 @@ def _load_text(text: str, source: str) -> None:
     inputs["load.message"] = " ".join([f"Loaded {source}."] + notes)
 
 
-def _load_demo() -> None:
-    name = st.session_state.get("w:demo") or store().get(key("demo"))
+def _load_demo(widget: str = "w:demo") -> None:
+    name = st.session_state.get(widget)
+    if not name:
+        store()["load.error"] = "Choose a demo scenario first, then load it."
+        return
     for path in case.demo_files():
         if path.name == name:
             _load_text(path.read_text(encoding="utf-8"), path.name)
@@ -207,21 +244,40 @@ def _slug(title: str) -> str:
     return re.sub(r"[^a-z0-9]+", "-", title.lower()).strip("-")[:60] or "case"
 
 
+def loaded_words(inputs) -> str:
+    """What is on screen, in words: the file loaded (and its title) or a new case."""
+    source = str(inputs.get("case.source") or case.NEW_CASE)
+    title = str(inputs.get(key("title")) or "").strip()
+    if source == case.NEW_CASE:
+        return f"On screen: {case.NEW_CASE}" + (f", “{title}”" if title and title !=
+                                                   case.PLAIN["title"] else "") + "."
+    return f"On screen: {source}" + (f", “{title}”" if title else "") + "."
+
+
+def demo_chooser(where: str = "sidebar") -> None:
+    """A demo selectbox (empty until one is chosen) and its load button."""
+    names = [p.name for p in case.demo_files()]
+    if not names:
+        return
+    widget = "w:demo" if where == "sidebar" else f"w:demo.{where}"
+    st.selectbox("Demo scenario (invented sites)", names, index=None, key=widget,
+                 placeholder="Choose a demo")
+    st.button("Load this demo", on_click=_load_demo, args=(widget,), key=f"load:{where}",
+              disabled=not st.session_state.get(widget))
+
+
 def sidebar(study: str | None) -> None:
     from estimator.scenario import dumps_scenario
 
     inputs = store()
     with st.sidebar:
+        st.markdown(f"**{loaded_words(inputs)}**")
+        st.button("Start a new, empty case", on_click=start_new_case, key="new:sidebar")
         bound(st.toggle, "US customary units (°F, gal, ft, psi)", "units",
-              on_change=_units_changed)
-        bound(st.text_input, "Case title", "title")
+              on_change=_units_changed, marks=False)
+        bound(st.text_input, "Case title", "title", marks=False)
         st.markdown("**Scenario files**")
-        names = [p.name for p in case.demo_files()]
-        if names:
-            if inputs.get(key("demo")) not in names:
-                inputs[key("demo")] = names[0]
-            bound(st.selectbox, "Demo scenario", "demo", options=names)
-            st.button("Load this demo", on_click=_load_demo)
+        demo_chooser()
         st.file_uploader("Load a scenario file (.toml, up to 1 MB)", type=["toml"],
                          key="up:scenario", on_change=_load_upload, max_upload_size=1)
         if inputs.get("load.error"):
@@ -229,19 +285,17 @@ def sidebar(study: str | None) -> None:
         elif inputs.get("load.message"):
             st.caption(inputs["load.message"])
         title = str(inputs.get(key("title")) or "case")
-        studies = {study: True} if study else None
         st.download_button("Save the inputs as a scenario file",
-                           data=lambda: dumps_scenario(case.full_document(inputs, studies)),
+                           data=lambda: dumps_scenario(case.full_document(inputs)),
                            file_name=f"{_slug(title)}.toml", mime="application/toml",
                            on_click="ignore")
+        st.caption("The file holds what is loaded and what you entered, nothing more.")
 
 
 def setup_page(title: str, study: str | None = None, lead: str = "") -> Slots:
     """Start a page: first demo on a first visit, sidebar, cautions, title."""
     _first_visit()
-    if study:
-        studies = store().setdefault("case.studies", {})
-        studies[study] = True
+    st.session_state["page.study"] = study
     sidebar(study)
     show_cautions()
     st.title(title)
@@ -331,6 +385,7 @@ def _found(prefix: str) -> None:
 
 
 def _pick(prefix: str, substance_key: str) -> None:
+    entered()
     _set_input(f"{prefix}.substance", substance_key)
     _set_input(f"{prefix}.find", "")
 
@@ -372,7 +427,7 @@ def table_editor(name: str, column_config: dict, *, help_text: str = "") -> pd.D
         inputs[base] = (generation,
                         pd.DataFrame(inputs.get(case.table_key(name))).reset_index(drop=True))
     edited = st.data_editor(inputs[base][1], key=editor, num_rows="dynamic", hide_index=True,
-                            column_config=column_config, width="stretch")
+                            column_config=column_config, width="stretch", on_change=entered)
     inputs[case.table_key(name)] = edited
     if help_text:
         st.caption(help_text)
