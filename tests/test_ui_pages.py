@@ -735,3 +735,32 @@ def test_report_from_the_page_carries_the_probabilistic_results():
     assert "Tank T-3: headspace, cumulative distribution" in report
     for label, p in mc.exceedance.items():
         assert f"<td>{label}</td><td class=\"num\">{100 * p:.3g} %</td>" in report
+
+
+# ------------------------------------------------------- inputs that fail alone
+
+def test_negative_tank_volume_marks_its_field_and_keeps_the_headspace():
+    """A negative tank volume is refused by its screen label; the headspace stays."""
+    at = page("tank.py")
+    at.number_input(key="w:tank.volume").set_value(-5.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Tank volume**: must be above 0" in text
+    assert "[[tank]]" not in text and "volume (line" not in text
+    core = headspace(THINNER, 307.15, barometric_pressure(DEMO_ELEVATION), basis="mass")
+    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "Vapour pushed out by filling" not in shown  # depends on the volume
+
+
+def test_bad_purge_flow_keeps_the_rest_of_the_tank():
+    """A purge flow of zero is refused alone; the filling result is still shown."""
+    at = page("tank.py")
+    at.number_input(key="w:tank.purge_rate").set_value(0.0)
+    at.run()
+    assert not at.exception
+    assert "**Purge air flow**" in errors(at)
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "Vapour pushed out by filling" in shown
+    assert "Purge before entry" not in shown

@@ -61,6 +61,7 @@ class Slots:
     def __init__(self):
         self.places = {}
         self.shown = set()
+        self.messages = {}
 
     def add(self, area: str, container=None) -> None:
         self.places[area] = (container or st).empty()
@@ -68,14 +69,17 @@ class Slots:
     def show(self, error: dict) -> None:
         area = error.get("area", "general")
         place = self.places.get(area) or self.places.get("general")
-        field = re.sub(r"\s*\(line \d+\)", "", str(error.get("field") or ""))
+        field = views.field_label(error.get("field") or "")
         words = AREA_NAMES.get(area, "Input")
-        head = f"**{words}**" + (f" ({field})" if field else "")
-        message = f"{head}: {error.get('reason', '')}\n\n{ADVICE.get(area, ADVICE['general'])}"
+        head = f"**{field}**" if field else f"**{words}**"
+        message = f"{head}: {error.get('reason', '')}.".replace("..", ".")
+        lines = self.messages.setdefault(area, [])
+        lines.append(message)
+        text = "\n\n".join(lines + [ADVICE.get(area, ADVICE["general"])])
         if place is None:
-            st.error(message)
+            st.error(text)
         else:
-            place.error(message)
+            place.error(text)
         self.shown.add(area)
 
     def problems(self, area: str, lines) -> None:
@@ -190,7 +194,11 @@ def _load_text(text: str, source: str) -> None:
         notes = case.apply_scenario(inputs, scenario, source)
     except (UllageError, ValueError) as exc:
         record = views.error_record(exc)
-        inputs["load.error"] = (f"{source} was not loaded. {record['field']}: "
+        where = views.field_label(record["field"]) or "The file"
+        line = re.search(r"\(line (\d+)\)", str(record["field"]))
+        if line:
+            where += f" (line {line.group(1)} of the file)"
+        inputs["load.error"] = (f"{source} was not loaded. {where}: "
                                 f"{record['reason']}. Fix the file and load it again.")
         inputs["load.message"] = ""
         return
@@ -880,6 +888,8 @@ def study_tail(state, kind: str, slots, limit_rows, units, results, view_functio
             slots.problems("liquid", problems)
         else:
             view = view_function(dumps_scenario(doc), units)
+            for error in view.get("field_errors", ()):
+                slots.show(error)
             if view["error"]:
                 slots.show(view["error"])
             else:

@@ -62,6 +62,71 @@ _CORE_FIELDS = {
 }
 
 
+#: Screen labels of scenario fields: (section, key) -> the label the page shows.
+FIELD_LABELS = {
+    ("tank", "name"): "Tank", ("tank", "liquid"): "Liquid",
+    ("tank", "temperature"): "Liquid temperature",
+    ("tank", "worst_temperature"): "Worst-case temperature",
+    ("tank", "volume"): "Tank volume", ("tank", "fill"): "Liquid level",
+    ("tank", "gauge_pressure"): "Gauge pressure",
+    ("tank", "daily_low"): "Daily low liquid temperature",
+    ("tank", "daily_high"): "Daily high liquid temperature",
+    ("tank", "pumped_volume"): "Volume pumped in", ("tank", "purge_rate"): "Purge air flow",
+    ("tank", "purge_mixing_factor"): "Purge mixing factor",
+    ("tank", "purge_target"): "Purge target",
+    ("tank", "residual_area"): "Area of liquid left in the tank",
+    ("spill", "name"): "Spill", ("spill", "liquid"): "Liquid",
+    ("spill", "temperature"): "Liquid and air temperature",
+    ("spill", "volume"): "Spilled volume", ("spill", "mass"): "Spilled mass",
+    ("spill", "area"): "Pool area", ("spill", "dike_area"): "Dike or bund floor",
+    ("spill", "depth"): "Pool depth", ("spill", "duration"): "Time modelled",
+    ("spill", "cleanup_after"): "Pool removed at", ("spill", "model"): "Evaporation model",
+    ("room", "name"): "Room", ("room", "volume"): "Room volume",
+    ("room", "air_changes"): "Air changes", ("room", "ventilation_rate"): "Ventilation rate",
+    ("room", "mixing_factor"): "Mixing factor", ("room", "air_speed"): "Air speed over the pool",
+    ("room", "near_field_radius"): "Near-field radius",
+    ("room", "random_air_speed"): "Random air speed near the source",
+    ("outdoors", "wind_speed"): "Wind speed", ("outdoors", "wind_height"):
+        "Wind measured at height", ("outdoors", "insolation"): "Incoming sunshine",
+    ("outdoors", "cloud_cover"): "Cloud cover", ("outdoors", "stability"):
+        "Pasquill stability class", ("outdoors", "terrain"): "Terrain",
+    ("outdoors", "receptors"): "Downwind distances",
+    ("conditions", "elevation"): "Site elevation",
+    ("conditions", "barometric_pressure"): "Barometric pressure",
+    ("alarms", "percent_lfl"): "Flammable vapour alarm [% of LFL]",
+    ("alarms", "oxygen_low"): "Oxygen low", ("alarms", "oxygen_high"): "Oxygen high",
+    ("substance", "molar_mass"): "Molar mass", ("substance", "boiling_point"):
+        "Normal boiling point", ("substance", "vapor_pressure"): "Vapour pressure",
+    ("substance", "lower_flammability_limit"): "LFL", ("substance",
+                                                        "upper_flammability_limit"): "UFL",
+    ("substance", "liquid_density"): "Liquid density", ("substance", "flash_point"):
+        "Flash point",
+    ("limit", "substance"): "Exposure limits: substance", ("limit", "source"):
+        "Exposure limits: source",
+}
+
+#: Core argument names as people know them.
+_CORE_LABELS = {"wind_speed": "Wind speed", "pressure": "Pressure in the vapour space",
+                "residual_area": "Area of liquid left in the tank"}
+
+
+def field_label(field: str) -> str:
+    """An error's field as the page labels it: "[[tank]] #1 volume (line 21)" ->
+    "Tank volume"; never a TOML path or an internal key ("" when the page's block
+    name says it better)."""
+    text = re.sub(r"\s*\(line \d+\)", "", str(field or "")).strip()
+    match = _SCENARIO_FIELD.match(text)
+    if match:
+        section, _, name = match.groups()
+        if name is None:
+            return {"tank": "Tank", "spill": "Spill", "room": "Room", "liquid": "Liquid",
+                    "substance": "Own substance", "limit": "Exposure limits",
+                    "outdoors": "Weather", "conditions": "Site pressure",
+                    "alarms": "Alarm levels"}.get(section, section.replace("_", " "))
+        return FIELD_LABELS.get((section, name), name.replace("_", " ").capitalize())
+    return _CORE_LABELS.get(text, "")
+
+
 def area_of(field: str) -> str:
     """The block of the page that an error's field points at."""
     text = str(field or "").strip()
@@ -213,9 +278,51 @@ def _comparison_rows(comparisons) -> pd.DataFrame:
                                        "ratio", "source"])
 
 
+#: Tank inputs whose results stand apart from the headspace: a bad one is left out
+#: (with the inputs that only work with it) and the rest is still computed.
+_SEPARABLE = {
+    "volume": ("volume", "fill", "pumped_volume", "purge_rate", "purge_target",
+               "purge_mixing_factor", "residual_area"),
+    "fill": ("fill",), "worst_temperature": ("worst_temperature",),
+    "daily_low": ("daily_low", "daily_high"), "daily_high": ("daily_low", "daily_high"),
+    "pumped_volume": ("pumped_volume",),
+    "purge_rate": ("purge_rate", "purge_target", "purge_mixing_factor", "residual_area"),
+    "purge_target": ("purge_target",), "purge_mixing_factor": ("purge_mixing_factor",),
+    "residual_area": ("residual_area",), "sweep_from": ("sweep_from", "sweep_to"),
+    "sweep_to": ("sweep_from", "sweep_to"),
+}
+
+
 @st.cache_data(max_entries=64, show_spinner=False)
 def tank_view(toml_text: str, units: str) -> dict:
-    """Screen the tank of a one-tank scenario; plain values for the tank page."""
+    """Screen the tank of a one-tank scenario; plain values for the tank page.
+
+    An input that fails alone (a negative tank volume, a bad purge flow) is left out
+    and reported in ``field_errors``; the results that do not depend on it are kept.
+    """
+    import tomllib
+
+    from estimator.scenario import dumps_scenario
+
+    field_errors = []
+    text = toml_text
+    for _ in range(len(_SEPARABLE)):
+        view = _tank_view(text, units)
+        error = view["error"]
+        match = _SCENARIO_FIELD.match(str(error["field"])) if error else None
+        if not match or match.group(1) != "tank" or match.group(3) not in _SEPARABLE:
+            break
+        doc = tomllib.loads(text)
+        for name in _SEPARABLE[match.group(3)]:
+            doc["tank"][0].pop(name, None)
+        field_errors.append(dict(error, reason=error["reason"] + "; the results that depend "
+                                 "on it are left out until it is corrected"))
+        text = dumps_scenario(doc)
+    view["field_errors"] = field_errors
+    return view
+
+
+def _tank_view(toml_text: str, units: str) -> dict:
     from estimator.screening import screen_tank
 
     try:
