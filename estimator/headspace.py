@@ -320,7 +320,7 @@ def _assemble(liq: Liquid, temperature, p_total: float, p_sat, p_i, estimates,
     if np.any(boiling):
         at = t[boiling] if t.ndim else t
         notes.append(
-            f"at {np.min(at) - 273.15:.1f} degC{' and above' if t.ndim else ''} the liquid "
+            f"at {np.min(at) - 273.15:.1f} °C{' and above' if t.ndim else ''} the liquid "
             f"is at or above its boiling point at {p_total / 1000:.1f} kPa: the vapour "
             "pressure reaches the pressure of the space, which then holds essentially pure "
             "vapour (air displaced)")
@@ -479,7 +479,7 @@ def _solve(liq, objective, target, pressure, what) -> float:
     if f_lo >= 0:
         raise AboveAtLowestTemperature(
             what, f"the headspace is already at or above {target:g} at {lo - 273.15:.1f} "
-            "degC, the lowest temperature the liquid exists at; no lower temperature "
+            "°C, the lowest temperature the liquid exists at; no lower temperature "
             "reaches it", lo)
     if f(hi) < 0:
         raise OutOfRangeError(what, f"{target:g} is never reached below the critical "

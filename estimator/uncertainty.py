@@ -196,6 +196,13 @@ def _unit_text(unit: str) -> str:
     return f" {unit}" if unit else ""
 
 
+def _shown(value: float, unit: str = "") -> str:
+    """A value of a distribution in words; temperatures in °C, not kelvin."""
+    if unit == "K":
+        return f"{value - 273.15:.6g} °C"
+    return f"{value:.6g}{_unit_text(unit)}"
+
+
 # --------------------------------------------------------------------------
 # distributions
 
@@ -221,7 +228,7 @@ class Fixed:
 
     def describe(self, unit: str = "") -> str:
         """The distribution in words."""
-        return f"fixed at {self.value:.6g}{_unit_text(unit)}"
+        return f"fixed at {_shown(self.value, unit)}"
 
 
 @dataclass(frozen=True)
@@ -257,7 +264,7 @@ class Uniform:
 
     def describe(self, unit: str = "") -> str:
         """The distribution in words."""
-        return f"uniform from {self.low:.6g} to {self.high:.6g}{_unit_text(unit)}"
+        return f"uniform from {_shown(self.low, unit)} to {_shown(self.high, unit)}"
 
 
 @dataclass(frozen=True)
@@ -293,8 +300,8 @@ class Triangular:
 
     def describe(self, unit: str = "") -> str:
         """The distribution in words."""
-        return (f"triangular from {self.low:.6g} to {self.high:.6g}, most likely "
-                f"{self.mode:.6g}{_unit_text(unit)}")
+        return (f"triangular from {_shown(self.low, unit)} to {_shown(self.high, unit)}, "
+                f"most likely {_shown(self.mode, unit)}")
 
 
 @dataclass(frozen=True)
@@ -368,10 +375,10 @@ class Normal:
 
     def describe(self, unit: str = "") -> str:
         """The distribution in words."""
-        text = f"normal, mean {self.mean:.6g}, sd {self.sd:.6g}{_unit_text(unit)}"
+        text = f"normal, mean {_shown(self.mean, unit)}, sd {self.sd:.6g}{_unit_text(unit)}"
         if self.truncated:
-            low = "-inf" if self.low is None else f"{self.low:.6g}"
-            high = "inf" if self.high is None else f"{self.high:.6g}"
+            low = "-inf" if self.low is None else _shown(self.low, unit)
+            high = "inf" if self.high is None else _shown(self.high, unit)
             text += f", truncated to [{low}, {high}]"
         return text
 

@@ -544,7 +544,7 @@ def method_uncertainty() -> dict[str, tuple[float, str]]:
         for row in csv.DictReader(handle):
             basis = (
                 f"95th percentile of |error| over {row['n_points']} points, "
-                f"{row['n_compounds']} compounds, {row['temperature_range']}, "
+                f"{row['n_compounds']} compounds, {row['temperature_range'].replace('degC', '°C')}, "
                 f"against {row['reference']}"
             )
             out[row["method"]] = (float(row["p95_relative_error"]), basis)
@@ -586,6 +586,11 @@ class VaporPressureEstimate:
     warnings: tuple[str, ...] = ()
 
 
+def _degc(kelvin: float) -> str:
+    """A temperature in a message, as people read it: "46.0 °C"."""
+    return f"{float(kelvin) - 273.15:.1f} °C"
+
+
 def _check_temperature(substance, t: np.ndarray, field: str) -> tuple[float, float]:
     if t.size == 0:
         raise InputError(field, "no temperatures given")
@@ -601,13 +606,13 @@ def _check_temperature(substance, t: np.ndarray, field: str) -> tuple[float, flo
     tc = substance.critical_temperature
     if tc is not None and hi > tc:
         raise OutOfRangeError(
-            field, f"{hi:g} K is above the critical temperature of {substance.name} "
-            f"({tc:g} K): no liquid can exist there, so it has no vapour pressure")
+            field, f"{_degc(hi)} is above the critical temperature of {substance.name} "
+            f"({_degc(tc)}): no liquid can exist there, so it has no vapour pressure")
     tm = substance.melting_point
     if tm is not None and lo < tm:
         raise OutOfRangeError(
-            field, f"{lo:g} K is below the melting point of {substance.name} "
-            f"({tm:g} K): it would be solid; ullage does not model sublimation")
+            field, f"{_degc(lo)} is below the melting point of {substance.name} "
+            f"({_degc(tm)}): it would be solid; ullage does not model sublimation")
     return lo, hi
 
 
@@ -662,8 +667,8 @@ def vapor_pressure_estimate(substance, temperature, method: str | None = None,
     notes = []
     if lo < correlation.tmin or hi > correlation.tmax:
         notes.append(
-            f"{sub.name}: {lo:.1f}-{hi:.1f} K lies outside the {correlation.tmin:.1f}-"
-            f"{correlation.tmax:.1f} K range of the {METHODS[correlation.method]}; "
+            f"{sub.name}: {_degc(lo)} to {_degc(hi)} lies outside the "
+            f"{_degc(correlation.tmin)} to {_degc(correlation.tmax)} range of the {METHODS[correlation.method]}; "
             "the value is an extrapolation")
     relative, basis = method_uncertainty().get(correlation.method, (None, "not validated"))
     return VaporPressureEstimate(

@@ -354,7 +354,7 @@ def test_compare_page_shows_both_cases_and_the_difference():
     b = headspace(THINNER, 317.15, pressure, basis="mass")
     assert shown == [f"{format_ppm(a.total_ppm)} ppm", f"{format_ppm(b.total_ppm)} ppm"]
     text = "\n".join(m.value for m in at.markdown)
-    assert "tank temperature" in text and "44.0 degC" in text
+    assert "**liquid temperature**: 34 °C in A, **44 °C** in B" in text
 
 
 def test_compare_page_other_solvent():
@@ -764,3 +764,41 @@ def test_bad_purge_flow_keeps_the_rest_of_the_tank():
     shown = "\n".join(m.value for m in at.markdown)
     assert "Vapour pushed out by filling" in shown
     assert "Purge before entry" not in shown
+
+
+# ------------------------------------------------------------ numbers as read
+
+SCIENTIFIC = r"\d(?:\.\d+)?e[+-]?\d"
+
+
+def page_text(at: AppTest) -> str:
+    """Every text a person reads on a page: tiles, Markdown, captions, messages."""
+    parts = [f"{m.label} {m.value}" for m in at.metric]
+    for kind in ("markdown", "caption", "error", "warning", "info", "subheader", "title"):
+        parts += [str(e.value) for e in getattr(at, kind)]
+    return "\n".join(parts)
+
+
+@pytest.mark.parametrize("name,demo", [("tank.py", DEMOS[0]), ("spill_indoors.py", WAREHOUSE),
+                                       ("spill_outdoors.py", WAREHOUSE),
+                                       ("compare.py", DEMOS[0])])
+def test_no_scientific_notation_on_the_pages(name, demo):
+    """Nothing a person reads on a page is in scientific notation (1.67e+03)."""
+    import re
+
+    at = page(name, demo)
+    assert not at.exception
+    text = page_text(at)
+    assert text.strip()
+    assert not re.findall(SCIENTIFIC, text), re.findall(r".{30}" + SCIENTIFIC + ".{10}", text)
+    assert "degC" not in text and " m2" not in text
+
+
+def test_converted_inputs_are_rounded_to_sensible_steps():
+    """The demo's 2500 gal tank reads 9.464 m³ (not 9.46353) and back 2500 gal."""
+    at = page("tank.py")
+    assert at.number_input(key="w:tank.volume").value == 9.464
+    assert at.number_input(key="w:tank.purge_rate").value == 679.6  # 400 ft³/min in m³/h
+    at.toggle(key="w:units").set_value(True)
+    at.run()
+    assert at.number_input(key="w:tank.volume").value == 2500.0

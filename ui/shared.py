@@ -95,6 +95,19 @@ class Slots:
 
 # ------------------------------------------------------------------- the page
 
+#: Tiles (st.metric) wrap a long value or its unit instead of cutting it off.
+TILE_STYLE = """<style>
+[data-testid="stMetricValue"], [data-testid="stMetricValue"] > div {
+  white-space: normal !important; overflow: visible !important;
+  text-overflow: clip !important; overflow-wrap: anywhere; line-height: 1.15;
+  font-size: clamp(1.15rem, 1.6vw, 2rem);
+}
+[data-testid="stMetricLabel"], [data-testid="stMetricLabel"] * {
+  white-space: normal !important; overflow: visible !important; text-overflow: clip !important;
+}
+</style>"""
+
+
 def show_cautions() -> None:
     """The cautions, at the top of every page, never folded away."""
     with st.container(border=True):
@@ -305,6 +318,7 @@ def setup_page(title: str, study: str | None = None, lead: str = "") -> Slots:
     _first_visit()
     st.session_state["page.study"] = study
     sidebar(study)
+    st.html(TILE_STYLE)
     show_cautions()
     st.title(title)
     if lead:
@@ -718,8 +732,8 @@ def cumulative_chart(data: pd.DataFrame, *, lines=(), log_x: bool = False) -> No
                           "legend": {"orient": "right", "labelLimit": 160}},
                 "strokeDash": {"field": "series", "type": "nominal", "legend": None},
                 "tooltip": [{"field": "series", "type": "nominal"},
-                            {"field": "ppm", "type": "quantitative", "format": ".4g"},
-                            {"field": "fraction", "type": "quantitative", "format": ".3f"}]}
+                            {"field": "ppm", "type": "quantitative", "format": ",.3~r"},
+                            {"field": "fraction", "type": "quantitative", "format": ",.3~r"}]}
     layers = [{"mark": {"type": "line", "strokeWidth": 2}, "encoding": encoding}]
     if lines:
         layers.append({"data": {"values": [dict(v) for v in lines]},
@@ -732,7 +746,7 @@ def cumulative_chart(data: pd.DataFrame, *, lines=(), log_x: bool = False) -> No
                                                          "labelLimit": 160}},
                                     "tooltip": [{"field": "limit", "type": "nominal"},
                                                 {"field": "ppm", "type": "quantitative",
-                                                 "format": ".4g"}]}})
+                                                 "format": ",.3~r"}]}})
     spec = {"layer": layers,
             "resolve": {"scale": {"color": "independent", "strokeDash": "independent"},
                         "legend": {"color": "independent"}}}
@@ -810,8 +824,8 @@ def chart(data: pd.DataFrame, *, x: str, x_title: str, y: str, y_title: str,
     if log_y:
         y_enc["scale"] = {"type": "log"}
     encoding = {"x": x_enc, "y": y_enc,
-                "tooltip": [{"field": x, "type": "quantitative", "format": ".4g"},
-                            {"field": y, "type": "quantitative", "format": ".4g"}]}
+                "tooltip": [{"field": x, "type": "quantitative", "format": ",.3~r"},
+                            {"field": y, "type": "quantitative", "format": ",.3~r"}]}
     if color:
         encoding["color"] = {"field": color, "type": "nominal", "title": None,
                              "legend": {"orient": "right", "labelLimit": 160}}

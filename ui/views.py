@@ -21,7 +21,7 @@ import pandas as pd
 import streamlit as st
 
 from estimator.errors import UllageError
-from estimator.limits import format_ppm, format_ratio
+from estimator.limits import format_number, format_ppm, format_ratio
 from estimator.units import convert
 
 from ui.case import UNITS, unit_label
@@ -189,10 +189,10 @@ def _temperature_text(kelvin: float | None, units: str) -> str:
     return f"{_display(kelvin, 'temperature', units):.1f} {unit_label('temperature', units)}"
 
 
-def _quantity_text(value, kind: str, units: str, digits: str = ".3g") -> str:
+def _quantity_text(value, kind: str, units: str, digits: int = 3) -> str:
     if value is None:
         return "-"
-    return f"{_display(value, kind, units):{digits}} {unit_label(kind, units)}"
+    return f"{format_number(_display(value, kind, units), digits)} {unit_label(kind, units)}"
 
 
 def _minutes(seconds) -> str:
@@ -202,7 +202,7 @@ def _minutes(seconds) -> str:
 
 
 def _uncertainty_text(value) -> str:
-    return "not validated" if value is None else f"±{100.0 * value:.2g} % (95 % of checks)"
+    return "not validated" if value is None else f"±{format_number(100.0 * value, 2)} % (95 % of checks)"
 
 
 def _thin(n: int, cap: int = PLOT_POINTS) -> np.ndarray:
@@ -235,12 +235,12 @@ def _headspace_summary(hs, units: str) -> dict:
     for i, c in enumerate(comps):
         rows.append({
             "component": c.name,
-            "mole fraction in liquid": f"{x[i]:.3g}",
+            "mole fraction in liquid": f"{format_number(x[i])}",
             f"vapour pressure [{plabel}]": ("-" if not np.isfinite(p_sat[i]) else
-                                             f"{_display(p_sat[i], 'vapour_pressure', units):.3g}"),
-            f"partial pressure [{plabel}]": f"{_display(p_i[i], 'vapour_pressure', units):.3g}",
+                                             f"{format_number(_display(p_sat[i], 'vapour_pressure', units))}"),
+            f"partial pressure [{plabel}]": f"{format_number(_display(p_i[i], 'vapour_pressure', units))}",
             "headspace [ppm]": format_ppm(y[i] * 1e6),
-            "headspace [mg/m³]": f"{mg[i]:.3g}",
+            "headspace [mg/m³]": f"{format_number(mg[i])}",
         })
     methods = []
     for i, est in enumerate(hs.vapor_pressure_methods):
@@ -251,17 +251,17 @@ def _headspace_summary(hs, units: str) -> dict:
     return {
         "total_ppm": float(hs.total_ppm),
         "total_ppm_text": _ppm(hs.total_ppm),
-        "total_mg_text": f"{float(hs.total_mg_per_m3):.3g} mg/m³",
+        "total_mg_text": f"{format_number(float(hs.total_mg_per_m3))} mg/m³",
         "percent_lfl": float(hs.percent_lfl),
-        "percent_lfl_text": f"{float(hs.percent_lfl):.3g} %",
-        "oxygen_text": f"{float(hs.oxygen_percent):.3g} %",
+        "percent_lfl_text": f"{format_number(float(hs.percent_lfl))} %",
+        "oxygen_text": f"{format_number(float(hs.oxygen_percent))} %",
         "flammability": state,
         "flammability_words": str(hs.flammability_words),
         "components": pd.DataFrame(rows),
         "methods": pd.DataFrame(methods),
         "uncertainty": _uncertainty_text(hs.relative_uncertainty),
         "activity": hs.liquid.activity_source,
-        "pressure_text": _quantity_text(hs.pressure, "barometric", units, ".4g"),
+        "pressure_text": _quantity_text(hs.pressure, "barometric", units, 4),
         "warnings": list(hs.warnings),
     }
 
@@ -270,7 +270,7 @@ def _comparison_rows(comparisons) -> pd.DataFrame:
     rows = []
     for c in comparisons:
         lim = c.limit
-        rows.append({"substance": lim.substance, "limit": f"{lim.kind} {lim.value:g} {lim.unit}",
+        rows.append({"substance": lim.substance, "limit": f"{lim.kind} {format_number(lim.value, 6)} {lim.unit}",
                      "headspace": _ppm(c.concentration * 1e6),
                      "against the limit": f"{format_ratio(c.ratio)} the limit",
                      "ratio": float(c.ratio), "source": lim.source})
@@ -426,7 +426,7 @@ def _exposure_tables(spill) -> tuple[pd.DataFrame, pd.DataFrame]:
 
 def _rates_text(spill) -> str:
     names = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
-    parts = [f"{names.get(m, m)} {1000.0 * r:.3g} g/s" for m, r in spill.initial_rates.items()]
+    parts = [f"{names.get(m, m)} {format_number(1000.0 * r)} g/s" for m, r in spill.initial_rates.items()]
     return ", ".join(parts)
 
 
@@ -469,7 +469,7 @@ def indoor_view(toml_text: str, units: str) -> dict:
         "pool_text": pool,
         "pool_area_text": _quantity_text(run.pool_area, "area", units),
         "model": run.model, "rates_text": _rates_text(spill),
-        "mass_balance_text": f"{100.0 * run.mass_balance_error:.2g} %",
+        "mass_balance_text": f"{format_number(100.0 * run.mass_balance_error, 2)} %",
         "series": pd.concat(frames, ignore_index=True),
         "metrics": metrics, "comparisons": comparisons,
         "limit_lines": _limit_lines(scenario.limits, {c.key for c in _components(scenario)}),
@@ -508,20 +508,20 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
     rows = []
     for r in receptors:
         i = int(np.argmin(np.abs(distance - r)))
-        row = {f"distance [{unit_label('length', units)}]": f"{r:g}"}
+        row = {f"distance [{unit_label('length', units)}]": format_number(r, 6)}
         for j, name in enumerate(run.components):
             row[name] = _ppm(ppm[i, j])
         rows.append(row)
     distances = [{"limit": label,
                   "centreline above it out to": ("beyond the farthest distance computed"
                                                  if d is None else "stays below it" if d == 0
-                                                 else _quantity_text(d, "length", units, ",.0f")),
+                                                 else _quantity_text(d, "length", units)),
                   "note": note} for label, d, note in spill.distances]
     return {
         "error": None, "name": spill.name,
-        "source_text": f"{1000.0 * float(np.sum(run.emission_rate)):.3g} g/s",
+        "source_text": f"{format_number(1000.0 * float(np.sum(run.emission_rate)))} g/s",
         "stability": run.stability, "terrain": run.terrain,
-        "wind_text": _quantity_text(run.wind_speed, "wind", units, ".2g"),
+        "wind_text": _quantity_text(run.wind_speed, "wind", units, 2),
         "rates_text": _rates_text(spill),
         "series": pd.concat(frames, ignore_index=True),
         "receptors": pd.DataFrame(rows), "distances": pd.DataFrame(distances),
@@ -581,15 +581,15 @@ def _statistic_text(value: float, how: str) -> str:
     if how == "ppm":
         return _ppm(value)
     if how == "percent":
-        return f"{value:.3g} %"
+        return f"{format_number(value)} %"
     if how == "minutes":
         return _minutes(value)
-    return f"{1000.0 * value:.3g} g/s"
+    return f"{format_number(1000.0 * value)} g/s"
 
 
 def probability_text(probability: float) -> str:
     """A probability as the pages and the report show it (3 significant figures, in %)."""
-    return f"{100.0 * float(probability):.3g} %"
+    return f"{format_number(100.0 * float(probability))} %"
 
 
 def distribution_text(dist, kind: str | None, units: str) -> str:
@@ -598,15 +598,15 @@ def distribution_text(dist, kind: str | None, units: str) -> str:
 
     def value(v):
         if kind is None:
-            return f"{v:.4g}"
-        return f"{_display(v, kind, units):.4g} {unit_label(kind, units)}"
+            return f"{format_number(v)}"
+        return f"{format_number(_display(v, kind, units))} {unit_label(kind, units)}"
 
     def spread(v):
         if kind is None:
-            return f"{v:.4g}"
+            return f"{format_number(v)}"
         if kind == "temperature":
-            return (f"{convert(v, 'delta_degC', 'delta_degF'):.4g} °F" if units == "US"
-                    else f"{v:.4g} K")
+            return (f"{format_number(convert(v, 'delta_degC', 'delta_degF'))} °F" if units == "US"
+                    else f"{format_number(v)} K")
         return value(v)
 
     if isinstance(dist, Uniform):
@@ -616,7 +616,7 @@ def distribution_text(dist, kind: str | None, units: str) -> str:
                 f"{value(dist.mode)}")
     if isinstance(dist, LogNormal):
         return (f"lognormal, geometric mean {value(dist.geometric_mean)}, geometric SD "
-                f"{dist.geometric_sd:.4g}")
+                f"{format_number(dist.geometric_sd)}")
     if isinstance(dist, Normal):
         text = f"normal, mean {value(dist.mean)}, SD {spread(dist.sd)}"
         bounds = [f"{w} {value(b)}" for w, b in (("above", dist.low), ("below", dist.high))
@@ -809,4 +809,4 @@ def inventory_view(data: bytes, filename: str, pressure: float | None,
             "at_or_above": summary.at_or_above_alarm, "liquids": summary.liquids,
             "worst": summary.worst.reset_index(drop=True), "table": table.reset_index(drop=True),
             "errors": list(errors["reason"].astype(str)), "warnings": list(result.warnings),
-            "csv": csv_text, "pressure_text": f"{result.pressure / 1000.0:.4g} kPa"}
+            "csv": csv_text, "pressure_text": f"{format_number(result.pressure / 1000.0)} kPa"}

@@ -12,6 +12,7 @@ if _ROOT not in sys.path:
 import streamlit as st  # noqa: E402
 
 from estimator.scenario import dumps_scenario  # noqa: E402
+from estimator.limits import format_number  # noqa: E402
 from ui import case, shared, views  # noqa: E402
 from ui.case import key, system  # noqa: E402
 
@@ -123,7 +124,15 @@ def _flat(value, path=()):
 
 
 def _words(path) -> str:
-    return " ".join(str(p).replace("_", " ") for p in path if not isinstance(p, int))
+    names = [str(p) for p in path if not isinstance(p, int)]
+    if len(names) == 2 and tuple(names) in views.FIELD_LABELS:
+        return views.FIELD_LABELS[tuple(names)].lower()
+    return " ".join(n.replace("_", " ") for n in names)
+
+
+#: Units as scenario text writes them -> as the pages show them.
+_UNIT_WORDS = {"degC": "°C", "degF": "°F", "m3/h": "m³/h", "m3": "m³", "m2": "m²",
+               "ft3/min": "ft³/min", "ft3": "ft³", "ft2": "ft²"}
 
 
 def _value(v) -> str:
@@ -131,6 +140,15 @@ def _value(v) -> str:
         return "not given"
     if isinstance(v, list):
         return ", ".join(_value(x) for x in v)
+    if isinstance(v, float):
+        return format_number(v, 6)
+    words = str(v).split(" ")
+    if len(words) == 2:
+        try:
+            number = format_number(float(words[0]), 6)
+        except ValueError:
+            number = words[0]
+        return f"{number} {_UNIT_WORDS.get(words[1], words[1])}"
     return str(v)
 
 
@@ -152,7 +170,7 @@ def _times(a: float, b: float) -> str:
     ratio = b / a
     if abs(ratio - 1.0) < 0.005:
         return "about the same"
-    return f"{ratio:.3g} times A"
+    return f"{format_number(ratio)} times A"
 
 
 def _max_ratio(frame) -> float | None:
@@ -192,7 +210,7 @@ def result_words(va: dict, vb: dict) -> list[str]:
                        f"{rb_row['centreline above it out to']} in B.")
         ra = rb = None
     if ra is not None and rb is not None:
-        out.append(f"Highest ratio to a limit: {ra:.3g} in A, {rb:.3g} in B.")
+        out.append(f"Highest ratio to a limit: {format_number(ra)} in A, {format_number(rb)} in B.")
     return out
 
 

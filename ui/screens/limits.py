@@ -11,6 +11,7 @@ if _ROOT not in sys.path:
 import streamlit as st  # noqa: E402
 
 from estimator.errors import UllageError  # noqa: E402
+from estimator.limits import format_number  # noqa: E402
 from ui import case, shared  # noqa: E402
 from ui.case import key  # noqa: E402
 
@@ -60,7 +61,7 @@ def _check_site() -> None:
         slots.show({"field": getattr(exc, "field", ""), "reason": getattr(exc, "reason", str(exc)),
                     "area": "site"})
         return
-    st.caption(f"Pressure used: {pressure / 1000.0:.4g} kPa (barometric; a tank's gauge "
+    st.caption(f"Pressure used: {format_number(pressure / 1000.0)} kPa (barometric; a tank's gauge "
                "pressure is added on the tank page).")
 
 

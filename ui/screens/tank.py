@@ -9,6 +9,7 @@ if _ROOT not in sys.path:
 
 import streamlit as st  # noqa: E402
 
+from estimator.limits import format_number  # noqa: E402
 from ui import shared, views  # noqa: E402
 from ui.case import system  # noqa: E402
 
@@ -80,7 +81,7 @@ def show(view: dict) -> None:
             table["worst case"] = list(view["worst_comparisons"]["against the limit"])
         shared.table(table)
         if view["additive_index"] is not None:
-            st.caption(f"Mixture exposure index Σ C/TWA = {view['additive_index']:.3g} "
+            st.caption(f"Mixture exposure index Σ C/TWA = {format_number(view['additive_index'])} "
                        "(above 1: the mixture exceeds; for substances acting on the same "
                        "organs).")
     else:
