@@ -647,13 +647,19 @@ def _monte_carlo_blocks(mc) -> list:
                _Para(f"{mc.model} chain, {mc.n:,} samples (seed {mc.seed}, which reproduces "
                      "the run). Uncertain inputs:")]
     b.append(_Table(["input", "distribution"], [[k, v] for k, v in dict(mc.inputs).items()]))
-    rows = []
+    rows, low = [], []
     for name, table in dict(mc.percentiles).items():
         table = dict(table)
-        rows.append([name.replace("_", " "), _unit_text(dict(mc.units).get(name))]
-                    + [_n(table.get(q)) for q in (50, 90, 95, 99)])
+        head = [name.replace("_", " "), _unit_text(dict(mc.units).get(name))]
+        if name == "oxygen_percent":  # the hazard is low oxygen: its low percentiles
+            low.append(head + [_n(table.get(q)) for q in (1, 5, 50)])
+        else:
+            rows.append(head + [_n(table.get(q)) for q in (50, 90, 95, 99)])
     b.append(_Table(["output", "unit", "median", "90th percentile", "95th percentile",
                      "99th percentile"], rows, numeric=(2, 3, 4, 5)))
+    if low:
+        b.append(_Table(["output (low is the hazard)", "unit", "1st percentile",
+                         "5th percentile", "median"], low, numeric=(2, 3, 4)))
     if mc.exceedance:
         b.append(_Table(["limit or alarm", "probability of exceeding it"],
                         [[label, f"{_n(100 * p)} %"] for label, p in dict(mc.exceedance).items()],
@@ -791,7 +797,8 @@ def _monte_carlo_rows(row, item, mc) -> None:
     for name, table in dict(mc.percentiles).items():
         unit = _unit_text(dict(mc.units).get(name)) or "1"
         for q, v in dict(table).items():
-            row(item, "probabilistic", f"{q}th percentile", "", name, v, unit, note=note)
+            row(item, "probabilistic", f"{q}{'st' if q == 1 else 'th'} percentile", "", name,
+                v, unit, note=note)
     for label, p in dict(mc.exceedance).items():
         row(item, "probabilistic", "exceedance", "", "probability of exceeding", p, "1",
             limit=label, note=note)

@@ -139,7 +139,7 @@ __all__ = [
 ]
 
 #: Percentiles reported for every output. [%]
-PERCENTILES = (50, 90, 95, 99)
+PERCENTILES = (1, 5, 50, 90, 95, 99)
 
 #: The 97.5th percentile of the standard normal distribution, rounded as usual:
 #: a two-sided 95 % interval spans +-1.96 standard deviations (common practice).

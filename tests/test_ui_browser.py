@@ -70,7 +70,7 @@ def _wait_for(url: str, process, log_path: Path) -> None:
 
 def _metric_text(page) -> str:
     """The value of the headspace tile (found by its label, not by position)."""
-    tile = page.locator('[data-testid="stMetric"]').filter(has_text="Headspace, all vapour")
+    tile = page.locator('[data-testid="stMetric"]').filter(has_text="Total vapour in the headspace")
     return tile.first.locator('[data-testid="stMetricValue"]').inner_text().strip()
 
 
@@ -96,7 +96,7 @@ def test_temperature_change_and_report_download():
                                             viewport={"width": 1400, "height": 1600})
                     page.set_default_timeout(STEP_TIMEOUT_MS)
                     page.goto(base + "/")
-                    page.get_by_text("Headspace, all vapour").first.wait_for()
+                    page.get_by_text("Total vapour in the headspace").first.wait_for()
                     before = _metric_text(page)
                     assert before.endswith("ppm")
                     box = page.get_by_role("spinbutton", name="Liquid temperature [°C]", exact=True)

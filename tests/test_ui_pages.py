@@ -23,7 +23,7 @@ from streamlit.testing.v1 import AppTest  # noqa: E402
 from estimator import CAUTIONS  # noqa: E402
 from estimator.headspace import barometric_pressure, headspace  # noqa: E402
 from estimator.inventory import screen_inventory  # noqa: E402
-from estimator.limits import format_ppm  # noqa: E402
+from estimator.limits import format_number, format_ppm  # noqa: E402
 from estimator.scenario import dumps_scenario, load_scenario, loads_scenario  # noqa: E402
 from estimator.screening import run_scenario  # noqa: E402
 
@@ -76,7 +76,7 @@ def test_first_demo_is_on_screen_when_loaded():
     first = load_scenario(DEMOS[0])
     assert at.number_input(key="w:tank.temperature").value == pytest.approx(
         first.tanks[0]["temperature"] - 273.15)
-    assert metric(at, "Headspace, all vapour").endswith("ppm")
+    assert metric(at, "Total vapour in the headspace").endswith("ppm")
     assert f"On screen: {DEMOS[0].name}" in at.sidebar.markdown[0].value
 
 
@@ -91,7 +91,7 @@ def test_a_new_session_starts_empty():
     assert any("sea level (101.325 kpa)" in c.value.lower() for c in at.caption)
     assert at.selectbox(key="w:demo").value is None
     core = headspace("toluene", 298.15, 101325.0)
-    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
 
 
 def test_new_case_after_a_demo_drops_everything_of_the_demo():
@@ -129,21 +129,21 @@ def test_tank_headspace_shown_equals_core():
     at.run()
     assert not at.exception
     core = headspace(THINNER, 313.15, barometric_pressure(DEMO_ELEVATION), basis="mass")
-    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
     assert metric(at, "Flammable vapour [% of LFL]") == f"{float(core.percent_lfl):.3g} %"
-    assert metric(at, "Oxygen left") == f"{float(core.oxygen_percent):.3g} %"
+    assert metric(at, "Oxygen after displacement") == f"{float(core.oxygen_percent):.3g} %"
 
 
 def test_units_switch_converts_inputs_and_keeps_the_result():
     """US customary units show the temperature in degF; the result stays the same."""
     at = page("tank.py")
-    before = metric(at, "Headspace, all vapour")
+    before = metric(at, "Total vapour in the headspace")
     at.toggle(key="w:units").set_value(True)
     at.run()
     assert not at.exception
     assert at.number_input(key="w:tank.temperature").value == pytest.approx(93.2)
     assert "[°F]" in at.number_input(key="w:tank.temperature").label
-    assert metric(at, "Headspace, all vapour") == before
+    assert metric(at, "Total vapour in the headspace") == before
 
 
 def test_substance_search_by_synonym_selects_it():
@@ -156,7 +156,7 @@ def test_substance_search_by_synonym_selects_it():
     assert not at.exception
     assert at.selectbox(key="w:tank.substance").value == "methyl-ethyl-ketone"
     core = headspace("MEK", 307.15, barometric_pressure(DEMO_ELEVATION))
-    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
 
 
 def test_close_matches_are_offered():
@@ -215,7 +215,7 @@ def test_own_substance_from_sds_values():
     sub = user_substance("Solvent X", 0.100, 383.15, [(293.15, 3000.0)],
                          lower_flammability_limit=0.011, upper_flammability_limit=0.07)
     core = headspace(sub, 303.15, barometric_pressure(DEMO_ELEVATION))
-    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
 
 
 def test_limit_without_source_shows_an_error():
@@ -246,14 +246,14 @@ def test_alarm_levels_default_to_osha_and_refuse_nonsense():
 def test_malformed_scenario_upload_shows_an_error():
     """A scenario file that is not TOML is refused with the reason; the case is kept."""
     at = page("tank.py")
-    before = metric(at, "Headspace, all vapour")
+    before = metric(at, "Total vapour in the headspace")
     at.file_uploader(key="up:scenario").set_value(
         ("broken.toml", b"[scenario\ntitle = 'x'\n", "application/toml"))
     at.run()
     assert not at.exception
     assert "broken.toml was not loaded" in errors(at)
     assert "not valid TOML" in errors(at)
-    assert metric(at, "Headspace, all vapour") == before
+    assert metric(at, "Total vapour in the headspace") == before
 
 
 def test_oversized_scenario_upload_is_refused():
@@ -300,13 +300,13 @@ def test_fan_failure_changes_the_indoor_result():
 
 
 def test_outdoor_spill_shown_equals_core():
-    """The outdoor page shows the source strength and stability the core computes."""
+    """The outdoor page shows the release rate to air and stability the core computes."""
     at = page("spill_outdoors.py")
     load_demo(at, WAREHOUSE)
     assert not at.exception
     spill = next(s for s in run_scenario(load_scenario(WAREHOUSE)).spills if s.outdoor)
     rate = 1000.0 * float(spill.outdoor.emission_rate.sum())
-    assert metric(at, "Source strength") == f"{rate:.3g} g/s"
+    assert metric(at, "Release rate to air") == f"{format_number(rate)} g/s"
     assert metric(at, "Stability class") == spill.outdoor.stability
 
 
@@ -348,7 +348,7 @@ def test_compare_page_shows_both_cases_and_the_difference():
     """Case B starts 10 degrees hotter; both numbers are the core's, the change is in words."""
     at = page("compare.py")
     assert not at.exception
-    shown = [m.value for m in at.metric if m.label == "Headspace, all vapour"]
+    shown = [m.value for m in at.metric if m.label == "Total vapour in the headspace"]
     pressure = barometric_pressure(DEMO_ELEVATION)
     a = headspace(THINNER, 307.15, pressure, basis="mass")
     b = headspace(THINNER, 317.15, pressure, basis="mass")
@@ -408,7 +408,7 @@ def test_units_choice_survives_a_page_switch():
     at = AppTest.from_file(str(ROOT / "ui" / "app.py"), default_timeout=30).run()
     at.switch_page("screens/tank.py").run()
     load_demo(at, DEMOS[0])
-    before = metric(at, "Headspace, all vapour")
+    before = metric(at, "Total vapour in the headspace")
     at.toggle(key="w:units").set_value(True)
     at.run()
     at.switch_page("screens/spill_outdoors.py").run()
@@ -416,7 +416,7 @@ def test_units_choice_survives_a_page_switch():
     assert "[°F]" in at.number_input(key="w:outdoor.temperature").label
     at.switch_page("screens/tank.py").run()
     assert not at.exception
-    assert metric(at, "Headspace, all vapour") == before
+    assert metric(at, "Total vapour in the headspace") == before
 
 
 def test_saved_scenario_reloads_to_the_same_case():
@@ -559,7 +559,7 @@ def test_uncertainty_section_starts_with_the_demo_triangular_temperature():
     assert shown == [28.0, 34.0, 44.0]  # the file's 28, 34 and 44 degC
     assert at.number_input(key="w:mc.samples").value == 20000
     assert at.number_input(key="w:mc.seed").value == 2026
-    assert metric(at, "95th percentile, headspace, all vapour").endswith("ppm")
+    assert metric(at, "95th percentile, total vapour in the headspace").endswith("ppm")
     at.toggle(key="w:units").set_value(True)
     at.run()
     assert not at.exception
@@ -585,17 +585,17 @@ def test_tank_uniform_temperature_range_shown_equals_core():
         liquid(THINNER, "mass"), Uniform(303.15, 318.15), barometric_pressure(DEMO_ELEVATION),
         load_scenario(DEMOS[0]).limits, n=5000, seed=99, include_method_uncertainty=True,
         lfl_alarm=10.0, oxygen_alarm=19.5)
-    assert metric(at, "95th percentile, headspace, all vapour") == \
+    assert metric(at, "95th percentile, total vapour in the headspace") == \
         f"{format_ppm(core.percentiles['total_ppm'][95])} ppm"
     rows = table_rows(at)
     oxygen = core.exceedance["oxygen below 19.5 %"]
     assert 0.0 < oxygen < 1.0  # a probability the range really decides
-    assert f"| oxygen below 19.5 % | oxygen left | {100 * oxygen:.3g} % |" in rows
+    assert f"| oxygen below 19.5 % | oxygen after displacement | {100 * oxygen:.3g} % |" in rows
     assert f"| 10 % LFL alarm | flammable vapour | " \
            f"{100 * core.exceedance['10 % LFL alarm']:.3g} % |" in rows
     toluene = core.exceedance["TWA 20 ppm (illustrative value for this demo)"]
-    assert f"| toluene TWA 20 ppm | Toluene | {100 * toluene:.3g} % |" in rows
-    assert "| headspace, all vapour | " in rows
+    assert f"| Toluene TWA 20 ppm | Toluene | {100 * toluene:.3g} % |" in rows
+    assert "| total vapour in the headspace | " in rows
     assert "driven most by the temperature" in "\n".join(m.value for m in at.markdown)
     assert len(at.get("vega_lite_chart")) == 3  # two sweeps and the cumulative curve
 
@@ -613,7 +613,7 @@ def test_bad_temperature_range_shows_an_error_next_to_the_field():
     assert "Liquid temperature" in text
     assert "the low end (45 °C) must be below the high end (30 °C)" in text
     assert not any(m.label.startswith("95th percentile") for m in at.metric)
-    assert metric(at, "Headspace, all vapour").endswith("ppm")  # the stated result stays
+    assert metric(at, "Total vapour in the headspace").endswith("ppm")  # the stated result stays
 
 
 def test_indoor_spill_ranges_shown_equal_core():
@@ -648,7 +648,7 @@ def test_indoor_spill_ranges_shown_equal_core():
     for label, compared in (("TWA 250 ppm", "8-h TWA"), ("STEL 500 ppm", "highest 15-min average"),
                             ("emergency 2500 ppm", "peak")):
         p = core.exceedance[f"{label} (illustrative value for this demo)"]
-        assert f"| acetone {label} | {compared} | {100 * p:.3g} % |" in rows
+        assert f"| Acetone {label} | {compared} | {100 * p:.3g} % |" in rows
     top = next(iter(core.sensitivity["twa_ppm"]))
     assert top == "air_speed"
     assert "driven most by the air speed over the pool" in "\n".join(m.value for m in at.markdown)
@@ -749,7 +749,7 @@ def test_negative_tank_volume_marks_its_field_and_keeps_the_headspace():
     assert "**Tank volume**: must be above 0" in text
     assert "[[tank]]" not in text and "volume (line" not in text
     core = headspace(THINNER, 307.15, barometric_pressure(DEMO_ELEVATION), basis="mass")
-    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
     shown = "\n".join(m.value for m in at.markdown)
     assert "Vapour pushed out by filling" not in shown  # depends on the volume
 
@@ -792,6 +792,33 @@ def test_no_scientific_notation_on_the_pages(name, demo):
     assert text.strip()
     assert not re.findall(SCIENTIFIC, text), re.findall(r".{30}" + SCIENTIFIC + ".{10}", text)
     assert "degC" not in text and " m2" not in text
+    assert not re.findall(r"\b[a-z]+_[a-z_]+\b", text)  # no internal key (residual_area)
+    assert "[[" not in text and "mackay-matsugu" not in text
+
+
+def test_oxygen_is_shown_by_its_low_percentiles():
+    """The uncertainty section gives oxygen's 1st and 5th percentiles, not its high ones."""
+    import numpy as np
+
+    at = page("tank.py")
+    rows = [line for line in table_rows(at).split("\n") if "oxygen after displacement" in line]
+    heads = "\n".join(m.value for m in at.markdown if "1st percentile" in m.value)
+    assert "| 1st percentile | 5th percentile | median |" in heads
+    assert rows and not any("99th" in r for r in rows)
+    assert metric(at, "5th percentile, oxygen after displacement").endswith("%")
+    # the low percentile is the smaller oxygen (a property of percentiles, common practice)
+    values = [float(v.strip(" %")) for v in rows[0].split("|")[2:5]]
+    assert values == sorted(values) and np.isfinite(values).all()
+
+
+def test_ratio_of_exactly_one_reaches_the_limit():
+    """A concentration equal to the limit 'reaches' it (not 'below' or '1 times')."""
+    from estimator.limits import ExposureLimit, LimitComparison, format_ratio  # noqa: F401
+
+    lim = ExposureLimit("toluene", "TWA", 20.0, "ppm", "illustrative", 20e-6)
+    statement = LimitComparison(lim, 20e-6, 1.0).statement
+    assert "reaches the TWA of 20 ppm" in statement and "below" not in statement
+    assert format_ratio(1.0) == "reaches"
 
 
 def test_converted_inputs_are_rounded_to_sensible_steps():

@@ -762,6 +762,9 @@ def show_uncertainty(view: dict) -> None:
             column.metric(label, value)
     st.markdown("**Percentiles over the samples**")
     table(view["percentiles"])
+    if len(view.get("low_percentiles", ())):
+        st.markdown("**Oxygen: its low percentiles** (the hazard is too little oxygen)")
+        table(view["low_percentiles"])
     st.markdown("**Probability of exceeding each limit and alarm**")
     table(view["exceedance"])
     if view["driver_text"]:

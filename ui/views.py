@@ -105,6 +105,12 @@ FIELD_LABELS = {
         "Exposure limits: source",
 }
 
+#: Scenario keys -> screen labels (the first section that has the key wins).
+_KEY_LABELS = {}
+for (_section, _key), _label in FIELD_LABELS.items():
+    _KEY_LABELS.setdefault(_key, _label)
+_KEY_LABELS["worst_temperature"] = "Worst-case temperature"
+
 #: Core argument names as people know them.
 _CORE_LABELS = {"wind_speed": "Wind speed", "pressure": "Pressure in the vapour space",
                 "residual_area": "Area of liquid left in the tank"}
@@ -125,6 +131,72 @@ def field_label(field: str) -> str:
                     "alarms": "Alarm levels"}.get(section, section.replace("_", " "))
         return FIELD_LABELS.get((section, name), name.replace("_", " ").capitalize())
     return _CORE_LABELS.get(text, "")
+
+
+#: Method ids of the core in words.
+METHOD_WORDS = {"mackay-matsugu": "Mackay–Matsugu", "epa-rmp": "US EPA RMP",
+                "well-mixed": "well-mixed room", "two-zone": "two-zone"}
+
+#: Phrases of core messages that point at an input this page does not have.
+_PAGE_PHRASES = {
+    "; give residual_area for the liquid left in it":
+        " (a scenario file can give the area of liquid left in the tank)",
+}
+
+
+def plain_words(text: str, names: dict | None = None) -> str:
+    """A core message as the page says it: substance keys as their names, input keys
+    as their screen labels, method ids in words; never an internal key."""
+    out = str(text)
+    for phrase, words in _PAGE_PHRASES.items():
+        out = out.replace(phrase, words)
+    for key_, name in sorted((names or {}).items(), key=lambda kv: -len(kv[0])):
+        if key_ and key_ != name:
+            out = re.sub(rf"(?<![\w-]){re.escape(key_)}(?![\w-])", name, out)
+    for method, words in METHOD_WORDS.items():
+        out = re.sub(rf"(?<![\w-]){re.escape(method)}(?![\w-])", words, out)
+
+    def label(match):
+        word = match.group(0)
+        found = _KEY_LABELS.get(word)
+        return found.lower() if found else word.replace("_", " ")
+
+    return re.sub(r"\b[a-z]+(?:_[a-z]+)+\b", label, out)
+
+
+def _plain_view(view: dict, names: dict) -> dict:
+    """Every text of a view in plain words (see `plain_words`)."""
+    for field in ("findings", "warnings", "assumptions"):
+        if view.get(field):
+            view[field] = [plain_words(t, names) for t in view[field]]
+    if isinstance(view.get("model"), str):
+        view["model"] = plain_words(view["model"], names)
+    for field in ("limit_lines", "lines"):
+        for line in view.get(field) or []:
+            line["limit"] = plain_words(line["limit"], names)
+    for field in ("comparisons", "worst_comparisons", "metrics", "distances", "exceedance"):
+        frame = view.get(field)
+        if isinstance(frame, pd.DataFrame) and len(frame):
+            for column in ("substance", "limit", "limit or alarm"):
+                if column in frame:
+                    frame[column] = [plain_words(v, names) for v in frame[column]]
+    return view
+
+
+def _names(scenario) -> dict:
+    """Substance key -> name, for every substance a scenario's texts may name."""
+    names = {c.key: c.name for c in _components(scenario)}
+    for sub in scenario.substances:
+        names[sub.key] = sub.name
+    for lim in scenario.limits:
+        if lim.substance not in names:
+            try:
+                from estimator.substances import substance
+
+                names[lim.substance] = substance(lim.substance).name
+            except Exception:  # a key that no longer resolves: shown as stored
+                pass
+    return names
 
 
 def area_of(field: str) -> str:
@@ -389,7 +461,7 @@ def _tank_view(toml_text: str, units: str) -> dict:
     view["limit_lines"] = _limit_lines(scenario.limits)
     view["temperature_unit"] = unit_label("temperature", units)
     view["stated_temperature"] = float(_display(result.temperature, "temperature", units))
-    return view
+    return _plain_view(view, _names(scenario))
 
 
 # ----------------------------------------------------------------------- spills
@@ -459,7 +531,7 @@ def indoor_view(toml_text: str, units: str) -> dict:
         pool = f"cleaned up at {_minutes(run.source_removed_time)}"
     else:
         pool = "still there at the end of the run"
-    return {
+    return _plain_view({
         "error": None, "name": spill.name, "where": spill.where,
         "peak_text": _ppm(first.peak) if first else "-",
         "peak_zone": first.zone if first else "",
@@ -475,7 +547,7 @@ def indoor_view(toml_text: str, units: str) -> dict:
         "limit_lines": _limit_lines(scenario.limits, {c.key for c in _components(scenario)}),
         "findings": list(spill.findings), "warnings": list(spill.warnings),
         "assumptions": list(scenario.assumptions),
-    }
+    }, _names(scenario))
 
 
 def _components(scenario):
@@ -517,7 +589,7 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
                                                  if d is None else "stays below it" if d == 0
                                                  else _quantity_text(d, "length", units)),
                   "note": note} for label, d, note in spill.distances]
-    return {
+    return _plain_view({
         "error": None, "name": spill.name,
         "source_text": f"{format_number(1000.0 * float(np.sum(run.emission_rate)))} g/s",
         "stability": run.stability, "terrain": run.terrain,
@@ -529,7 +601,7 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
         "findings": list(spill.findings), "warnings": list(spill.warnings),
         "assumptions": list(scenario.assumptions),
         "distance_unit": unit_label("length", units),
-    }
+    }, _names(scenario))
 
 
 def _keys(scenario):
@@ -552,9 +624,9 @@ _INPUT_WORDS = {"temperature": "temperature", "pool_area": "pool area", "area": 
 
 #: Outputs shown with their percentiles: model -> (output, words, how to format).
 _PERCENTILE_OUTPUTS = {
-    "headspace": (("total_ppm", "headspace, all vapour", "ppm"),
+    "headspace": (("total_ppm", "total vapour in the headspace", "ppm"),
                   ("percent_lfl", "flammable vapour (% of LFL)", "percent"),
-                  ("oxygen_percent", "oxygen left", "percent")),
+                  ("oxygen_percent", "oxygen after displacement", "percent")),
     "indoor spill": (("twa_ppm", "8-h TWA (room)", "ppm"),
                      ("short_term_ppm", "highest 15-min average (room)", "ppm"),
                      ("peak_ppm", "peak (room)", "ppm"),
@@ -565,6 +637,11 @@ _PERCENTILE_OUTPUTS = {
 #: The output whose spread the page explains, per model, and its name in a sentence.
 _KEY_OUTPUT = {"headspace": "total_ppm", "indoor spill": "twa_ppm"}
 _KEY_WORDS = {"headspace": "total headspace concentration", "indoor spill": "8-h TWA in the room"}
+
+
+#: Column heads of percentiles.
+_PERCENTILE_WORDS = {1: "1st percentile", 5: "5th percentile", 50: "median",
+                     90: "90th percentile", 95: "95th percentile", 99: "99th percentile"}
 
 
 def input_words(name: str) -> str:
@@ -674,14 +751,19 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
     for name, text in mc.inputs.items():
         if name.startswith("vapor_pressure_factor"):
             rows.append({"input": input_words(name), "distribution": text})
-    stats = []
+    stats, low = [], []
     for output, words, how in _PERCENTILE_OUTPUTS[mc.model]:
         if output not in mc.percentiles:
             continue
         table = mc.percentiles[output]
         row = {"output": words}
+        if output == "oxygen_percent":  # the hazard is low oxygen: its low percentiles
+            for q in (1, 5, 50):
+                row[_PERCENTILE_WORDS[q]] = _statistic_text(table[q], how)
+            low.append(row)
+            continue
         for q in (50, 90, 95, 99):
-            row["median" if q == 50 else f"{q}th percentile"] = _statistic_text(table[q], how)
+            row[_PERCENTILE_WORDS[q]] = _statistic_text(table[q], how)
         stats.append(row)
     names = ({c.key: c.name for c in item.headspace.liquid.components}
              if mc.model == "headspace" else None)
@@ -695,7 +777,8 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
         shown.add(line["label"])
     for label, probability in mc.exceedance.items():
         if label not in shown:
-            compared = "oxygen left" if label.startswith("oxygen") else "flammable vapour"
+            compared = ("oxygen after displacement" if label.startswith("oxygen")
+                        else "flammable vapour")
             exceedance.append({"limit or alarm": label, "compared with": compared,
                                "probability of exceeding": probability_text(probability)})
     key_output = _KEY_OUTPUT[mc.model]
@@ -719,11 +802,15 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
     key_percentiles = [(f"95th percentile, {words}", _statistic_text(
         mc.percentiles[output][95], how)) for output, words, how in _PERCENTILE_OUTPUTS[mc.model]
         if how == "ppm" and output in mc.percentiles and output != "short_term_ppm"]
-    return {
+    if "oxygen_percent" in mc.percentiles:
+        key_percentiles.append(("5th percentile, oxygen after displacement", _statistic_text(
+            mc.percentiles["oxygen_percent"][5], "percent")))
+    return _plain_view({
         "error": None, "model": mc.model, "n": mc.n, "seed": mc.seed,
         "n_text": f"{mc.n:,} samples, seed {mc.seed}",
         "inputs": pd.DataFrame(rows, columns=["input", "distribution"]),
         "percentiles": pd.DataFrame(stats),
+        "low_percentiles": pd.DataFrame(low),
         "key_percentiles": key_percentiles,
         "exceedance": pd.DataFrame(exceedance, columns=["limit or alarm", "compared with",
                                                         "probability of exceeding"]),
@@ -734,7 +821,7 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
         "log_x": bool(log_x),
         "warnings": list(mc.warnings) + [w for w in item.warnings if "probabilistic" in w
                                          and w not in mc.warnings],
-    }
+    }, _names(scenario))
 
 
 # --------------------------------------------------------------------- checks

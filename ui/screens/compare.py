@@ -201,7 +201,7 @@ def result_words(va: dict, vb: dict) -> list[str]:
         out.append(f"Pool: {va['pool_text']} in A; {vb['pool_text']} in B.")
         ra, rb = _max_ratio(va["comparisons"]), _max_ratio(vb["comparisons"])
     else:
-        out.append(f"Source strength: {va['source_text']} in A, {vb['source_text']} in B; "
+        out.append(f"Release rate to air: {va['source_text']} in A, {vb['source_text']} in B; "
                    f"stability class {va['stability']} in A, {vb['stability']} in B.")
         for (_, ra_row), (_, rb_row) in zip(va["distances"].iterrows(),
                                             vb["distances"].iterrows()):
@@ -223,7 +223,7 @@ def column(view: dict, label: str) -> None:
         return
     if study == "tank":
         now = view["now"]
-        st.metric("Headspace, all vapour", now["total_ppm_text"])
+        st.metric("Total vapour in the headspace", now["total_ppm_text"])
         st.metric("Flammable vapour [% of LFL]", now["percent_lfl_text"])
         st.markdown(f"**Flammability:** {now['flammability_words']}.")
         table = view["comparisons"]
@@ -232,7 +232,7 @@ def column(view: dict, label: str) -> None:
         st.metric("8-h TWA", view["twa_text"])
         table = view["comparisons"]
     else:
-        st.metric("Source strength", view["source_text"])
+        st.metric("Release rate to air", view["source_text"])
         st.metric("Stability class", view["stability"])
         table = view["distances"]
     if table is not None and len(table):

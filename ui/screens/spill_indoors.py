@@ -56,14 +56,15 @@ with inputs:
     a, b = st.columns(2)
     shared.quantity("Near-field radius", "room.near_field_radius", optional=True, container=a,
                     help="Give both near-field boxes for the two-zone model.")
-    shared.quantity("Air speed between zones", "room.random_air_speed", optional=True,
+    shared.quantity("Random air speed near the source", "room.random_air_speed", optional=True,
                     container=b)
     slots.add("room")
     st.caption("Not sure of the temperature, amount, mixing factor or air speed? Give them "
                "as ranges under [Uncertainty](#uncertainty) below.")
     a, b = st.columns(2)
-    shared.quantity("Run length", "indoor.duration", container=a)
-    shared.quantity("Clean-up after", "indoor.cleanup", optional=True, container=b)
+    shared.quantity("Time modelled", "indoor.duration", container=a)
+    shared.quantity("Pool removed at", "indoor.cleanup", optional=True, container=b,
+                    help="When the pool is cleaned up or covered; empty: it stays until dry.")
     slots.add("time")
     limit_rows = shared.limits_summary(slots)
 

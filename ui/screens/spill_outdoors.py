@@ -44,12 +44,12 @@ with inputs:
     st.subheader("Weather")
     a, b = st.columns(2)
     shared.quantity("Wind speed", "weather.wind", container=a)
-    shared.quantity("measured at height", "weather.wind_height", container=b)
+    shared.quantity("Wind measured at height", "weather.wind_height", container=b)
     sky = shared.choice("Sky", "weather.sky", list(case.SKY), format_func=case.SKY.get,
                         horizontal=True)
     a, b = st.columns(2)
     if sky == "day":
-        shared.choice("Sunshine", "weather.insolation", INSOLATION, container=a,
+        shared.choice("Incoming sunshine", "weather.insolation", INSOLATION, container=a,
                       horizontal=True)
     elif sky == "night":
         shared.number("Cloud cover [oktas, 0-8]", "weather.cloud", container=a)
@@ -68,7 +68,7 @@ with inputs:
 def show(view: dict) -> None:
     st.subheader(view["name"])
     a, b, c = st.columns(3)
-    a.metric("Source strength", view["source_text"], help="initial evaporation rate")
+    a.metric("Release rate to air", view["source_text"], help="initial evaporation rate")
     b.metric("Stability class", view["stability"])
     c.metric("Wind at 10 m", view["wind_text"])
     if len(view["distances"]):

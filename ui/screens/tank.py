@@ -61,10 +61,13 @@ def show(view: dict) -> None:
     now = view["now"]
     st.subheader(f"{view['name']}: {view['liquid']} at {view['temperature_text']}")
     a, b, c = st.columns([1.4, 1, 1])
-    a.metric("Headspace, all vapour", now["total_ppm_text"], help=now["total_mg_text"])
+    a.metric("Total vapour in the headspace", now["total_ppm_text"],
+             help=now["total_mg_text"])
     b.metric("Flammable vapour [% of LFL]", now["percent_lfl_text"],
              help=f"Alarm level {view['alarm_percent']:g} % of the LFL ({view['alarm_source']})")
-    c.metric("Oxygen left", now["oxygen_text"])
+    c.metric("Oxygen after displacement", now["oxygen_text"])
+    st.caption("LFL (LEL): the lower flammability limit, also called the lower explosive "
+               "limit; % of LFL is what a combustible-gas meter reads.")
     st.markdown(f"**Flammability:** {now['flammability_words']}.  \n"
                 f"**Concentration:** {now['total_ppm_text']} = {now['total_mg_text']} at "
                 f"{now['pressure_text']}.")
