@@ -256,6 +256,11 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
 
     hs = evaluate(t)
     worst = None
+    if worst_t is not None and worst_t < t:
+        notes.append(f"the worst-case temperature {worst_t - 273.15:.1f} °C is below the stated "
+                     f"temperature {t - 273.15:.1f} °C; the stated temperature is used as the "
+                     "worst case: check both")
+        worst_t = t
     if worst_t is not None:
         try:
             worst = evaluate(worst_t)

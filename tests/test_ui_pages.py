@@ -829,3 +829,32 @@ def test_converted_inputs_are_rounded_to_sensible_steps():
     at.toggle(key="w:units").set_value(True)
     at.run()
     assert at.number_input(key="w:tank.volume").value == 2500.0
+
+
+# ------------------------------------------------------------ temperature flags
+
+def test_worst_case_below_stated_is_flagged_and_the_stated_used():
+    """A worst case cooler than the stated temperature is flagged; the stated one is used."""
+    at = page("tank.py")
+    at.number_input(key="w:tank.worst").set_value(20.0)  # stated 34 degC
+    at.run()
+    assert not at.exception
+    warnings_shown = "\n".join(w.value for w in at.warning)
+    assert "worst-case temperature 20.0 °C is below the stated temperature 34.0 °C" \
+        in warnings_shown
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "**Worst case, 34.0 °C:**" in shown
+
+
+def test_core_screening_uses_the_stated_temperature_as_worst_case():
+    """screen_tank: worst case below the stated temperature -> the stated one, with a note."""
+    from estimator.screening import screen_tank
+
+    text = DEMOS[0].read_text(encoding="utf-8").replace(
+        'worst_temperature = "46 degC"', 'worst_temperature = "25 degC"')
+    assert 'worst_temperature = "25 degC"' in text
+    scenario = loads_scenario(text)
+    result = screen_tank(scenario, scenario.tanks[0])
+    assert result.worst_temperature == result.temperature
+    assert float(result.worst.total_ppm) == pytest.approx(float(result.headspace.total_ppm))
+    assert any("is below the stated temperature" in w for w in result.warnings)

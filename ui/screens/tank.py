@@ -11,7 +11,7 @@ import streamlit as st  # noqa: E402
 
 from estimator.limits import format_number  # noqa: E402
 from ui import shared, views  # noqa: E402
-from ui.case import system  # noqa: E402
+from ui.case import key, system  # noqa: E402
 
 slots = shared.setup_page(
     "Tank headspace", "tank",
@@ -31,6 +31,10 @@ with inputs:
                     help="The hottest the liquid gets (sun, process heat); leave empty to "
                          "screen only the stated temperature.")
     slots.add("temperature")
+    stated, worst_case = state.get(key("tank.temperature")), state.get(key("tank.worst"))
+    if stated is not None and worst_case is not None and worst_case < stated:
+        st.warning("**Worst-case temperature** is below the liquid temperature: the liquid "
+                   "temperature is used as the worst case. Check both.")
     st.caption("Not sure of the liquid temperature? Give it as a range under "
                "[Uncertainty](#uncertainty) below.")
     a, b, c = st.columns(3)
