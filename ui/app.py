@@ -18,7 +18,7 @@ st.set_page_config(page_title="ullage: vapour hazard screening", layout="wide")
 PAGES = _HERE / "screens"
 navigation = st.navigation({
     "Case": [
-        st.Page(PAGES / "start.py", title="Start", url_path="start", default=True),
+        st.Page(PAGES / "start.py", title="Start", default=True),
     ],
     "Screening": [
         st.Page(PAGES / "tank.py", title="Tank headspace", url_path="tank"),

@@ -99,11 +99,12 @@ class Slots:
 TILE_STYLE = """<style>
 [data-testid="stMetricValue"], [data-testid="stMetricValue"] > div {
   white-space: normal !important; overflow: visible !important;
-  text-overflow: clip !important; overflow-wrap: anywhere; line-height: 1.15;
+  text-overflow: clip !important; overflow-wrap: break-word; line-height: 1.15;
   font-size: clamp(1.15rem, 1.6vw, 2rem);
 }
 [data-testid="stMetricLabel"], [data-testid="stMetricLabel"] * {
   white-space: normal !important; overflow: visible !important; text-overflow: clip !important;
+  word-break: normal !important; overflow-wrap: normal !important;
 }
 </style>"""
 
