@@ -311,12 +311,27 @@ def test_outdoor_spill_shown_equals_core():
 
 
 def test_bad_receptor_list_shows_an_error():
-    """Downwind distances that are not numbers are refused next to the box."""
+    """Downwind distances that are not lengths are refused next to the box."""
     at = page("spill_outdoors.py")
-    at.text_input(key="w:weather.receptors").input("100, far")
+    at.text_input(key="w:weather.receptors").input("100 m, far")
     at.run()
     assert not at.exception
-    assert "not a list of numbers" in errors(at)
+    assert "**Downwind distances**" in errors(at)
+
+
+def test_distance_without_a_unit_is_refused_naming_the_field():
+    """A distance typed without its unit is refused, naming the box (issue 11, section 6)."""
+    at = page("spill_outdoors.py")
+    at.text_input(key="w:weather.receptors").input("100, 300 m")
+    at.run()
+    assert not at.exception
+    assert "'100' has no unit" in errors(at)
+    assert "Downwind distances" in errors(at)
+    at.text_input(key="w:weather.receptors").input("100 ft, 0.3 km")
+    at.run()
+    assert not errors(at)
+    rows = table_rows(at)
+    assert "| 30.48 |" in rows and "| 300 |" in rows  # 100 ft = 30.48 m (exact by definition)
 
 
 def test_inventory_example_shown_equals_core():

@@ -129,7 +129,7 @@ PLAIN = {
     "weather.cloud": 4.0,
     "weather.stability": "D",
     "weather.terrain": "open",
-    "weather.receptors": "100, 300, 1000, 3000",
+    "weather.receptors": "100 m, 300 m, 1 km, 3 km",
     "cmp.study": "tank",
     "cmp.substance": "",
     "cmp.mixing": 3.0,
@@ -274,14 +274,7 @@ def switch_units(state, old: str, new: str) -> None:
             continue
         state[key(name)] = _round(convert(float(value), UNITS[kind][old][2],
                                           UNITS[kind][new][2]))
-    receptors = state.get(key("weather.receptors"), "")
-    try:
-        values = [float(v) for v in str(receptors).replace(";", ",").split(",") if v.strip()]
-    except ValueError:
-        return
-    state[key("weather.receptors")] = ", ".join(
-        f"{_round(convert(v, UNITS['length'][old][2], UNITS['length'][new][2]), 4):g}"
-        for v in values)
+    # the downwind distances are text with their own units: nothing to convert
 
 
 # ----------------------------------------------------------------------- defaults
@@ -496,8 +489,11 @@ def apply_scenario(state, scenario, source: str) -> list[str]:
             state[key("weather.cloud")] = float(od.get("cloud_cover", 4.0) or 0.0)
         state[key("weather.terrain")] = od.get("terrain", "open")
         units = system(state)
+        written = list(doc.get("outdoors", {}).get("receptors") or [])
         state[key("weather.receptors")] = ", ".join(
-            f"{to_display(x, 'length', units):g}" for x in od["receptors"])
+            str(x) for x in written) if written else ", ".join(
+            f"{to_display(x, 'length', units):g} {UNITS['length'][units][1]}"
+            for x in od["receptors"])
     state["case.studies"] = studies
     state["case.base_si"] = _base_si(scenario, indoor, outdoor)
     notes += _set_uncertain(state, scenario)
@@ -955,11 +951,31 @@ def spill_item(state, prefix: str, liquid_name: str) -> dict:
 def receptor_values(state) -> list[float]:
     """Receptor distances as typed, in the display length unit."""
     raw = str(state.get(key("weather.receptors")) or "")
-    values = []
-    for part in raw.replace(";", ",").split(","):
-        if part.strip():
-            values.append(float(part))
-    return values
+    return [to_display(x, "length", system(state)) for x in receptor_distances(raw)]
+
+
+def receptor_distances(raw: str) -> list[float]:
+    """Downwind distances typed as text with units ("100 m, 0.5 km, 2000 ft") -> [m].
+
+    A number without a unit is refused (InputError naming the field): the box takes
+    any length unit, so a bare number could mean metres or feet.
+    """
+    from estimator.errors import InputError
+    from estimator.units import parse_quantity
+
+    out = []
+    for part in str(raw).replace(";", ",").split(","):
+        part = part.strip()
+        if not part:
+            continue
+        try:
+            float(part)
+        except ValueError:
+            out.append(parse_quantity(part, "length", "Downwind distances"))
+            continue
+        raise InputError("Downwind distances", f"'{part}' has no unit; write it with one, "
+                         f"for example '{part} m' or '{part} ft'")
+    return out
 
 
 def outdoors_item(state, receptors=None) -> dict:
@@ -984,6 +1000,10 @@ def outdoors_item(state, receptors=None) -> dict:
     if (receptors is None and written.get("receptors") and loaded
             and values == [to_display(x, "length", system(state)) for x in loaded]):
         item["receptors"] = list(written["receptors"])
+    elif receptors is None and values:
+        item["receptors"] = [part.strip() for part in str(
+            state.get(key("weather.receptors")) or "").replace(";", ",").split(",")
+            if part.strip()]
     elif values:
         item["receptors"] = [f"{float(v)!r} {length}" for v in values]
     return _carry({k: v for k, v in item.items() if v is not None}, state, "outdoors")

@@ -35,7 +35,8 @@ ADVICE = {
     "time": "Check the run duration and the clean-up time.",
     "room": "Check the room volume, air changes, mixing factor and air speeds.",
     "weather": "Check the wind speed, its height and the sky or stability class.",
-    "receptors": "List downwind distances as numbers separated by commas.",
+    "receptors": "List downwind distances, each with its unit, separated by commas "
+                 "(100 m, 300 m, 1 km).",
     "file": "Fix the file and load it again.",
     "solver": "The calculation could not be finished for these inputs. A slightly different "
               "amount, area or run length usually gets past it; the inputs themselves are "

@@ -60,7 +60,8 @@ with inputs:
                   horizontal=True)
     slots.add("weather")
     length = case.unit_label("length", units)
-    shared.text_box(f"Downwind distances [{length}], separated by commas", "weather.receptors")
+    shared.text_box("Downwind distances, each with its unit, separated by commas",
+                    "weather.receptors", placeholder=f"e.g. 100 {length}, 300 {length}")
     slots.add("receptors")
     limit_rows = shared.limits_summary(slots)
 
@@ -95,11 +96,11 @@ with results:
     slots.add("general")
     try:
         asked = case.receptor_values(state)
-    except ValueError:
+    except ValueError as exc:
         asked = None
-        slots.show({"field": "downwind distances", "area": "receptors",
-                    "reason": f"'{state.get(case.key('weather.receptors'))}' is not a list "
-                              "of numbers"})
+        reason = getattr(exc, "reason", None) or (
+            f"'{state.get(case.key('weather.receptors'))}' is not a list of distances")
+        slots.show({"field": "", "area": "receptors", "reason": reason})
     if asked is not None:
         grid = [case.to_display(x, "length", units) for x in np.geomspace(100.0, 10000.0, 33)]
         everything = sorted(set(asked) | set(grid))
