@@ -327,11 +327,12 @@ def _wants_log(series: dict, hlines: dict) -> bool:
     return positive.size > 1 and float(positive.max()) / float(positive.min()) > 100.0
 
 
-def _plot(name, caption, x, series, hlines, *, x_label, y_label, title):
+def _plot(name, caption, x, series, hlines, *, x_label, y_label, title, log_y=None):
     from .plots import line_plot_svg
 
     svg = line_plot_svg(x, series, x_label=x_label, y_label=y_label, title=title,
-                        hlines=hlines, log_y=_wants_log(series, hlines))
+                        hlines=hlines,
+                        log_y=_wants_log(series, hlines) if log_y is None else log_y)
     return _Plot(name, caption, svg)
 
 
@@ -363,7 +364,11 @@ def _tank_plots(result, index, tank) -> list:
             {"headspace": np.asarray(sweep.percent_lfl, dtype=float)},
             {f"alarm {alarms.percent_lfl:g} % LFL": alarms.percent_lfl, "LFL (100 %)": 100.0},
             x_label="liquid temperature [°C]", y_label="% of the LFL",
-            title=f"Tank {tank.name}: % of LFL by temperature"))
+            title=f"Tank {tank.name}: % of LFL by temperature",
+            # logarithmic once the curve runs far above the alarm, so that the alarm
+            # and LFL lines stay clear of the axis
+            log_y=bool(np.nanmax(np.asarray(sweep.percent_lfl, dtype=float))
+                       > 5.0 * alarms.percent_lfl)))
     return out
 
 

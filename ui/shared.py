@@ -721,6 +721,13 @@ def uncertainty_results(study: str, slots: Slots, limit_rows, units: str,
         table(view["inputs"])
 
 
+def _chart_height(data: pd.DataFrame, color: str | None, lines) -> int:
+    """Height of a chart [px]: the plot itself plus room for every legend entry."""
+    entries = (data[color].nunique() if color and color in data else 0) + len(list(lines))
+    titles = (1 if color else 0) + (1 if lines else 0)
+    return 280 + 21 * entries + 24 * titles
+
+
 def cumulative_chart(data: pd.DataFrame, *, lines=(), log_x: bool = False) -> None:
     """Cumulative distribution curves with the limits as labelled vertical dashed lines."""
     x_enc = {"field": "ppm", "type": "quantitative", "title": "concentration [ppm]"}
@@ -731,7 +738,7 @@ def cumulative_chart(data: pd.DataFrame, *, lines=(), log_x: bool = False) -> No
                       "title": "fraction of samples at or below",
                       "scale": {"domain": [0, 1]}},
                 "color": {"field": "series", "type": "nominal", "title": None,
-                          "legend": {"orient": "right", "labelLimit": 160}},
+                          "legend": LEGEND},
                 "strokeDash": {"field": "series", "type": "nominal", "legend": None},
                 "tooltip": [{"field": "series", "type": "nominal"},
                             {"field": "ppm", "type": "quantitative", "format": ",.3~r"},
@@ -739,20 +746,30 @@ def cumulative_chart(data: pd.DataFrame, *, lines=(), log_x: bool = False) -> No
     layers = [{"mark": {"type": "line", "strokeWidth": 2}, "encoding": encoding}]
     if lines:
         layers.append({"data": {"values": [dict(v) for v in lines]},
-                       "mark": {"type": "rule", "strokeDash": [6, 4], "strokeWidth": 1.5},
+                       "mark": {"type": "text", "align": "right", "baseline": "bottom",
+                                "dx": -4, "dy": -3, "angle": 270, "fontSize": 11,
+                                "color": "#3a1c1c"},
                        "encoding": {"x": {"field": "ppm", "type": "quantitative"},
+                                    "y": {"value": 4}, "text": {"field": "limit"}}})
+        layers.append({"data": {"values": [dict(v) for v in lines]},
+                       "mark": {"type": "rule", "strokeWidth": 1.5},
+                       "encoding": {"x": {"field": "ppm", "type": "quantitative"},
+                                    "strokeDash": {"field": "limit", "type": "nominal",
+                                                   "scale": {"range": LIMIT_DASHES},
+                                                   "title": "limits (dashed)",
+                                                   "legend": LIMIT_LEGEND},
                                     "color": {"field": "limit", "type": "nominal",
                                               "title": "limits (dashed)",
                                               "scale": {"range": LIMIT_COLOURS},
-                                              "legend": {"orient": "right",
-                                                         "labelLimit": 160}},
+                                              "legend": LIMIT_LEGEND},
                                     "tooltip": [{"field": "limit", "type": "nominal"},
                                                 {"field": "ppm", "type": "quantitative",
                                                  "format": ",.3~r"}]}})
     spec = {"layer": layers,
             "resolve": {"scale": {"color": "independent", "strokeDash": "independent"},
                         "legend": {"color": "independent"}}}
-    st.vega_lite_chart(data, spec, width="stretch", height=320)
+    st.vega_lite_chart(data, spec, width="stretch",
+                     height=_chart_height(data, "series", lines))
 
 
 def show_uncertainty(view: dict) -> None:
@@ -814,6 +831,17 @@ def show_notes(view: dict) -> None:
         st.caption("Assumptions: " + "; ".join(view["assumptions"]) + ".")
 
 
+#: Legends below the plot, one entry a line, never cut short.
+LEGEND = {"orient": "bottom", "direction": "vertical", "labelLimit": 0}
+#: The limit lines' legend above the plot (colour and dash pattern together), so
+#: that the two legends never sit side by side and run out of width.
+LIMIT_LEGEND = {"orient": "top", "direction": "vertical", "labelLimit": 0,
+                "symbolType": "stroke", "symbolStrokeWidth": 2}
+
+#: Dash patterns of limit lines, one per limit, so that they differ by more than
+#: colour (each is also labelled in place).
+LIMIT_DASHES = [[6, 4], [2, 3], [10, 3, 2, 3], [12, 4], [4, 2, 1, 2], [1, 4], [8, 2, 2, 2]]
+
 #: Colours of limit lines: dark, warm and clearly apart from the data lines.
 LIMIT_COLOURS = ["#7a1f1f", "#a65e00", "#5b3a73", "#375a7f", "#5e5e5e", "#8c4a2f", "#2f5d50"]
 
@@ -833,20 +861,28 @@ def chart(data: pd.DataFrame, *, x: str, x_title: str, y: str, y_title: str,
                             {"field": y, "type": "quantitative", "format": ",.3~r"}]}
     if color:
         encoding["color"] = {"field": color, "type": "nominal", "title": None,
-                             "legend": {"orient": "right", "labelLimit": 160}}
+                             "legend": LEGEND}
         encoding["strokeDash"] = {"field": color, "type": "nominal", "legend": None}
         encoding["tooltip"].append({"field": color, "type": "nominal"})
     layers = [{"mark": {"type": "line", "strokeWidth": 2}, "encoding": encoding}]
     if lines:
         values = [dict(v) for v in lines]
         layers.append({"data": {"values": values},
-                       "mark": {"type": "rule", "strokeDash": [6, 4], "strokeWidth": 1.5},
+                       "mark": {"type": "text", "align": "left", "dx": 4, "dy": -6,
+                                "fontSize": 11, "color": "#3a1c1c"},
                        "encoding": {"y": {"field": line_field, "type": "quantitative"},
+                                    "x": {"value": 0}, "text": {"field": "limit"}}})
+        layers.append({"data": {"values": values},
+                       "mark": {"type": "rule", "strokeWidth": 1.5},
+                       "encoding": {"y": {"field": line_field, "type": "quantitative"},
+                                    "strokeDash": {"field": "limit", "type": "nominal",
+                                                   "scale": {"range": LIMIT_DASHES},
+                                                   "title": "limits (dashed)",
+                                                   "legend": LIMIT_LEGEND},
                                     "color": {"field": "limit", "type": "nominal",
                                               "title": "limits (dashed)",
                                               "scale": {"range": LIMIT_COLOURS},
-                                              "legend": {"orient": "right",
-                                                         "labelLimit": 160}},
+                                              "legend": LIMIT_LEGEND},
                                     "tooltip": [{"field": "limit", "type": "nominal"}]}})
     if marker is not None:
         layers.append({"data": {"values": [{x: marker}]},
@@ -855,7 +891,8 @@ def chart(data: pd.DataFrame, *, x: str, x_title: str, y: str, y_title: str,
     spec = {"layer": layers,
             "resolve": {"scale": {"color": "independent", "strokeDash": "independent"},
                         "legend": {"color": "independent"}}}
-    st.vega_lite_chart(data, spec, width="stretch", height=320)
+    st.vega_lite_chart(data, spec, width="stretch",
+                     height=_chart_height(data, color, lines))
 
 
 def downloads(toml_text: str | None, stem: str) -> None:

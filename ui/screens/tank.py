@@ -111,8 +111,12 @@ def show(view: dict) -> None:
         lfl_lines = [{"percent_lfl": view["alarm_percent"],
                       "limit": f"alarm {view['alarm_percent']:g} % LFL"},
                      {"percent_lfl": 100.0, "limit": "LFL"}]
+        highest = float(view["sweep_lfl"]["percent_lfl"].max())
+        # a logarithmic axis once the curve runs far above the alarm, so the alarm
+        # and LFL lines stay clear of the axis
         shared.chart(view["sweep_lfl"], x="temperature", x_title=f"liquid temperature [{unit}]",
                      y="percent_lfl", y_title="flammable vapour [% of LFL]", color=None,
+                     log_y=highest > 5.0 * view["alarm_percent"],
                      lines=lfl_lines, line_field="percent_lfl",
                      marker=view["stated_temperature"])
     st.markdown(f"**Method.** Raoult's law with {now['activity']}; vapour pressure by the "
