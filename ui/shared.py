@@ -911,6 +911,94 @@ def downloads(toml_text: str | None, stem: str) -> None:
                       key=f"dl:{stem}:csv")
 
 
+def study_page(kind: str, draw_inputs, view_function, show, caption: str) -> None:
+    """The body of a study page: inputs and result in a fragment of their own, then
+    the uncertainty section.
+
+    A change to an input above reruns only the inputs and the result (the sidebar,
+    cautions and the Monte Carlo are left as they are), unless the change also
+    touches what the samples use (the liquid, the pressure, the limits): then the
+    whole page runs again. The Monte Carlo itself is cached on its own inputs.
+
+    Parameters
+    ----------
+    kind : str
+        "tank" or "indoor".
+    draw_inputs : callable
+        Slots -> the accepted limit rows; draws the page's inputs.
+    view_function : callable
+        Scenario text and units -> the view dict the page's `show` draws.
+    show : callable
+        Draws a view.
+    caption : str
+        What the uncertainty section does, in plain words.
+    """
+    st.session_state["page.full_run"] = True
+    st.fragment(_study_main)(kind, draw_inputs, view_function, show)
+    limit_rows = accepted_limits()[0]
+    slots = Slots()
+    st.divider()
+    st.header("Uncertainty", anchor="uncertainty")
+    st.caption(caption)
+    range_inputs, range_results = st.columns([2, 3], gap="large")
+    with range_inputs:
+        uncertainty_inputs(kind, slots)
+        sampled_place = st.container()
+    with range_results:
+        slots.add("general")
+        uncertainty_results(kind, slots, limit_rows, case.system(store()),
+                            stated_ok=bool(st.session_state.get(f"result.ok.{kind}")),
+                            side=sampled_place)
+    st.session_state[f"mc.drawn.{kind}"] = _samples_key(kind, limit_rows)
+    st.session_state["page.full_run"] = False
+
+
+def _samples_key(kind: str, limit_rows) -> tuple:
+    """What the page's uncertainty section depends on (see `study_page`)."""
+    from estimator.scenario import dumps_scenario
+
+    inputs = store()
+    doc = case.monte_carlo_document(inputs, kind, limits=limit_rows)
+    return (None if doc is None else dumps_scenario(doc),
+            bool(st.session_state.get(f"result.ok.{kind}")),
+            case.uncertainty_unavailable(inputs, kind))
+
+
+def _study_main(kind: str, draw_inputs, view_function, show) -> None:
+    """The inputs and the result of a study page, with the downloads."""
+    from estimator.scenario import dumps_scenario
+
+    state = store()
+    units = case.system(state)
+    slots = Slots()
+    inputs, results = st.columns([2, 3], gap="large")
+    with inputs:
+        limit_rows = draw_inputs(slots)
+    view = None
+    with results:
+        st.subheader("Result")
+        slots.add("general")
+        doc, problems = case.study_document(state, kind, limits=limit_rows)
+        if problems:
+            slots.problems("liquid", problems)
+        else:
+            view = view_function(dumps_scenario(doc), units)
+            for error in view.get("field_errors", ()):
+                slots.show(error)
+            if view["error"]:
+                slots.show(view["error"])
+                view = None
+            else:
+                show(view)
+                report_doc, _ = case.study_document(state, kind, limits=limit_rows,
+                                                    uncertain=True)
+                downloads(dumps_scenario(report_doc), _slug(view["name"]))
+    st.session_state[f"result.ok.{kind}"] = view is not None
+    if (not st.session_state.get("page.full_run")
+            and _samples_key(kind, limit_rows) != st.session_state.get(f"mc.drawn.{kind}")):
+        st.rerun()  # the change touches the samples too: run the whole page
+
+
 def study_tail(state, kind: str, slots, limit_rows, units, results, view_function, show,
                caption: str) -> None:
     """The result column, the uncertainty section and the downloads of a study page.

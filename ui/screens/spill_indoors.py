@@ -10,19 +10,18 @@ if _ROOT not in sys.path:
 import streamlit as st  # noqa: E402
 
 from ui import shared, views  # noqa: E402
-from ui.case import system  # noqa: E402
 
 MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
 
-slots = shared.setup_page(
+shared.setup_page(
     "Spill indoors", "indoor",
     "A pool evaporating into a room, coupled to the room air: the concentration over time "
     "in the room, or near the pool and in the rest of the room (two-zone model).")
 state = shared.store()
-units = system(state)
-inputs, results = st.columns([2, 3], gap="large")
 
-with inputs:
+
+def draw_inputs(slots):
+    """The page's inputs; returns the limit rows in use."""
     st.subheader("Spill and liquid")
     shared.text_box("Spill", "indoor.name")
     shared.liquid_block("indoor", slots)
@@ -66,7 +65,7 @@ with inputs:
     shared.quantity("Pool removed at", "indoor.cleanup", optional=True, container=b,
                     help="When the pool is cleaned up or covered; empty: it stays until dry.")
     slots.add("time")
-    limit_rows = shared.limits_summary(slots)
+    return shared.limits_summary(slots)
 
 
 def show(view: dict) -> None:
@@ -101,5 +100,4 @@ UNCERTAINTY_CAPTION = (
     "well-mixed room (no near field); the pool area stays that of the stated amount."
 )
 
-shared.study_tail(state, "indoor", slots, limit_rows, units, results, views.indoor_view, show,
-                  UNCERTAINTY_CAPTION)
+shared.study_page("indoor", draw_inputs, views.indoor_view, show, UNCERTAINTY_CAPTION)

@@ -11,17 +11,17 @@ import streamlit as st  # noqa: E402
 
 from estimator.limits import format_number  # noqa: E402
 from ui import shared, views  # noqa: E402
-from ui.case import key, system  # noqa: E402
+from ui.case import key  # noqa: E402
 
-slots = shared.setup_page(
+shared.setup_page(
     "Tank headspace", "tank",
     "The equilibrium vapour space over the liquid in a closed tank: what the air in it "
     "holds after long standing, the worst case for a closed space.")
 state = shared.store()
-units = system(state)
-inputs, results = st.columns([2, 3], gap="large")
 
-with inputs:
+
+def draw_inputs(slots):
+    """The page's inputs; returns the limit rows in use."""
     st.subheader("Tank and liquid")
     shared.text_box("Tank", "tank.name")
     shared.liquid_block("tank", slots, allow_water=True)
@@ -58,7 +58,7 @@ with inputs:
         shared.quantity("Purge target", "tank.purge_target", optional=True, container=b,
                         help="Empty: the % LFL alarm level.")
     slots.add("details")
-    limit_rows = shared.limits_summary(slots)
+    return shared.limits_summary(slots)
 
 
 def show(view: dict) -> None:
@@ -134,5 +134,4 @@ UNCERTAINTY_CAPTION = (
     "of the headspace and the probability of exceeding each limit and alarm."
 )
 
-shared.study_tail(state, "tank", slots, limit_rows, units, results, views.tank_view, show,
-                  UNCERTAINTY_CAPTION)
+shared.study_page("tank", draw_inputs, views.tank_view, show, UNCERTAINTY_CAPTION)
