@@ -1221,6 +1221,27 @@ def study_document(state, study: str, *, receptors=None, limits=None,
     return doc, problems
 
 
+def view_document(state, study: str, *, limits=None) -> tuple[dict, list[str]]:
+    """The scenario document a page's result is computed from: `study_document`, and
+    for the tank a temperature sweep over whole steps (10 °C or 20 °F) that covers
+    the stated and worst-case temperatures with a margin (15 °C, 27 °F).
+
+    The sweep then stays the same while the temperature moves within a step, so
+    the charts update in place. Saved files and reports keep the core's own range.
+    """
+    doc, problems = study_document(state, study, limits=limits)
+    if study == "tank" and not problems:
+        tank = doc["tank"][0]
+        stated, worst = state.get(key("tank.temperature")), state.get(key("tank.worst"))
+        if stated is not None and "sweep_from" not in tank and "sweep_to" not in tank:
+            step, margin = (20.0, 27.0) if system(state) == "US" else (10.0, 15.0)
+            top = max(float(stated), float(worst)) if worst is not None else float(stated)
+            unit = UNITS["temperature"][system(state)][1]
+            tank["sweep_from"] = f"{math.floor((float(stated) - margin) / step) * step!r} {unit}"
+            tank["sweep_to"] = f"{math.ceil((top + margin) / step) * step!r} {unit}"
+    return doc, problems
+
+
 def full_document(state, studies=None, limits=None) -> dict:
     """The whole case as one scenario document, for saving.
 

@@ -885,9 +885,12 @@ def chart(data: pd.DataFrame, *, x: str, x_title: str, y: str, y_title: str,
                                               "legend": LIMIT_LEGEND},
                                     "tooltip": [{"field": "limit", "type": "nominal"}]}})
     if marker is not None:
-        layers.append({"data": {"values": [{x: marker}]},
-                       "mark": {"type": "rule", "color": "#555555", "strokeDash": [2, 3]},
-                       "encoding": {"x": {"field": x, "type": "quantitative"}}})
+        # the marker's place travels with the data, not the spec: a new stated value
+        # then updates the chart in place instead of drawing it anew
+        data = data.assign(_marker=float(marker))
+        layers.append({"mark": {"type": "rule", "color": "#555555", "strokeDash": [2, 3]},
+                       "encoding": {"x": {"field": "_marker", "type": "quantitative",
+                                          "aggregate": "max"}}})
     spec = {"layer": layers,
             "resolve": {"scale": {"color": "independent", "strokeDash": "independent"},
                         "legend": {"color": "independent"}}}
@@ -978,7 +981,7 @@ def _study_main(kind: str, draw_inputs, view_function, show) -> None:
     with results:
         st.subheader("Result")
         slots.add("general")
-        doc, problems = case.study_document(state, kind, limits=limit_rows)
+        doc, problems = case.view_document(state, kind, limits=limit_rows)
         if problems:
             slots.problems("liquid", problems)
         else:
@@ -1027,7 +1030,7 @@ def study_tail(state, kind: str, slots, limit_rows, units, results, view_functio
     with results:
         st.subheader("Result")
         slots.add("general")
-        doc, problems = case.study_document(state, kind, limits=limit_rows)
+        doc, problems = case.view_document(state, kind, limits=limit_rows)
         if problems:
             slots.problems("liquid", problems)
         else:
