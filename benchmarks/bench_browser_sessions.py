@@ -97,7 +97,7 @@ async def _settled(page, before: str) -> None:
         value, running = await page.evaluate(_PROBE, TILE)
         if value and value != before and value.endswith("ppm") and not running:
             return
-        await asyncio.sleep(0.02)
+        await asyncio.sleep(0.05)
     raise TimeoutError("the page did not settle")
 
 
