@@ -873,3 +873,17 @@ def test_core_screening_uses_the_stated_temperature_as_worst_case():
     assert result.worst_temperature == result.temperature
     assert float(result.worst.total_ppm) == pytest.approx(float(result.headspace.total_ppm))
     assert any("is below the stated temperature" in w for w in result.warnings)
+
+
+def test_inventory_tables_read_without_scientific_notation():
+    """The inventory tables on screen hold numbers as people read them."""
+    import re
+
+    at = page("inventory.py", demo=None)
+    at.toggle(key="w:inv.example").set_value(True)
+    at.run()
+    assert not at.exception
+    for frame in at.dataframe:
+        text = frame.value.to_csv(index=False)
+        assert not re.findall(SCIENTIFIC, text)
+        assert not re.findall(r"\d\.\d{5,}", text)  # no long tails of digits

@@ -862,6 +862,18 @@ def reports_available() -> bool:
 
 # -------------------------------------------------------------------- inventory
 
+def readable(frame: pd.DataFrame) -> pd.DataFrame:
+    """A table for reading: every decimal number with three significant figures and
+    thousands separators, blanks for missing values (the CSV download keeps the
+    full precision)."""
+    out = frame.copy()
+    for column in out.columns:
+        if pd.api.types.is_float_dtype(out[column]):
+            out[column] = [("" if not np.isfinite(v) else format_number(v))
+                           for v in out[column].to_numpy(dtype=float)]
+    return out
+
+
 @st.cache_data(max_entries=8, show_spinner=False)
 def inventory_view(data: bytes, filename: str, pressure: float | None,
                    elevation: float | None, alarms: tuple) -> dict:
@@ -894,6 +906,7 @@ def inventory_view(data: bytes, filename: str, pressure: float | None,
     errors = table[table["status"] == "error"]
     return {"error": None, "rows": summary.rows, "counts": dict(summary.counts),
             "at_or_above": summary.at_or_above_alarm, "liquids": summary.liquids,
-            "worst": summary.worst.reset_index(drop=True), "table": table.reset_index(drop=True),
+            "worst": readable(summary.worst.reset_index(drop=True)),
+            "table": readable(table.reset_index(drop=True)),
             "errors": list(errors["reason"].astype(str)), "warnings": list(result.warnings),
             "csv": csv_text, "pressure_text": f"{format_number(result.pressure / 1000.0)} kPa"}
