@@ -25,6 +25,7 @@ BENCHMARKS = [
     "bench_ui",
     "bench_import",
     "bench_spill",
+    "bench_browser_sessions",
 ]
 
 
@@ -39,7 +40,7 @@ def main() -> int:
         module = importlib.import_module(name)
         out = module.run()
         records.extend(out if isinstance(out, list) else [out])
-    print(f"\n{len(records)} ratios measured.")
+    print(f"\n{len(records)} figures measured.")
     return 0
 
 

@@ -38,7 +38,12 @@ def _out(text: str, output: str | None) -> None:
         write_text_atomic(output, text)
         print(f"wrote {output}", file=sys.stderr)
     else:
-        sys.stdout.write(text if text.endswith("\n") else text + "\n")
+        text = text if text.endswith("\n") else text + "\n"
+        try:
+            sys.stdout.write(text)
+        except UnicodeEncodeError:  # a terminal without °C or m²: replaced, not a traceback
+            encoding = sys.stdout.encoding or "ascii"
+            sys.stdout.write(text.encode(encoding, "replace").decode(encoding))
 
 
 def _cmd_substances(args) -> int:
@@ -57,7 +62,7 @@ def _cmd_substances(args) -> int:
             return EXIT_OK
     else:
         hits = list(all_substances())
-    print(f"{'key':<26} {'CAS':<12} {'name':<32} {'Tb [degC]':>9}")
+    print(f"{'key':<26} {'CAS':<12} {'name':<32} {'Tb [°C]':>9}")
     for s in hits:
         mark = "  (property library)" if s.origin == "lookup" else ""
         print(f"{s.key:<26} {s.cas:<12} {s.name[:32]:<32} "
@@ -81,7 +86,7 @@ def _describe(s) -> str:
     from .vapor import method_uncertainty
 
     def celsius(k, missing="-"):
-        return missing if k is None else f"{k - 273.15:.1f} degC"
+        return missing if k is None else f"{k - 273.15:.1f} °C"
 
     def percent(v):
         return "-" if v is None else f"{100 * v:.3g} %"

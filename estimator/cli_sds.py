@@ -52,7 +52,7 @@ def command(args) -> int:
             hs = headspace(chosen.liquid, temperature)
             label = "Midpoints" if point == "mid" else "Worst case within the ranges"
             out.append(f"{label} ({chosen.basis} %), headspace at "
-                       f"{temperature - 273.15:.1f} degC: {hs.total_ppm:,.0f} ppm, "
+                       f"{temperature - 273.15:.1f} °C: {hs.total_ppm:,.0f} ppm, "
                        f"{float(hs.percent_lfl):.3g} % LFL")
             for item, value in chosen.fractions.items():
                 out.append(f"  {item:<46} {100 * value:6.3g} %")

@@ -808,14 +808,14 @@ def _boiling_check(sub, t: np.ndarray, p_sat, pressure, field: str) -> None:
     hot = t >= sub.boiling_point
     if np.any(hot):
         raise OutOfRangeError(field, (
-            f"{float(np.max(t)):g} K is at or above the normal boiling point of "
-            f"{sub.name} ({sub.boiling_point:g} K): the pool would boil (a boiling "
+            f"{float(np.max(t)) - 273.15:.1f} °C is at or above the normal boiling point of "
+            f"{sub.name} ({sub.boiling_point - 273.15:.1f} °C): the pool would boil (a boiling "
             "pool or a flashing release), which is driven by heat input and lies "
             "outside these evaporation models; use a boiling-pool or flash model"))
     if p_sat is not None and np.any(np.asarray(p_sat) >= np.asarray(pressure)):
         raise OutOfRangeError(field, (
             f"the vapour pressure of {sub.name} reaches the ambient pressure at "
-            f"{float(np.max(t)):g} K: the pool would boil (a boiling pool or a "
+            f"{float(np.max(t)) - 273.15:.1f} °C: the pool would boil (a boiling pool or a "
             "flashing release), which lies outside these evaporation models"))
 
 

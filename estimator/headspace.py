@@ -439,7 +439,7 @@ def _assemble(liq: Liquid, temperature, p_total: float, p_sat, p_i, estimates,
     if np.any(boiling):
         at = t[boiling] if t.ndim else t
         notes.append(
-            f"at {np.min(at) - 273.15:.1f} degC{' and above' if t.ndim else ''} the liquid "
+            f"at {np.min(at) - 273.15:.1f} °C{' and above' if t.ndim else ''} the liquid "
             f"is at or above its boiling point at {p_total / 1000:.1f} kPa: the vapour "
             "pressure reaches the pressure of the space, which then holds essentially pure "
             "vapour (air displaced)")
@@ -601,7 +601,7 @@ def _solve(liq, objective, target, pressure, what) -> float:
     if f_lo >= 0:
         raise AboveAtLowestTemperature(
             what, f"the headspace is already at or above {target:g} at {lo - 273.15:.1f} "
-            "degC, the lowest temperature the liquid exists at; no lower temperature "
+            "°C, the lowest temperature the liquid exists at; no lower temperature "
             "reaches it", lo)
     if f(hi) < 0:
         raise OutOfRangeError(what, f"{target:g} is never reached below the critical "
@@ -730,8 +730,8 @@ def estimated_flash_point(liquid, pressure=STANDARD_ATMOSPHERE, *, basis="mole",
         whenever_liquid = True
         note = (f"the vapour over the liquid is flammable at every temperature at which it "
                 f"is liquid: the saturated vapour reaches the LFL at {estimate - 273.15:.1f} "
-                f"degC, below the melting point ({liq.components[0].melting_point - 273.15:.1f}"
-                " degC), by the vapour-pressure correlation extrapolated to the subcooled "
+                f"°C, below the melting point ({liq.components[0].melting_point - 273.15:.1f}"
+                " °C), by the vapour-pressure correlation extrapolated to the subcooled "
                 "liquid (an extrapolation, a temperature at which this liquid does not "
                 "exist); closed-cup flash points usually lie a few kelvin higher")
     published, source = None, ""
@@ -810,7 +810,7 @@ class BoilingTemperature:
 
     @property
     def celsius(self) -> float:
-        """The temperature in degrees Celsius. [degC]"""
+        """The temperature in degrees Celsius. [°C]"""
         return self.temperature - 273.15
 
 
@@ -897,7 +897,7 @@ def boiling_temperature(liquid, pressure, *, basis="mole",
                               "pressure; is the pressure absolute, in pascals?")
     if f(lo) > 0.0:
         raise OutOfRangeError("pressure", f"{p_total / 1000:g} kPa is below the vapour "
-                              f"pressure of the liquid at {lo - 273.15:.1f} degC, the lowest "
+                              f"pressure of the liquid at {lo - 273.15:.1f} °C, the lowest "
                               "temperature it is liquid at: it would boil (or sublimate) at "
                               "every temperature at which it is liquid")
     t_b = float(brentq(f, lo, hi, xtol=1e-7, rtol=1e-12, maxiter=200))
@@ -926,5 +926,5 @@ def boiling_temperature(liquid, pressure, *, basis="mole",
                               zip(liq.components, estimates)))
     if u_t is not None:
         method += ("; its uncertainty carries the vapour-pressure methods' stated "
-                   "uncertainty (validated over 0-60 degC) through the slope of the curve")
+                   "uncertainty (validated over 0-60 °C) through the slope of the curve")
     return BoilingTemperature(t_b, p_total, method, u_t, u_p, tuple(dict.fromkeys(notes)))

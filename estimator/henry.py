@@ -350,9 +350,9 @@ def hcp_to_unit(hcp, unit, temperature=HENRY_REFERENCE_TEMPERATURE,
     temperature : float, optional
         Needed for "kaw". [K] Default 298.15 K.
     water_density : float, optional
-        Needed for "mol_per_kg_bar". [kg/m3] Default 997.047 (IAPWS-95, 25 degC).
+        Needed for "mol_per_kg_bar". [kg/m3] Default 997.047 (IAPWS-95, 25 °C).
     water_molar_concentration : float, optional
-        Needed for "kx". [mol/m3] Default 55 345 (pure water, 25 degC).
+        Needed for "kx". [mol/m3] Default 55 345 (pure water, 25 °C).
 
     Returns
     -------
@@ -403,9 +403,9 @@ def convert_henry(value, from_unit, to_unit, temperature=HENRY_REFERENCE_TEMPERA
     temperature : float, optional
         Temperature of the constant, used by "kaw". [K] Default 298.15 K.
     water_density : float, optional
-        Used by "mol_per_kg_bar". [kg/m3] Default 997.047 (IAPWS-95, 25 degC).
+        Used by "mol_per_kg_bar". [kg/m3] Default 997.047 (IAPWS-95, 25 °C).
     water_molar_concentration : float, optional
-        Used by "kx". [mol/m3] Default 55 345 (pure water, 25 degC).
+        Used by "kx". [mol/m3] Default 55 345 (pure water, 25 °C).
 
     Returns
     -------
@@ -460,7 +460,7 @@ def dilution_warnings(concentration, solubility=None, water_density=WATER_DENSIT
         s = float(_check_positive(solubility, "solubility", "kg/m3"))
         if top > s:
             return (f"{name}: {top:g} kg/m3 exceeds its water solubility of about {s:g} "
-                    "kg/m3 near 25 degC; a separate liquid layer is likely and the "
+                    "kg/m3 near 25 °C; a separate liquid layer is likely and the "
                     "vapour follows the pure liquid's vapour pressure, not Henry's law "
                     "- screen it as a liquid",)
         return ()

@@ -27,10 +27,10 @@ column                       content
 ``temperature_<unit>``       Liquid temperature; the unit is in the header, one of
                              ``_C``, ``_F``, ``_K`` (also ``_degC``, ``(°C)``...).
                              Cells hold plain numbers; a cell may repeat the header's
-                             unit ("38 degC" under ``temperature_C``) but never
+                             unit ("38 °C" under ``temperature_C``) but never
                              another one.
 ``temperature``              Without a unit in the header, every cell gives its own
-                             ("38 degC", "100 degF", "311 K"); a cell without one is
+                             ("38 °C", "100 degF", "311 K"); a cell without one is
                              refused for its row, naming the column. The same holds
                              for ``pressure`` ("95 kPa") and ``elevation`` ("1200 ft").
 ``temperature_low_<unit>``   Optional range instead of, or beside, the temperature.
@@ -1486,7 +1486,7 @@ def _format_each(values, spec: str) -> np.ndarray:
 
 def _format_temperature(kelvin: float, unit: str) -> str:
     if unit == "c":
-        return f"{kelvin - ZERO_CELSIUS:.1f} degC"
+        return f"{kelvin - ZERO_CELSIUS:.1f} °C"
     if unit == "f":
         return f"{(kelvin - ZERO_CELSIUS) * 9 / 5 + 32:.1f} degF"
     return f"{kelvin:.1f} K"

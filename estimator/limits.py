@@ -296,6 +296,9 @@ class LimitComparison:
     @property
     def statement(self) -> str:
         lim = self.limit
+        if self.ratio == 1.0:
+            return (f"{lim.substance} {format_ppm(self.concentration * 1e6)} ppm reaches "
+                    f"the {lim.kind} of {format_ppm(lim.ppm)} ppm ({lim.source})")
         verb = "above" if self.exceeded else "below"
         value = (f"{format_ppm(lim.ppm)} ppm" if lim.unit == "ppm"
                  else f"{lim.value:g} mg/m³ (compared at the actual temperature and pressure)")
@@ -304,22 +307,50 @@ class LimitComparison:
                 f"({lim.source}): {verb} it")
 
 
+#: Smallest magnitude written out in decimals; anything smaller reads "below" it.
+_SMALLEST_SHOWN = 1e-9
+
+
+def format_number(value: float, digits: int = 3) -> str:
+    """A number as people read it: `digits` significant figures, thousands
+    separators, never scientific notation.
+
+    >>> [format_number(v) for v in (31875.0, 1416.7, 521.4, 4.2, 0.05204, 0.0)]
+    ['31,900', '1,420', '521', '4.2', '0.052', '0']
+    >>> format_number(2.5e6), format_number(-0.00012345, 2)
+    ('2,500,000', '-0.00012')
+    """
+    v = float(value)
+    if math.isnan(v):
+        return "not a number"
+    if math.isinf(v):
+        return "infinite" if v > 0 else "minus infinite"
+    if v == 0:
+        return "0"
+    if abs(v) < _SMALLEST_SHOWN:
+        return f"{'-' if v < 0 else ''}below {_SMALLEST_SHOWN:.9f}"
+    rounded = float(f"{v:.{digits}g}")
+    exponent = math.floor(math.log10(abs(rounded)))
+    decimals = max(0, digits - 1 - exponent)
+    text = f"{rounded:,.{decimals}f}"
+    if "." in text:
+        text = text.rstrip("0").rstrip(".")
+    return text
+
+
 def format_ppm(value: float) -> str:
     """A ppm figure as people read it: 28,400 / 312 / 4.2 / 0.052."""
-    v = float(value)
-    if not math.isfinite(v):
-        return str(v)
-    if abs(v) >= 1000:
-        return f"{float(f'{v:.3g}'):,.0f}"
-    return f"{v:.3g}"
+    return format_number(value)
 
 
 def format_ratio(ratio: float) -> str:
-    """A ratio to a limit in words: "1,420 times" or "0.35 of"."""
+    """A ratio to a limit in words: "1,420 times", "reaches" (exactly 1) or "0.35 of"."""
     r = float(ratio)
+    if r == 1:
+        return "reaches"
     if r >= 1:
         return f"{format_ppm(r)} times"
-    return f"{r:.2g} of"
+    return f"{format_number(r, 2)} of"
 
 
 def compare(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit],
@@ -371,12 +402,12 @@ class AdditiveIndex:
     def statement(self) -> str:
         used = "; ".join(f"{key} {_ratio_words(r)} its {lim.label}" for key, lim, r in
                          self.terms)
-        return (f"additive index over {self.kind} limits {self.value:.3g} (each substance "
+        return (f"additive index over {self.kind} limits {format_number(self.value)} (each substance "
                 f"counted once, with its lowest {self.kind}: {used})")
 
 
 def _ratio_words(ratio: float) -> str:
-    return f"at {ratio:.3g} of"
+    return f"at {format_number(ratio)} times" if ratio >= 1 else f"at {format_number(ratio)} of"
 
 
 def additive_terms(concentrations: Mapping[str, float], limits: Iterable[ExposureLimit],

@@ -3,7 +3,7 @@
 Pasquill-Gifford stability classes from wind and sun or cloud, Briggs's (1973)
 dispersion coefficients for open country and urban areas, the ground-level
 centreline concentration downwind of a ground-level source, the distance at which
-it falls to a level of concern, wind speed at another height, and the plain
+it falls to a limit, wind speed at another height, and the plain
 statements of where the screening model stops applying.
 
 Intermediate stability classes. Pasquill's table gives "A-B", "B-C" and "C-D" in
@@ -450,7 +450,7 @@ def distance_to_concentration(emission_rate, wind_speed, concentration, stabilit
     wind_speed : float
         Mean wind speed, above 0. [m/s]
     concentration : float
-        Endpoint (level of concern), above 0. [kg/m3]
+        Endpoint (the concentration of a limit), above 0. [kg/m3]
     stability : str
         Pasquill class, as for `briggs_sigmas`.
     terrain : str

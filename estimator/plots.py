@@ -42,6 +42,10 @@ SERIES_STYLES = (
 #: brick red, evenly dashed, labelled in place.
 LIMIT_STYLE = ("#8c2a22", "6 3", 1.3)
 
+#: Dash patterns of successive limit lines (the first is LIMIT_STYLE's), so that
+#: two limits differ by more than a label; each is also labelled in place.
+LIMIT_DASHES = ("6 3", "2 3", "12 3 2 3", "12 5", "4 2 1 2", "1 5")
+
 #: Points drawn per series at most; longer series are thinned keeping each
 #: interval's lowest and highest value, so peaks survive.
 MAX_PLOT_POINTS = 1200
@@ -215,12 +219,44 @@ def _legend_rows(labels: list[str], usable: float, font: float) -> list[list[tup
     used = 0.0
     for label in labels:
         w = 34 + len(label) * font * _CHAR_WIDTH + 18
+        if w > usable:  # too long for one row: wrapped onto lines of its own row
+            if rows[-1]:
+                rows.append([])
+            rows[-1].append(("\n".join(_legend_lines(label, usable, font)), usable))
+            rows.append([])
+            used = 0.0
+            continue
         if rows[-1] and used + w > usable:
             rows.append([])
             used = 0.0
         rows[-1].append((label, w))
         used += w
-    return rows
+    return [row for row in rows if row] or [[]]
+
+
+def _legend_height(rows) -> int:
+    """Lines of text the legend takes (a wrapped label takes several)."""
+    return sum(max((label.count("\n") + 1 for label, _ in row), default=1) for row in rows)
+
+
+def _legend_lines(label: str, usable: float, font: float) -> list[str]:
+    """A legend label broken at spaces into lines that fit beside its sample line,
+    so that no label runs off the plot (never cut short)."""
+    room = max(8, int((usable - 52) / (font * _CHAR_WIDTH)))
+    lines, current = [], ""
+    for word in str(label).split(" "):
+        while len(word) > room:  # a single word longer than a line: break it
+            if current:
+                lines.append(current)
+                current = ""
+            lines.append(word[:room])
+            word = word[room:]
+        if current and len(current) + 1 + len(word) > room:
+            lines.append(current)
+            current = word
+        else:
+            current = f"{current} {word}" if current else word
+    return lines + ([current] if current or not lines else [])
 
 
 
@@ -228,19 +264,24 @@ def _legend(out: list, rows, left: float, legend_top: float, font: float) -> Non
     """Append the legend: one sample line and label per series, rows as laid out."""
     out.append(f'<g font-size="{font:g}" fill="#1a1a1a">')
     index = 0
-    for r, row in enumerate(rows):
+    line = 0
+    for row in rows:
         x0 = left
-        y0 = legend_top + 18.0 * r
+        y0 = legend_top + 18.0 * line
         for label, w in row:
             colour_k, dash_k = SERIES_STYLES[index % len(SERIES_STYLES)]
             dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
             out.append(f'<line x1="{_coordinate(x0)}" y1="{_coordinate(y0 - 4)}" '
                        f'x2="{_coordinate(x0 + 28)}" y2="{_coordinate(y0 - 4)}" '
                        f'stroke="{colour_k}" stroke-width="2.2"{dash_attr}/>')
+            parts = label.split("\n")
+            spans = "".join(f'<tspan x="{_coordinate(x0 + 34)}" dy="{0 if k == 0 else 18}">'
+                            f"{_text(part)}</tspan>" for k, part in enumerate(parts))
             out.append(f'<text x="{_coordinate(x0 + 34)}" y="{_coordinate(y0)}">'
-                       f"{_text(label)}</text>")
+                       + (spans if len(parts) > 1 else _text(label)) + "</text>")
             x0 += w
             index += 1
+        line += max((label.count("\n") + 1 for label, _ in row), default=1)
     out.append("</g>")
 
 def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
@@ -292,7 +333,7 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
     labels = list(ys)
     left, right, top = 84.0, 24.0, 42.0
     rows = _legend_rows(labels, width - left - right, font)
-    bottom = 52.0 + 18.0 * len(rows)
+    bottom = 52.0 + 18.0 * _legend_height(rows)
     plot_w = width - left - right
     plot_h = height - top - bottom
     if plot_h < 60:
@@ -431,11 +472,12 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
     # limit lines, labels nudged apart so they stay legible
     colour, dash, stroke = LIMIT_STYLE
     placed = sorted(((py(v), label) for label, v in lines.items()), key=lambda item: -item[0])
-    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}" '
-               f'stroke-dasharray="{dash}">')
-    for y, _ in placed:
+    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}">')
+    dashes = {label: LIMIT_DASHES[i % len(LIMIT_DASHES)] for i, label in enumerate(lines)}
+    for y, label in placed:
         out.append(f'<line x1="{_coordinate(left)}" y1="{_coordinate(y)}" '
-                   f'x2="{_coordinate(left + plot_w)}" y2="{_coordinate(y)}"/>')
+                   f'x2="{_coordinate(left + plot_w)}" y2="{_coordinate(y)}" '
+                   f'stroke-dasharray="{dashes[label]}"/>')
     out.append("</g>")
     out.append(f'<g fill="{colour}" font-size="11" text-anchor="end">')
     boxes: list[tuple[float, float, float]] = []  # (left, right, baseline) of labels placed
@@ -662,7 +704,7 @@ def cumulative_plot_svg(samples: dict, *, x_label: str, title: str,
     labels = list(series)
     left, right, top = 84.0, 24.0, 42.0
     rows = _legend_rows(labels, width - left - right, font)
-    bottom = 52.0 + 18.0 * len(rows)
+    bottom = 52.0 + 18.0 * _legend_height(rows)
     plot_w = width - left - right
     plot_h = height - top - bottom
     if plot_h < 60:
@@ -772,11 +814,12 @@ def cumulative_plot_svg(samples: dict, *, x_label: str, title: str,
     colour, dash, stroke = LIMIT_STYLE
     placed = sorted(((px(v), label) for label, v in lines.items()
                      if px(v) >= left - 0.5), key=lambda item: (item[0], item[1]))
-    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}" '
-               f'stroke-dasharray="{dash}">')
+    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}">')
+    dashes = {label: LIMIT_DASHES[i % len(LIMIT_DASHES)] for i, label in enumerate(lines)}
     for x_px, label in placed:
         out.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top)}" '
-                   f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}">'
+                   f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}" '
+                   f'stroke-dasharray="{dashes[label]}">'
                    f"<title>{_text(label)}</title></line>")
     out.append("</g>")
     out.append(f'<g fill="{colour}" font-size="11" text-anchor="end">')

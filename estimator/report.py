@@ -26,6 +26,7 @@ import numpy as np
 
 from .errors import InputError
 from .files import neutralise_cell, write_text_atomic  # noqa: F401  (re-exported)
+from .limits import format_number
 
 __all__ = [
     "write_text_atomic",
@@ -83,7 +84,7 @@ def _n(value) -> str:
 def _pct(value) -> str:
     if value is None:
         return _NOT_SHOWN
-    return f"{float(value):.3g}" if _finite(value) else "not finite"
+    return _n(value)
 
 
 def _celsius(kelvin) -> str:
@@ -99,7 +100,7 @@ def _minutes(seconds, none: str = _NOT_SHOWN) -> str:
 
 
 def _kg(value) -> str:
-    return _NOT_SHOWN if value is None else f"{float(value):.3g} kg"
+    return _NOT_SHOWN if value is None else f"{_n(value)} kg"
 
 
 def _timestamp(generated_at) -> _dt.datetime:
@@ -218,7 +219,7 @@ def _method_rows(hs, temperature):
             continue
         est = estimates[j if not water_case else 0]
         unc = ("not validated" if est.relative_uncertainty is None
-               else f"±{100 * est.relative_uncertainty:.2g} %")
+               else f"±{format_number(100 * est.relative_uncertainty, 2)} %")
         lo, hi = est.valid_range if est.valid_range else (None, None)
         t = np.atleast_1d(np.asarray(temperature, dtype=float))
         inside = lo is not None and float(t.min()) >= lo and float(t.max()) <= hi
@@ -276,11 +277,13 @@ def _wants_log(series: dict, hlines: dict) -> bool:
     return positive.size > 1 and float(positive.max()) / float(positive.min()) > 100.0
 
 
-def _plot(name, caption, x, series, hlines, *, x_label, y_label, title, log_x=False):
+def _plot(name, caption, x, series, hlines, *, x_label, y_label, title, log_x=False,
+          log_y=None):
     from .plots import line_plot_svg
 
     svg = line_plot_svg(x, series, x_label=x_label, y_label=y_label, title=title,
-                        hlines=hlines, log_y=_wants_log(series, hlines), log_x=log_x)
+                        hlines=hlines, log_x=log_x,
+                        log_y=_wants_log(series, hlines) if log_y is None else log_y)
     return _Plot(name, caption, svg)
 
 
@@ -312,7 +315,11 @@ def _tank_plots(result, index, tank) -> list:
             {"headspace": np.asarray(sweep.percent_lfl, dtype=float)},
             {f"alarm {alarms.percent_lfl:g} % LFL": alarms.percent_lfl, "LFL (100 %)": 100.0},
             x_label="liquid temperature [°C]", y_label="% of the LFL",
-            title=f"Tank {tank.name}: % of LFL by temperature"))
+            title=f"Tank {tank.name}: % of LFL by temperature",
+            # logarithmic once the curve runs far above the alarm, so that the alarm
+            # and LFL lines stay clear of the axis
+            log_y=bool(np.nanmax(np.asarray(sweep.percent_lfl, dtype=float))
+                       > 5.0 * alarms.percent_lfl)))
     return out
 
 
@@ -394,7 +401,7 @@ def _spill_plots(result, index, spill) -> list:
             out.append(_plot(
                 f"{stem}-centreline-distance", f"Spill {spill.name}: ground-level centreline "
                 f"concentration against downwind distance (stability class {od.stability}, "
-                f"{od.terrain} terrain, {od.wind_speed:.2g} m/s at 10 m) from the pool's edge, "
+                f"{od.terrain} terrain, {format_number(od.wind_speed, 2)} m/s at 10 m) from the pool's edge, "
                 "capped at the saturated vapour concentration over the pool, with the "
                 "exposure limits, the LFL and the LFL alarm (dashed).", x, series, hlines,
                 x_label="downwind distance [m]",
@@ -511,7 +518,7 @@ def _blocks(result, generated) -> tuple[list, bool]:
                              "ground-level source, ground-level centreline (Turner 1970, "
                              "AP-26, Eq. 3.4), Briggs (1973) dispersion coefficients, "
                              f"{od.terrain} terrain, stability class {od.stability}, wind "
-                             f"{od.wind_speed:.2g} m/s at 10 m",
+                             f"{format_number(od.wind_speed, 2)} m/s at 10 m",
                              "a screening plume: the pool's initial (highest) evaporation "
                              "rate is taken as a continuous source, which errs high"])
         b.append(_Table(["spill", "step", "method", "why"], rows))
@@ -621,16 +628,22 @@ def _monte_carlo_blocks(mc) -> list:
                _Para(f"{mc.model} chain, {mc.n:,} samples (seed {mc.seed}, which reproduces "
                      "the run). Uncertain inputs:")]
     b.append(_Table(["input", "distribution"], [[k, v] for k, v in dict(mc.inputs).items()]))
-    rows = []
+    rows, low = [], []
     for name, table in dict(mc.percentiles).items():
         table = dict(table)
-        rows.append([name.replace("_", " "), _unit_text(dict(mc.units).get(name))]
-                    + [_n(table.get(q)) for q in (50, 90, 95, 99)])
+        head = [name.replace("_", " "), _unit_text(dict(mc.units).get(name))]
+        if name == "oxygen_percent":  # the hazard is low oxygen: its low percentiles
+            low.append(head + [_n(table.get(q)) for q in (1, 5, 50)])
+        else:
+            rows.append(head + [_n(table.get(q)) for q in (50, 90, 95, 99)])
     b.append(_Table(["output", "unit", "median", "90th percentile", "95th percentile",
                      "99th percentile"], rows, numeric=(2, 3, 4, 5)))
+    if low:
+        b.append(_Table(["output (low is the hazard)", "unit", "1st percentile",
+                         "5th percentile", "median"], low, numeric=(2, 3, 4)))
     if mc.exceedance:
         b.append(_Table(["limit or alarm", "probability of exceeding it"],
-                        [[label, f"{100 * p:.3g} %"] for label, p in dict(mc.exceedance).items()],
+                        [[label, f"{_n(100 * p)} %"] for label, p in dict(mc.exceedance).items()],
                         numeric=(1,)))
     rows = []
     for output, ranks in dict(mc.sensitivity).items():
@@ -765,7 +778,8 @@ def _monte_carlo_rows(row, item, mc) -> None:
     for name, table in dict(mc.percentiles).items():
         unit = _unit_text(dict(mc.units).get(name)) or "1"
         for q, v in dict(table).items():
-            row(item, "probabilistic", f"{q}th percentile", "", name, v, unit, note=note)
+            row(item, "probabilistic", f"{q}{'st' if q == 1 else 'th'} percentile", "", name,
+                v, unit, note=note)
     for label, p in dict(mc.exceedance).items():
         row(item, "probabilistic", "exceedance", "", "probability of exceeding", p, "1",
             limit=label, note=note)
@@ -788,12 +802,12 @@ def _tank_blocks(result, index, tank) -> list:
             shares = [f"{c.limit.kind}: {_n(100 * c.ratio)} %" for c in comparisons
                       if c.limit.substance == comp.key]
             p_sat = float(np.atleast_1d(np.asarray(hs.saturation_pressures, dtype=float))[j])
-            comp_rows.append([case, _celsius(t), comp.name, f"{x[j]:.3g}",
+            comp_rows.append([case, _celsius(t), comp.name, f"{_n(x[j])}",
                               _n(p_sat / 1000) if math.isfinite(p_sat) else "Henry's law",
                               _n(ppm[j]), _n(mg[j]), "; ".join(shares) or _NOT_SHOWN])
         lfl = float(hs.lfl_mixture)
         total_rows.append([case, _celsius(t), _n(hs.total_ppm), _n(hs.total_mg_per_m3),
-                           f"{100 * lfl:.3g} %" if math.isfinite(lfl) else _NOT_SHOWN,
+                           f"{_n(100 * lfl)} %" if math.isfinite(lfl) else _NOT_SHOWN,
                            _pct(hs.percent_lfl), _pct(hs.oxygen_percent),
                            str(hs.flammability_words),
                            _n(index_value) if index_value is not None else _NOT_SHOWN])
@@ -843,15 +857,15 @@ def _tank_blocks(result, index, tank) -> list:
         return "; ".join(f"{n} {_kg(m)}" for n, m in zip(obj.names, np.atleast_1d(obj.masses)))
 
     if tank.inventory is not None:
-        rows.append([f"Vapour held in the vapour space ({tank.inventory.volume:.3g} m3)",
+        rows.append([f"Vapour held in the vapour space ({_n(tank.inventory.volume)} m³)",
                      _kg(tank.inventory.total_mass), masses(tank.inventory)])
     if tank.filling is not None:
-        rows.append([f"Vapour expelled by filling ({tank.filling.volume:.3g} m3 pumped in)",
+        rows.append([f"Vapour expelled by filling ({_n(tank.filling.volume)} m³ pumped in)",
                      _kg(tank.filling.total_mass), masses(tank.filling)])
     if tank.breathing is not None:
         rows.append(["Vapour vented per daily warming (thermal breathing)",
                      _kg(tank.breathing.total_mass),
-                     masses(tank.breathing) + f"; {tank.breathing.gas_vented:.3g} mol of gas"])
+                     masses(tank.breathing) + f"; {_n(tank.breathing.gas_vented)} mol of gas"])
     if tank.purge is not None:
         p = tank.purge
         rows.append([f"Purge time to {_n(p.target_volume_fraction * 1e6)} ppm",
@@ -931,13 +945,13 @@ def _spill_blocks(result, spill) -> list:
     if spill.indoor is not None:
         ind = spill.indoor
         rows.append(["Zone model", ind.model, ""])
-        rows.append(["Pool area", f"{ind.pool_area:.3g} m2", ""])
+        rows.append(["Pool area", f"{_n(ind.pool_area)} m²", ""])
         rows.append(["Pool evaporated", _minutes(ind.pool_gone_time), ""])
         if ind.source_removed_time is not None:
             rows.append(["Pool cleaned up", _minutes(ind.source_removed_time), ""])
         rows.append(["Liquid left at the end of the run",
                      _kg(float(np.sum(ind.mass_remaining[-1]))), ""])
-        rows.append(["Mass balance error", f"{ind.mass_balance_error:.2g}",
+        rows.append(["Mass balance error", f"{format_number(ind.mass_balance_error, 2)}",
                      "largest |pool + air + ventilated − spilled| / spilled"])
     b.append(_Table(["quantity", "value", "note"], rows))
     if spill.flammability:
@@ -1615,7 +1629,7 @@ def results_csv(result, *, generated_at=None) -> str:
             for group, source in dict(comp.sources).items():
                 row(item, "substance_source", substance=comp.key, quantity=group, note=source)
         for case, t, hs, comparisons, additive in _cases(tank):
-            label = f"{case} {float(t) - 273.15:.1f} degC"
+            label = f"{case} {float(t) - 273.15:.1f} °C"
             row(item, "headspace", label, quantity="temperature", value=t, unit="K")
             for comp, method, desc, unc, basis, source, why in _method_rows(hs, t):
                 row(item, "method", label, comp.key, "vapour pressure method", unit="",

@@ -30,6 +30,7 @@ from .limits import (
     additive_terms,
     compare,
     flammability_findings,
+    format_number,
     vapor_hazard_ratio,
 )
 from .scenario import Scenario, _build_liquid
@@ -259,7 +260,7 @@ def _boiling_findings(liquid, water, pressure, cases, notes):
     if water:
         kind = "boiling point of water; the dilute dissolved compounds neglected"
     spread = (f" ± {boiling.uncertainty:.2g} K" if boiling.uncertainty is not None else "")
-    out = [f"The liquid boils at {boiling.celsius:.1f} degC{spread} at this tank's "
+    out = [f"The liquid boils at {boiling.celsius:.1f} °C{spread} at this tank's "
            f"{pressure / 1000:.4g} kPa ({kind})."]
     near = []
     for case, label, temperature in cases:
@@ -270,7 +271,7 @@ def _boiling_findings(liquid, water, pressure, cases, notes):
             near.append(case)
             where = (f"{gap:.1f} K below it" if gap > 0 else
                      f"{-gap:.1f} K above it: the liquid boils")
-            out.append(f"Near boiling: {label} ({temperature - 273.15:.1f} degC) is {where}. "
+            out.append(f"Near boiling: {label} ({temperature - 273.15:.1f} °C) is {where}. "
                        "Expect pressure build-up in a closed tank, vapour pushed out of the "
                        "vents, and flashing of a release; the equilibrium headspace model "
                        "does not cover a boiling liquid.")
@@ -284,7 +285,7 @@ def _findings(hs: Headspace, comparisons, alarms, label: str) -> list[str]:
     of_which = (f" (of which water vapour {format_ppm(float(hs.ppm[water[0]]))} ppm)"
                 if water else "")
     out = [f"{label}: headspace {format_ppm(hs.total_ppm)} ppm{of_which}, "
-           f"{float(hs.percent_lfl):.3g} % of the LFL; {hs.flammability_words}."]
+           f"{format_number(float(hs.percent_lfl))} % of the LFL; {hs.flammability_words}."]
     out += flammability_findings(float(hs.percent_lfl), float(hs.oxygen_percent), alarms,
                                  lfl_known=bool(np.isfinite(hs.lfl_mixture)))
     out += ["Headspace " + c.statement + "." for c in comparisons]
@@ -315,19 +316,24 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
 
     hs = evaluate(t)
     worst = None
+    if worst_t is not None and worst_t < t:
+        notes.append(f"the worst-case temperature {worst_t - 273.15:.1f} °C is below the stated "
+                     f"temperature {t - 273.15:.1f} °C; the stated temperature is used as the "
+                     "worst case: check both")
+        worst_t = t
     if worst_t is not None:
         try:
             worst = evaluate(worst_t)
         except UllageError as exc:
-            notes.append(f"worst case at {worst_t - 273.15:.1f} degC not computed: {exc}")
+            notes.append(f"worst case at {worst_t - 273.15:.1f} °C not computed: {exc}")
     limits = scenario.limits
     comparisons = tuple(compare(_concentrations(hs), limits, t, pressure))
     worst_comparisons = (tuple(compare(_concentrations(worst), limits, worst_t, pressure))
                          if worst else ())
-    findings = _findings(hs, comparisons, scenario.alarms, f"At {t - 273.15:.1f} degC")
+    findings = _findings(hs, comparisons, scenario.alarms, f"At {t - 273.15:.1f} °C")
     if worst is not None:
         findings += _findings(worst, worst_comparisons, scenario.alarms,
-                              f"At the worst case, {worst_t - 273.15:.1f} degC")
+                              f"At the worst case, {worst_t - 273.15:.1f} °C")
     ratios = {}
     y = _concentrations(hs)
     additive = additive_terms(y, limits, "TWA", t, pressure)
@@ -367,21 +373,21 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         except AboveAtLowestTemperature as exc:
             findings.append(f"The headspace is at or above {scenario.alarms.percent_lfl:g} % "
                             f"of the LFL at every liquid temperature down to "
-                            f"{exc.temperature - 273.15:.1f} degC, the lowest temperature "
+                            f"{exc.temperature - 273.15:.1f} °C, the lowest temperature "
                             "computed (the highest melting point of its components).")
         except UllageError as exc:
             notes.append(f"{scenario.alarms.percent_lfl:g} % LFL temperature: {exc}")
     if flash is not None:
-        text = f"Estimated flash point {flash.estimate - 273.15:.1f} degC"
+        text = f"Estimated flash point {flash.estimate - 273.15:.1f} °C"
         if flash.published is not None:
-            text += f" (published {flash.published - 273.15:.1f} degC, {flash.published_source})"
+            text += f" (published {flash.published - 273.15:.1f} °C, {flash.published_source})"
         if flash.flammable_whenever_liquid:
             text += (", below the melting point (a subcooled-liquid extrapolation): the vapour "
                      "over this liquid is flammable at every temperature at which it is liquid")
         findings.append(text + ".")
     if alarm_t is not None:
         findings.append(f"The headspace reaches {scenario.alarms.percent_lfl:g} % of the LFL "
-                        f"at {alarm_t - 273.15:.1f} degC.")
+                        f"at {alarm_t - 273.15:.1f} °C.")
 
     boiling, near_boiling, said = _boiling_findings(
         hs.liquid, water, pressure, [("stated", "the stated temperature", t),
@@ -428,7 +434,8 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
         case = f" (case computed: {purge.case_words}; give residual_area for liquid left in it)" \
             if purge.case == "drained" else f" (case computed: {purge.case_words})"
         findings.append(
-            f"Purging at the given rate reaches {purge.target_volume_fraction * 1e6:.3g} ppm in "
+            f"Purging at the given rate reaches {format_number(purge.target_volume_fraction * 1e6)} ppm "
+            "in "
             f"about {purge.time / 60:.0f} min{case}: plan on that, then measure before "
             "entry." if purge.reachable
             else purge.note[:1].upper() + purge.note[1:] + case + ".")
@@ -610,13 +617,13 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
             removed = indoor.source_removed_time
             left = float(indoor.mass_remaining[-1].sum())
             if math.isfinite(gone):
-                text = f"The pool ({area:.2f} m2) has evaporated after {gone / 60:.0f} min."
+                text = f"The pool ({format_number(area)} m²) has evaporated after {gone / 60:.0f} min."
             elif removed is not None and removed < indoor.times[-1]:
                 at = int(np.searchsorted(indoor.times, removed))
-                text = (f"The pool ({area:.2f} m2) is cleaned up at {removed / 60:.0f} min "
-                        f"with {float(indoor.mass_remaining[at].sum()):.3g} kg still in it.")
+                text = (f"The pool ({format_number(area)} m²) is cleaned up at {removed / 60:.0f} min "
+                        f"with {format_number(float(indoor.mass_remaining[at].sum()))} kg still in it.")
             else:
-                text = (f"The pool ({area:.2f} m2) still holds {left:.3g} kg at the end "
+                text = (f"The pool ({format_number(area)} m²) still holds {format_number(left)} kg at the end "
                         "of the run.")
             findings.append(text)
         else:
@@ -635,8 +642,8 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
 
                 wind = wind_speed_at_height(od["wind_speed"], 10.0, od["wind_height"],
                                             stability.split("-")[-1], od["terrain"])
-                notes.append(f"wind speed {od['wind_speed']:.2g} m/s at "
-                             f"{od['wind_height']:g} m taken to {wind:.2g} m/s at 10 m "
+                notes.append(f"wind speed {format_number(od['wind_speed'], 2)} m/s at "
+                             f"{od['wind_height']:g} m taken to {format_number(wind, 2)} m/s at 10 m "
                              "(power law)")
             volume = spill.get("volume") or spill["mass"] / _density(liq)
             outdoor = outdoor_spill(liq, t, od["receptors"], wind_speed=wind,
@@ -655,7 +662,7 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
 
                 d = 0.0 if d is None else (None if d >= MAX_OUTDOOR_DISTANCE else d)
                 distances.append((lim.label, d, note))
-            findings.append(f"Source strength {1000 * outdoor.emission_rate.sum():.3g} g/s "
+            findings.append(f"Release rate to air {format_number(1000 * outdoor.emission_rate.sum())} g/s "
                             f"(initial evaporation rate), stability class {stability}.")
             findings += _outdoor_lfl_findings(outdoor)
         rates = {}
@@ -681,14 +688,14 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
     notes.extend(run.warnings)
     for e in exposures:
         for label, limit_ppm, ratio, first, back in e.comparisons:
-            verb = "exceeds" if ratio > 1 else "stays below"
+            verb = "exceeds" if ratio > 1 else "reaches" if ratio == 1 else "stays below"
             text = (f"{e.zone}, {e.substance}: {_WINDOW[label.split()[0]]} {verb} the "
-                    f"{label} (ratio {ratio:.3g})")
+                    f"{label} (ratio {format_number(ratio)})")
             if label.startswith("TWA") and e.twa_lower_bound:
                 text += (" — a lower bound: the run is shorter than the work shift and the "
                          "rest of the shift counts as no exposure; run the full shift")
             if first is not None:
-                text += f"; above {limit_ppm:.4g} ppm from {first / 60:.0f} min"
+                text += f"; above {format_number(limit_ppm)} ppm from {first / 60:.0f} min"
                 text += (f", back below at {back / 60:.0f} min" if back is not None
                          else ", not back below within the run")
             findings.append(text + ".")
@@ -757,7 +764,7 @@ def _monte_carlo_findings(mc) -> list[str]:
         out.append(f"  {name.replace('_', ' ')}: median {format_ppm(median)}{text}, 95th "
                    f"percentile {format_ppm(high)}{text}")
     for label, probability in mc.exceedance.items():
-        out.append(f"  probability of exceeding {label}: {100 * probability:.3g} %")
+        out.append(f"  probability of exceeding {label}: {format_number(100 * probability)} %")
     for output, ranks in list(mc.sensitivity.items())[:1]:
         if ranks:
             top, rho = next(iter(ranks.items()))

@@ -439,7 +439,7 @@ class SdsReading:
     def summary(self) -> str:
         """What was read, in plain text, with the notes."""
         def kelvin(v):
-            return "not given" if v is None else f"{v - 273.15:.1f} degC"
+            return "not given" if v is None else f"{v - 273.15:.1f} °C"
 
         out = [f"Product: {self.product or 'not given'}  (composition in {self.layout}, "
                f"read from {self.source})", "", f"Ingredients ({self.basis} %):"]
@@ -451,7 +451,7 @@ class SdsReading:
                        f"{100 * item.high:<6.4g} unidentified: {item.reason}")
         vp = ("not given" if self.vapor_pressure is None else
               f"{self.vapor_pressure[1] / 1000:.4g} kPa at "
-              f"{self.vapor_pressure[0] - 273.15:.1f} degC")
+              f"{self.vapor_pressure[0] - 273.15:.1f} °C")
         out += ["", "Properties (section 9):",
                 f"  flash point            {kelvin(self.flash_point)}",
                 f"  vapour pressure        {vp}",
@@ -922,7 +922,7 @@ def _properties(lines: list[str], notes: list[str]) -> dict:
                 else:
                     t = 293.15
                     notes.append("the vapour pressure is given without a temperature: "
-                                 "20 degC assumed (the usual reference on sheets)")
+                                 "20 °C assumed (the usual reference on sheets)")
                 if p > 0:
                     props["vapor_pressure"] = (t, p)
             elif not _NO_VALUE.search(part):
@@ -986,7 +986,7 @@ def _properties(lines: list[str], notes: list[str]) -> dict:
                         props["density"] = value * WATER_DENSITY_20C
                         what = "relative density" if relative else "unitless value"
                         notes.append(f"density from the {what} {value:g} × water at 20 "
-                                     f"degC ({WATER_DENSITY_20C:g} kg/m3)")
+                                     f"°C ({WATER_DENSITY_20C:g} kg/m3)")
                     else:
                         notes.append(f"could not read the density from {line!r} (no unit)")
                 elif not _NO_VALUE.search(part):
@@ -1196,7 +1196,7 @@ class _Model:
             lows.append(item.low)
             highs.append(item.high)
             notes.append(f"{item.name} ({item.cas}) melts at "
-                         f"{item.substance.melting_point - 273.15:.0f} degC: taken as a "
+                         f"{item.substance.melting_point - 273.15:.0f} °C: taken as a "
                          "dissolved, non-volatile solid with its own molar mass")
         if reading.unidentified:
             if unidentified == "inert" or unidentified is None:
@@ -1350,7 +1350,7 @@ class _Model:
         c, objective, kind = self._coefficients(temperature, pressure, limits, limit_kind)
         w = self.extreme(c, maximise=True)
         extra = [f"worst case within the ranges: the composition with the highest "
-                 f"{objective} at {temperature - 273.15:.1f} degC (linear programme on "
+                 f"{objective} at {temperature - 273.15:.1f} °C (linear programme on "
                  "Raoult's partial pressures, re-checked with the headspace model)"]
         if not (self.lows.sum() <= 1.0 + 1e-9 and self.highs.sum() >= 1.0 - 1e-9):
             extra.append("the ranges cannot add up to 100 %: they were read as relative "
@@ -1379,7 +1379,7 @@ class _Model:
     def check_vapor_pressure(self, t_sheet, p_sheet, pressure) -> SdsCheck:
         from .headspace import headspace
 
-        words = f"{p_sheet / 1000:.3g} kPa at {t_sheet - 273.15:.1f} degC"
+        words = f"{p_sheet / 1000:.3g} kPa at {t_sheet - 273.15:.1f} °C"
         try:
             liq = self.liquid(self.midpoints(), "normalised midpoints")
             hs = headspace(liq, t_sheet, max(pressure, 1.01 * p_sheet, 1e3))
@@ -1430,7 +1430,7 @@ class _Model:
         from .errors import UllageError
         from .headspace import estimated_flash_point
 
-        words = f"{t_sheet - 273.15:.1f} degC"
+        words = f"{t_sheet - 273.15:.1f} °C"
         tol = FLASH_POINT_TOLERANCE
         tolerance = (f"±{tol:g} K (the method's spread against published closed-cup flash "
                      "points, with a margin for mixtures)")
@@ -1452,8 +1452,8 @@ class _Model:
                             f"estimate one for its composition: {reason}")
         low, high = min(estimates), max(estimates)
         agrees = low - tol <= t_sheet <= high + tol
-        model_words = (f"{mid - 273.15:.1f} degC at the midpoints ({low - 273.15:.1f} to "
-                       f"{high - 273.15:.1f} degC over the ranges)")
+        model_words = (f"{mid - 273.15:.1f} °C at the midpoints ({low - 273.15:.1f} to "
+                       f"{high - 273.15:.1f} °C over the ranges)")
         if agrees:
             statement = (f"Flash point: the sheet gives {words}; the temperature at which "
                          f"the saturated vapour of its composition reaches the LFL is "
@@ -1604,7 +1604,7 @@ def _screening_temperature(name: str, document) -> tuple[float, str]:
                     pass
     if found:
         return max(found), "the highest liquid temperature of its tanks and spills"
-    return 298.15, "25 degC (no tank or spill uses it)"
+    return 298.15, "25 °C (no tank or spill uses it)"
 
 
 def scenario_liquid(values: dict, document, base_dir, resolve, field: str):
@@ -1659,7 +1659,7 @@ def scenario_liquid(values: dict, document, base_dir, resolve, field: str):
         temperature, why = _screening_temperature(name, document)
         chosen = reading.screen("worst", unidentified=treat, temperature=temperature)
         notes.append(f"liquid {name!r}: worst case within the ranges screened at "
-                     f"{temperature - 273.15:.1f} degC, {why}")
+                     f"{temperature - 273.15:.1f} °C, {why}")
     else:
         chosen = reading.screen("mid", unidentified=treat)
     liq = chosen.liquid

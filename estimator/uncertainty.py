@@ -22,18 +22,18 @@ Scenario-file specs
 units (parsed by `estimator.units.parse_quantity`) or bare numbers for
 dimensionless inputs. The keys, with their positional order for the list form:
 
-- ``fixed``: ``value``; ``{"fixed": "35 degC"}``, or just ``"35 degC"``;
-- ``uniform``: ``low``, ``high``; ``{"uniform": ["30 degC", "45 degC"]}``;
+- ``fixed``: ``value``; ``{"fixed": "35 °C"}``, or just ``"35 °C"``;
+- ``uniform``: ``low``, ``high``; ``{"uniform": ["30 °C", "45 °C"]}``;
 - ``triangular``: ``low``, ``mode``, ``high``;
-  ``{"triangular": ["20 degC", "30 degC", "40 degC"]}``;
+  ``{"triangular": ["20 °C", "30 °C", "40 °C"]}``;
 - ``normal``: ``mean``, ``sd``, ``low``, ``high``;
-  ``{"normal": {"mean": "35 degC", "sd": "3 K"}}``;
+  ``{"normal": {"mean": "35 °C", "sd": "3 K"}}``;
 - ``lognormal``: ``gm``, ``gsd``; ``{"lognormal": {"gm": "0.1 m/s", "gsd": 2.0}}``.
 
 Parameters are given either as a list in that order or as a mapping with those
 keys; ``low`` and ``high`` of ``normal`` are optional truncation bounds. A bare
 value (``"35 degC"``) is a fixed value. The standard deviation of a temperature
-is a temperature *difference* ("3 K" or "3 degC" both mean 3 kelvin); ``gsd``
+is a temperature *difference* ("3 K" or "3 °C" both mean 3 kelvin); ``gsd``
 is a plain number above 1.
 
 Vapour-pressure method uncertainty
@@ -139,7 +139,7 @@ __all__ = [
 ]
 
 #: Percentiles reported for every output. [%]
-PERCENTILES = (50, 90, 95, 99)
+PERCENTILES = (1, 5, 50, 90, 95, 99)
 
 #: The 97.5th percentile of the standard normal distribution, rounded as usual:
 #: a two-sided 95 % interval spans +-1.96 standard deviations (common practice).
@@ -196,6 +196,13 @@ def _unit_text(unit: str) -> str:
     return f" {unit}" if unit else ""
 
 
+def _shown(value: float, unit: str = "") -> str:
+    """A value of a distribution in words; temperatures in °C, not kelvin."""
+    if unit == "K":
+        return f"{value - 273.15:.6g} °C"
+    return f"{value:.6g}{_unit_text(unit)}"
+
+
 # --------------------------------------------------------------------------
 # distributions
 
@@ -221,7 +228,7 @@ class Fixed:
 
     def describe(self, unit: str = "") -> str:
         """The distribution in words."""
-        return f"fixed at {self.value:.6g}{_unit_text(unit)}"
+        return f"fixed at {_shown(self.value, unit)}"
 
 
 @dataclass(frozen=True)
@@ -257,7 +264,7 @@ class Uniform:
 
     def describe(self, unit: str = "") -> str:
         """The distribution in words."""
-        return f"uniform from {self.low:.6g} to {self.high:.6g}{_unit_text(unit)}"
+        return f"uniform from {_shown(self.low, unit)} to {_shown(self.high, unit)}"
 
 
 @dataclass(frozen=True)
@@ -293,8 +300,8 @@ class Triangular:
 
     def describe(self, unit: str = "") -> str:
         """The distribution in words."""
-        return (f"triangular from {self.low:.6g} to {self.high:.6g}, most likely "
-                f"{self.mode:.6g}{_unit_text(unit)}")
+        return (f"triangular from {_shown(self.low, unit)} to {_shown(self.high, unit)}, "
+                f"most likely {_shown(self.mode, unit)}")
 
 
 @dataclass(frozen=True)
@@ -368,10 +375,10 @@ class Normal:
 
     def describe(self, unit: str = "") -> str:
         """The distribution in words."""
-        text = f"normal, mean {self.mean:.6g}, sd {self.sd:.6g}{_unit_text(unit)}"
+        text = f"normal, mean {_shown(self.mean, unit)}, sd {self.sd:.6g}{_unit_text(unit)}"
         if self.truncated:
-            low = "-inf" if self.low is None else f"{self.low:.6g}"
-            high = "inf" if self.high is None else f"{self.high:.6g}"
+            low = "-inf" if self.low is None else _shown(self.low, unit)
+            high = "inf" if self.high is None else _shown(self.high, unit)
             text += f", truncated to [{low}, {high}]"
         return text
 
@@ -509,7 +516,7 @@ def distribution_from_spec(spec, kind: str, field: str):
     Parameters
     ----------
     spec : mapping, str or float
-        A one-key mapping such as ``{"uniform": ["30 degC", "45 degC"]}`` (keys
+        A one-key mapping such as ``{"uniform": ["30 °C", "45 °C"]}`` (keys
         and parameters in the module notes and `DISTRIBUTION_KEYS`), or a bare
         value for a fixed one.
     kind : str

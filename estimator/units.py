@@ -317,9 +317,21 @@ def convert(values, from_unit: str, to_unit: str):
     >>> round(convert(101325.0, "Pa", "mmHg"), 3)
     760.0
     """
-    ureg = registry()
-    magnitude = np.asarray(values, dtype=float)
-    out = ureg.Quantity(magnitude, _SPELLINGS.get(from_unit.lower(), from_unit)).to(
-        _SPELLINGS.get(to_unit.lower(), to_unit)
-    ).magnitude
+    offset, factor = _affine(from_unit, to_unit)
+    out = np.asarray(values, dtype=float) * factor + offset
     return float(out) if np.ndim(out) == 0 else out
+
+
+@functools.lru_cache(maxsize=512)
+def _affine(from_unit: str, to_unit: str) -> tuple[float, float]:
+    """(offset, factor) of the conversion between two units, found once through pint.
+
+    Every unit ullage shows is an affine map of another (a factor, and an offset
+    for temperatures), so a conversion is ``value * factor + offset``; asking pint
+    each time costs far more than the arithmetic.
+    """
+    ureg = registry()
+    low, high = ureg.Quantity(np.array([0.0, 1.0]),
+                              _SPELLINGS.get(from_unit.lower(), from_unit)).to(
+        _SPELLINGS.get(to_unit.lower(), to_unit)).magnitude
+    return float(low), float(high - low)

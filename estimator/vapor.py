@@ -548,7 +548,7 @@ def method_uncertainty() -> dict[str, tuple[float, str]]:
         for row in csv.DictReader(handle):
             basis = (
                 f"95th percentile of |error| over {row['n_points']} points, "
-                f"{row['n_compounds']} compounds, {row['temperature_range']}, "
+                f"{row['n_compounds']} compounds, {row['temperature_range'].replace('degC', '°C')}, "
                 f"against {row['reference']}"
             )
             out[row["method"]] = (float(row["p95_relative_error"]), basis)
@@ -590,6 +590,11 @@ class VaporPressureEstimate:
     warnings: tuple[str, ...] = ()
 
 
+def _degc(kelvin: float) -> str:
+    """A temperature in a message, as people read it: "46.0 °C"."""
+    return f"{float(kelvin) - 273.15:.1f} °C"
+
+
 #: How far below its own melting point a component of a liquid mixture may be taken
 #: as a subcooled liquid. [K] 25 K: the liquid correlation is extrapolated below
 #: the melting point, which assumes the liquid's enthalpy of vaporization keeps its
@@ -627,8 +632,8 @@ def _check_temperature(substance, t: np.ndarray, field: str,
     tc = substance.critical_temperature
     if tc is not None and hi > tc:
         raise OutOfRangeError(
-            field, f"{hi:g} K is above the critical temperature of {substance.name} "
-            f"({tc:g} K): no liquid can exist there, so it has no vapour pressure")
+            field, f"{_degc(hi)} is above the critical temperature of {substance.name} "
+            f"({_degc(tc)}): no liquid can exist there, so it has no vapour pressure")
     tm = substance.melting_point
     if tm is not None and subcooled and lo < tm - SUBCOOLED_LIMIT:
         raise OutOfRangeError(
@@ -638,8 +643,8 @@ def _check_temperature(substance, t: np.ndarray, field: str,
             "crystallise out of the liquid, which ullage does not model")
     if tm is not None and lo < tm and not subcooled:
         raise OutOfRangeError(
-            field, f"{lo:g} K is below the melting point of {substance.name} "
-            f"({tm:g} K): it would be solid; ullage does not model sublimation")
+            field, f"{_degc(lo)} is below the melting point of {substance.name} "
+            f"({_degc(tm)}): it would be solid; ullage does not model sublimation")
     return lo, hi
 
 
@@ -741,7 +746,7 @@ def vapor_pressure_estimate(substance, temperature, method: str | None = None,
     notes = []
     if below:
         notes.append(
-            f"{sub.name}: {tm - lo:.1f} K below its melting point ({tm - 273.15:.1f} degC), "
+            f"{sub.name}: {tm - lo:.1f} K below its melting point ({tm - 273.15:.1f} °C), "
             "taken as a subcooled liquid in the mixture: its vapour pressure is the "
             f"{METHODS[correlation.method]} extrapolated below the melting point, with "
             f"{100 * SUBCOOLED_UNCERTAINTY_PER_KELVIN:g} % added to the stated uncertainty "
@@ -749,8 +754,8 @@ def vapor_pressure_estimate(substance, temperature, method: str | None = None,
             "%); it may crystallise out of the liquid, which is not modelled")
     elif lo < correlation.tmin or hi > correlation.tmax:
         notes.append(
-            f"{sub.name}: {lo:.1f}-{hi:.1f} K lies outside the {correlation.tmin:.1f}-"
-            f"{correlation.tmax:.1f} K range of the {METHODS[correlation.method]}; "
+            f"{sub.name}: {_degc(lo)} to {_degc(hi)} lies outside the "
+            f"{_degc(correlation.tmin)} to {_degc(correlation.tmax)} range of the {METHODS[correlation.method]}; "
             "the value is an extrapolation")
     relative, basis = method_uncertainty().get(correlation.method, (None, "not validated"))
     if below:

@@ -379,7 +379,7 @@ def _browser_huge_scenario(at):
 
 
 def _browser_bad_receptors(at):
-    at.text_input(key="w:weather.receptors").input("100, far")
+    at.text_input(key="w:weather.receptors").input("100 m, far")
 
 
 def _browser_inventory_columns(at):
@@ -397,7 +397,9 @@ BROWSER = [
     ("malformed scenario upload", "tank.py", _browser_broken_scenario, "not valid TOML"),
     ("oversized scenario upload", "tank.py", _browser_huge_scenario, "1,000,000 bytes"),
     ("receptor distances not numbers", "spill_outdoors.py", _browser_bad_receptors,
-     "not a list of numbers"),
+     "Downwind distances"),
+    ("receptor distance without a unit", "spill_outdoors.py",
+     lambda at: at.text_input(key="w:weather.receptors").input("100, 300 m"), "has no unit"),
     ("inventory without required columns", "inventory.py", _browser_inventory_columns,
      "liquid"),
     ("oxygen low above high", "limits.py", _browser_oxygen_bounds, "oxygen"),

@@ -290,6 +290,10 @@ def test_browser_search_box_finds_library_liquid():
 
     screens = Path(__file__).resolve().parents[1] / "ui" / "screens"
     at = AppTest.from_file(str(screens / "tank.py"), default_timeout=60).run()
+    at.selectbox(key="w:demo").select("coatings-day-tank.toml")  # its 34 degC and 210 m
+    at.run()
+    at.button(key="load:sidebar").click()
+    at.run()
     at.radio(key="w:tank.kind").set_value("table")
     at.run()
     at.text_input(key="w:tank.find").input("isohexane")
@@ -299,7 +303,7 @@ def test_browser_search_box_finds_library_liquid():
     assert any("property library" in c.value for c in at.caption)
     assert any("not on record" in w.value for w in at.warning)
     core = estimator.headspace("107-83-5", 307.15, barometric_pressure(210.0))
-    shown = next(m.value for m in at.metric if m.label == "Headspace, all vapour")
+    shown = next(m.value for m in at.metric if m.label == "Total vapour in the headspace")
     assert shown == f"{format_ppm(core.total_ppm)} ppm"
     at.text_input(key="w:tank.find").input("108-88-4")
     at.run()

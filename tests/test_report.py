@@ -289,8 +289,10 @@ def test_probabilistic_cumulative_plot_in_html_and_markdown(demos, tmp_path):
         assert len(plots) == 1, title
         root = ET.fromstring(plots[0])
         assert root.tag == ns + "svg"
-        limit_group = next(g for g in root.iter(ns + "g") if g.get("stroke-dasharray") == "6 3")
+        limit_group = next(g for g in root.iter(ns + "g") if g.get("stroke") == "#8c2a22")
         lines = [x.find(ns + "title").text for x in limit_group]
+        dashes = [x.get("stroke-dasharray") for x in limit_group]
+        assert len(set(dashes)) == len(dashes)  # each limit its own dash pattern
         ratios = [name for name in mc.outputs if name.startswith("ratio to ")]
         assert len(lines) == len(ratios) > 0
         for line in lines:
@@ -595,7 +597,7 @@ def test_line_plot_escapes_text_and_is_deterministic():
     texts = {t.text for t in root.iter("{http://www.w3.org/2000/svg}text")}
     assert {"TWA <250>", "STEL & co", "near <field>", "Bay <2> & \"yard\""} <= texts
     assert "1,000" in texts  # a decade label of the log axis
-    assert svg.count('stroke-dasharray="6 3"') == 1  # the limit-line group
+    assert svg.count('stroke="#8c2a22" stroke-width') == 1  # the limit-line group
 
 
 def test_line_plot_draws_each_series_with_its_own_dash():
@@ -609,8 +611,9 @@ def test_line_plot_draws_each_series_with_its_own_dash():
     assert len(paths) == 3
     assert len({(p.get("stroke"), p.get("stroke-dasharray")) for p in paths}) == 3
     assert len({p.get("stroke-dasharray") for p in paths}) == 3
-    limit_group = [g for g in root.iter(ns + "g") if g.get("stroke-dasharray") == "6 3"][0]
+    limit_group = [g for g in root.iter(ns + "g") if g.get("stroke") == "#8c2a22"][0]
     assert len(list(limit_group)) == 2
+    assert len({x.get("stroke-dasharray") for x in limit_group}) == 2  # told apart by dash
 
 
 def test_line_plot_thins_long_series_but_keeps_the_peak():
@@ -705,7 +708,7 @@ def test_cumulative_plot_escapes_text_is_deterministic_and_thins():
     assert len({(p.get("stroke"), p.get("stroke-dasharray")) for p in paths}) == 2
     points = paths[0].get("d").replace("M", " ").replace("L", " ").split()
     assert len(points) <= MAX_PLOT_POINTS + 60
-    limit_group = next(g for g in root.iter(ns + "g") if g.get("stroke-dasharray") == "6 3")
+    limit_group = next(g for g in root.iter(ns + "g") if g.get("stroke") == "#8c2a22")
     for line in limit_group:
         assert line.get("x1") == line.get("x2") and line.get("y1") != line.get("y2")
 
@@ -735,3 +738,35 @@ def test_cumulative_plot_bad_inputs_name_the_field():
     with pytest.raises(InputError) as err:
         cumulative_plot_svg({"a": [1.0]}, x_label="x", title="t", width=50)
     assert err.value.field == "width"
+
+
+def test_long_legend_labels_wrap_inside_the_plot():
+    """A legend label longer than the plot is wide wraps onto lines inside it."""
+    import re
+
+    from estimator.plots import line_plot_svg
+
+    long = "far field: " + " ".join(["Methyl ethyl ketone"] * 8)
+    svg = line_plot_svg([0, 1, 2], {long: [1, 2, 3], "near field": [2, 3, 4]},
+                        x_label="time [min]", y_label="ppm", title="t", width=420, height=420)
+    root = ET.fromstring(svg)
+    ns = "{http://www.w3.org/2000/svg}"
+    spans = [t.text for t in root.iter(ns + "tspan")]
+    assert " ".join(spans) == long  # every word kept, none cut off
+    width = 420
+    for t in root.iter(ns + "tspan"):
+        x = float(t.get("x"))
+        assert x + len(t.text) * 12 * 0.56 <= width  # the layout estimate of the plot
+    assert not re.search("…", svg)
+
+
+def test_percent_lfl_plot_is_logarithmic_far_above_the_alarm(demos):
+    """The % LFL sweep of the day tank (far above its 10 % alarm) uses a log axis, so the
+    alarm and LFL lines stand clear of the axis."""
+    result = demos["coatings-day-tank"]
+    page = html_report(result, generated_at=STAMP)
+    ns = "{http://www.w3.org/2000/svg}"
+    plot = next(svg for svg in _inline_svgs(page)
+                if "% of LFL by temperature" in ET.fromstring(svg).find(ns + "title").text)
+    texts = [t.text or "" for t in ET.fromstring(plot).iter(ns + "text")]
+    assert "10" in texts and "100" in texts  # decade ticks of a log axis

@@ -417,7 +417,7 @@ def test_scenario_with_the_sheet_text_and_the_worst_case():
            "liquid": [{"name": "cleaner", "sds_text": text, "point": "worst"}],
            "tank": [{"name": "T1", "liquid": "cleaner", "temperature": "30 degC"}]}
     scenario = loads_scenario(dumps_scenario(doc))
-    assert any("worst case within the ranges screened at 30.0 degC" in a
+    assert any("worst case within the ranges screened at 30.0 °C" in a
                for a in scenario.assumptions)
     spec = {s.key: v for s, v in scenario.liquids["cleaner"]["spec"].items()}
     worst = read_sds(text).screen("worst", temperature=c(30))

@@ -21,14 +21,14 @@ from streamlit.testing.v1 import AppTest  # noqa: E402
 from estimator import CAUTIONS  # noqa: E402
 from estimator.headspace import barometric_pressure, headspace  # noqa: E402
 from estimator.inventory import screen_inventory  # noqa: E402
-from estimator.limits import format_ppm  # noqa: E402
+from estimator.limits import format_number, format_ppm  # noqa: E402
 from estimator.scenario import dumps_scenario, load_scenario, loads_scenario  # noqa: E402
 from estimator.screening import run_scenario  # noqa: E402
 
 SCREENS = ROOT / "ui" / "screens"
 DEMOS = sorted((ROOT / "scenarios").glob("*.toml"))
 WAREHOUSE = ROOT / "scenarios" / "warehouse-drum-spill.toml"
-PAGES = ["tank.py", "spill_indoors.py", "spill_outdoors.py", "inventory.py", "compare.py",
+PAGES = ["start.py", "tank.py", "spill_indoors.py", "spill_outdoors.py", "inventory.py", "compare.py",
          "limits.py"]
 #: The first demo's thinner, as its file gives it (mass fractions).
 THINNER = {"toluene": 0.45, "o-xylene": 0.25, "n-butyl acetate": 0.20, "MEK": 0.10}
@@ -38,9 +38,11 @@ DEMO_ELEVATION = 210.0
 config.set_option("browser.gatherUsageStats", False)
 
 
-def page(name: str) -> AppTest:
-    at = AppTest.from_file(str(SCREENS / name), default_timeout=30)
-    return at.run()
+def page(name: str, demo: Path | None = DEMOS[0]) -> AppTest:
+    """A page run headless; with `demo`, that demo loaded from the sidebar (a new
+    session starts empty)."""
+    at = AppTest.from_file(str(SCREENS / name), default_timeout=30).run()
+    return at if demo is None else load_demo(at, demo)
 
 
 def metric(at: AppTest, label: str) -> str:
@@ -60,18 +62,62 @@ def button(at: AppTest, label: str):
 
 def load_demo(at: AppTest, path: Path) -> AppTest:
     at.selectbox(key="w:demo").select(path.name)
-    button(at, "Load this demo").click()
+    at.run()
+    at.button(key="load:sidebar").click()
     return at.run()
 
 
-def test_first_demo_is_on_screen_at_start():
-    """The tank page opens with the first demo scenario's tank and its result."""
+def test_first_demo_is_on_screen_when_loaded():
+    """Loading the first demo puts its tank on the tank page, with its result."""
     at = page("tank.py")
     assert not at.exception
     first = load_scenario(DEMOS[0])
     assert at.number_input(key="w:tank.temperature").value == pytest.approx(
         first.tanks[0]["temperature"] - 273.15)
-    assert metric(at, "Headspace, all vapour").endswith("ppm")
+    assert metric(at, "Total vapour in the headspace").endswith("ppm")
+    assert f"On screen: {DEMOS[0].name}" in at.sidebar.markdown[0].value
+
+
+def test_a_new_session_starts_empty():
+    """A first visit loads no demo: no tank name, worst case, elevation or limits."""
+    at = page("tank.py", demo=None)
+    assert not at.exception
+    assert "On screen: a new, empty case" in at.sidebar.markdown[0].value
+    assert at.number_input(key="w:tank.worst").value is None
+    assert at.text_input(key="w:tank.name").value == "tank 1"
+    assert any("No exposure limit entered" in c.value for c in at.caption)
+    assert any("sea level (101.325 kpa)" in c.value.lower() for c in at.caption)
+    assert at.selectbox(key="w:demo").value is None
+    core = headspace("toluene", 298.15, 101325.0)
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
+
+
+def test_new_case_after_a_demo_drops_everything_of_the_demo():
+    """"Start a new, empty case" after the demo leaves none of the demo's inputs."""
+    from ullage_ui import case
+
+    at = page("tank.py")
+    at.button(key="new:sidebar").click()
+    at.run()
+    assert not at.exception
+    assert "On screen: a new, empty case" in at.sidebar.markdown[0].value
+    assert at.number_input(key="w:tank.worst").value is None
+    assert at.number_input(key="w:tank.temperature").value == 25.0
+    assert at.text_input(key="w:tank.name").value == "tank 1"
+    assert at.radio(key="w:mc.tank.temperature.kind").value == "fixed"
+    doc = case.full_document(at.session_state["ullage"])
+    assert set(doc) == {"scenario"}  # nothing entered yet: nothing but the title
+
+
+def test_sidebar_names_the_file_loaded_last():
+    """After another file is loaded the sidebar names it, not the first demo."""
+    at = page("tank.py")
+    at.file_uploader(key="up:scenario").set_value(
+        ("my-site.toml", WAREHOUSE.read_bytes(), "application/toml"))
+    at.run()
+    assert not at.exception
+    head = at.sidebar.markdown[0].value
+    assert "my-site.toml" in head and DEMOS[0].name not in head
 
 
 def test_tank_headspace_shown_equals_core():
@@ -81,21 +127,21 @@ def test_tank_headspace_shown_equals_core():
     at.run()
     assert not at.exception
     core = headspace(THINNER, 313.15, barometric_pressure(DEMO_ELEVATION), basis="mass")
-    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
     assert metric(at, "Flammable vapour [% of LFL]") == f"{float(core.percent_lfl):.3g} %"
-    assert metric(at, "Oxygen left") == f"{float(core.oxygen_percent):.3g} %"
+    assert metric(at, "Oxygen after displacement") == f"{float(core.oxygen_percent):.3g} %"
 
 
 def test_units_switch_converts_inputs_and_keeps_the_result():
     """US customary units show the temperature in degF; the result stays the same."""
     at = page("tank.py")
-    before = metric(at, "Headspace, all vapour")
+    before = metric(at, "Total vapour in the headspace")
     at.toggle(key="w:units").set_value(True)
     at.run()
     assert not at.exception
     assert at.number_input(key="w:tank.temperature").value == pytest.approx(93.2)
     assert "[°F]" in at.number_input(key="w:tank.temperature").label
-    assert metric(at, "Headspace, all vapour") == before
+    assert metric(at, "Total vapour in the headspace") == before
 
 
 def test_substance_search_by_synonym_selects_it():
@@ -108,7 +154,7 @@ def test_substance_search_by_synonym_selects_it():
     assert not at.exception
     assert at.selectbox(key="w:tank.substance").value == "methyl-ethyl-ketone"
     core = headspace("MEK", 307.15, barometric_pressure(DEMO_ELEVATION))
-    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
 
 
 def test_close_matches_are_offered():
@@ -167,7 +213,7 @@ def test_own_substance_from_sds_values():
     sub = user_substance("Solvent X", 0.100, 383.15, [(293.15, 3000.0)],
                          lower_flammability_limit=0.011, upper_flammability_limit=0.07)
     core = headspace(sub, 303.15, barometric_pressure(DEMO_ELEVATION))
-    assert metric(at, "Headspace, all vapour") == f"{format_ppm(core.total_ppm)} ppm"
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
 
 
 def test_limit_without_source_shows_an_error():
@@ -198,14 +244,14 @@ def test_alarm_levels_default_to_osha_and_refuse_nonsense():
 def test_malformed_scenario_upload_shows_an_error():
     """A scenario file that is not TOML is refused with the reason; the case is kept."""
     at = page("tank.py")
-    before = metric(at, "Headspace, all vapour")
+    before = metric(at, "Total vapour in the headspace")
     at.file_uploader(key="up:scenario").set_value(
         ("broken.toml", b"[scenario\ntitle = 'x'\n", "application/toml"))
     at.run()
     assert not at.exception
     assert "broken.toml was not loaded" in errors(at)
     assert "not valid TOML" in errors(at)
-    assert metric(at, "Headspace, all vapour") == before
+    assert metric(at, "Total vapour in the headspace") == before
 
 
 def test_oversized_scenario_upload_is_refused():
@@ -252,23 +298,38 @@ def test_fan_failure_changes_the_indoor_result():
 
 
 def test_outdoor_spill_shown_equals_core():
-    """The outdoor page shows the source strength and stability the core computes."""
+    """The outdoor page shows the release rate to air and stability the core computes."""
     at = page("spill_outdoors.py")
     load_demo(at, WAREHOUSE)
     assert not at.exception
     spill = next(s for s in run_scenario(load_scenario(WAREHOUSE)).spills if s.outdoor)
     rate = 1000.0 * float(spill.outdoor.emission_rate.sum())
-    assert metric(at, "Source strength") == f"{rate:.3g} g/s"
+    assert metric(at, "Release rate to air") == f"{format_number(rate)} g/s"
     assert metric(at, "Stability class") == spill.outdoor.stability
 
 
 def test_bad_receptor_list_shows_an_error():
-    """Downwind distances that are not numbers are refused next to the box."""
+    """Downwind distances that are not lengths are refused next to the box."""
     at = page("spill_outdoors.py")
-    at.text_input(key="w:weather.receptors").input("100, far")
+    at.text_input(key="w:weather.receptors").input("100 m, far")
     at.run()
     assert not at.exception
-    assert "not a list of numbers" in errors(at)
+    assert "**Downwind distances**" in errors(at)
+
+
+def test_distance_without_a_unit_is_refused_naming_the_field():
+    """A distance typed without its unit is refused, naming the box (issue 11, section 6)."""
+    at = page("spill_outdoors.py")
+    at.text_input(key="w:weather.receptors").input("100, 300 m")
+    at.run()
+    assert not at.exception
+    assert "'100' has no unit" in errors(at)
+    assert "Downwind distances" in errors(at)
+    at.text_input(key="w:weather.receptors").input("100 ft, 0.3 km")
+    at.run()
+    assert not errors(at)
+    rows = table_rows(at)
+    assert "| 30.48 |" in rows and "| 300 |" in rows  # 100 ft = 30.48 m (exact by definition)
 
 
 def test_inventory_example_shown_equals_core():
@@ -300,13 +361,13 @@ def test_compare_page_shows_both_cases_and_the_difference():
     """Case B starts 10 degrees hotter; both numbers are the core's, the change is in words."""
     at = page("compare.py")
     assert not at.exception
-    shown = [m.value for m in at.metric if m.label == "Headspace, all vapour"]
+    shown = [m.value for m in at.metric if m.label == "Total vapour in the headspace"]
     pressure = barometric_pressure(DEMO_ELEVATION)
     a = headspace(THINNER, 307.15, pressure, basis="mass")
     b = headspace(THINNER, 317.15, pressure, basis="mass")
     assert shown == [f"{format_ppm(a.total_ppm)} ppm", f"{format_ppm(b.total_ppm)} ppm"]
     text = "\n".join(m.value for m in at.markdown)
-    assert "tank temperature" in text and "44.0 degC" in text
+    assert "**liquid temperature**: 34 °C in A, **44 °C** in B" in text
 
 
 def test_compare_page_other_solvent():
@@ -340,13 +401,14 @@ def test_app_navigates_every_page():
         at.switch_page(f"screens/{name}").run()
         assert not at.exception, name
         titles.append(at.title[0].value)
-    assert titles == ["Tank headspace", "Spill indoors", "Spill outdoors", "Site inventory",
+    assert titles == ["Start a case", "Tank headspace", "Spill indoors", "Spill outdoors", "Site inventory",
                       "Two cases side by side", "Limits, alarms and site"]
 
 
 def test_inputs_survive_a_page_switch():
     """A value typed on one page is still there after visiting another page."""
     at = AppTest.from_file(str(ROOT / "ui" / "app.py"), default_timeout=30).run()
+    at.switch_page("screens/tank.py").run()
     at.number_input(key="w:tank.temperature").set_value(41.0)
     at.run()
     at.switch_page("screens/spill_indoors.py").run()
@@ -357,7 +419,9 @@ def test_inputs_survive_a_page_switch():
 def test_units_choice_survives_a_page_switch():
     """US customary units stay chosen on every page, and the numbers keep their meaning."""
     at = AppTest.from_file(str(ROOT / "ui" / "app.py"), default_timeout=30).run()
-    before = metric(at, "Headspace, all vapour")
+    at.switch_page("screens/tank.py").run()
+    load_demo(at, DEMOS[0])
+    before = metric(at, "Total vapour in the headspace")
     at.toggle(key="w:units").set_value(True)
     at.run()
     at.switch_page("screens/spill_outdoors.py").run()
@@ -365,7 +429,7 @@ def test_units_choice_survives_a_page_switch():
     assert "[°F]" in at.number_input(key="w:outdoor.temperature").label
     at.switch_page("screens/tank.py").run()
     assert not at.exception
-    assert metric(at, "Headspace, all vapour") == before
+    assert metric(at, "Total vapour in the headspace") == before
 
 
 def test_saved_scenario_reloads_to_the_same_case():
@@ -384,17 +448,76 @@ def test_saved_scenario_reloads_to_the_same_case():
 
 
 def test_us_units_save_in_us_units():
-    """Inputs in US customary units are saved with their units and mean the same in SI."""
+    """An input changed in US customary units is saved in them and means the same in SI;
+    inputs left as loaded are saved as the file wrote them."""
     from ullage_ui import case
 
     state = {}
     case.apply_scenario(state, load_scenario(DEMOS[0]), DEMOS[0].name)
     case.switch_units(state, "SI", "US")
     state[case.key("units")] = True
+    assert state[case.key("tank.temperature")] == pytest.approx(93.2)
+    state[case.key("tank.temperature")] = 95.0
     text = dumps_scenario(case.full_document(state))
-    assert "degF" in text and "gal" in text
+    assert 'temperature = "95.0 degF"' in text
+    assert 'volume = "2500 gal"' in text  # unchanged: as in the file
     again = loads_scenario(text)
-    assert again.tanks[0]["temperature"] == pytest.approx(307.15, abs=1e-6)
+    assert again.tanks[0]["temperature"] == pytest.approx(308.15, abs=1e-6)  # 95 °F
+
+
+def test_load_then_save_gives_the_same_scenario():
+    """Every demo, in SI and US units on screen, saves back to the scenario it loaded."""
+    from ullage_ui import case
+
+    def summary(s):
+        return {"pressure": s.pressure, "air": s.air_temperature,
+                "tanks": [dict(x) for x in s.tanks], "rooms": [dict(x) for x in s.rooms],
+                "spills": [dict(x) for x in s.spills], "outdoors": s.outdoors,
+                "limits": [(x.substance, x.kind, x.ppm, x.source) for x in s.limits],
+                "alarms": s.alarms, "shift": s.shift,
+                "liquids": {k: (v["kind"], repr(v["spec"])) for k, v in s.liquids.items()},
+                "uncertain": [(u["item"], u["input"], vars(u["distribution"]))
+                              for u in s.uncertain],
+                "monte_carlo": dict(s.monte_carlo)}
+
+    for path in DEMOS:
+        first = load_scenario(path)
+        for units in ("SI", "US"):
+            state = {}
+            case.apply_scenario(state, first, path.name)
+            if units == "US":
+                case.switch_units(state, "SI", "US")
+                state[case.key("units")] = True
+            again = loads_scenario(dumps_scenario(case.full_document(state)))
+            assert summary(again) == summary(first), (path.name, units)
+
+
+def test_spill_only_file_saves_without_a_tank():
+    """A spill-only file loaded while the tank page is open saves with no tank."""
+    from ullage_ui import case
+
+    text = WAREHOUSE.read_text(encoding="utf-8")
+    at = page("tank.py", demo=None)
+    at.file_uploader(key="up:scenario").set_value(
+        ("spills.toml", text.encode("utf-8"), "application/toml"))
+    at.run()
+    assert not at.exception
+    saved = loads_scenario(dumps_scenario(case.full_document(at.session_state["ullage"])))
+    assert not saved.tanks
+    assert [s["name"] for s in saved.spills] == ["punctured drum", "yard transfer hose"]
+
+
+def test_an_input_changed_on_a_page_puts_its_study_in_the_file():
+    """A new case saves a tank once a tank input is changed, and not before."""
+    from ullage_ui import case
+
+    at = page("tank.py", demo=None)
+    assert "tank" not in case.full_document(at.session_state["ullage"])
+    at.number_input(key="w:tank.temperature").set_value(31.0)
+    at.run()
+    saved = loads_scenario(dumps_scenario(case.full_document(at.session_state["ullage"])))
+    assert saved.tanks[0]["temperature"] == pytest.approx(304.15)
+    assert not saved.spills and not saved.limits
 
 
 def test_reports_carry_the_cautions():
@@ -449,7 +572,7 @@ def test_uncertainty_section_starts_with_the_demo_triangular_temperature():
     assert shown == [28.0, 34.0, 44.0]  # the file's 28, 34 and 44 degC
     assert at.number_input(key="w:mc.samples").value == 20000
     assert at.number_input(key="w:mc.seed").value == 2026
-    assert metric(at, "95th percentile, headspace, all vapour").endswith("ppm")
+    assert metric(at, "95th percentile, total vapour in the headspace").endswith("ppm")
     at.toggle(key="w:units").set_value(True)
     at.run()
     assert not at.exception
@@ -475,17 +598,17 @@ def test_tank_uniform_temperature_range_shown_equals_core():
         liquid(THINNER, "mass"), Uniform(303.15, 318.15), barometric_pressure(DEMO_ELEVATION),
         load_scenario(DEMOS[0]).limits, n=5000, seed=99, include_method_uncertainty=True,
         lfl_alarm=10.0, oxygen_alarm=19.5)
-    assert metric(at, "95th percentile, headspace, all vapour") == \
+    assert metric(at, "95th percentile, total vapour in the headspace") == \
         f"{format_ppm(core.percentiles['total_ppm'][95])} ppm"
     rows = table_rows(at)
     oxygen = core.exceedance["oxygen below 19.5 %"]
     assert 0.0 < oxygen < 1.0  # a probability the range really decides
-    assert f"| oxygen below 19.5 % | oxygen left | {100 * oxygen:.3g} % |" in rows
+    assert f"| oxygen below 19.5 % | oxygen after displacement | {100 * oxygen:.3g} % |" in rows
     assert f"| 10 % LFL alarm | flammable vapour | " \
            f"{100 * core.exceedance['10 % LFL alarm']:.3g} % |" in rows
     toluene = core.exceedance["TWA 20 ppm (illustrative value for this demo)"]
-    assert f"| toluene TWA 20 ppm | Toluene | {100 * toluene:.3g} % |" in rows
-    assert "| headspace, all vapour | " in rows
+    assert f"| Toluene TWA 20 ppm | Toluene | {100 * toluene:.3g} % |" in rows
+    assert "| total vapour in the headspace | " in rows
     assert "driven most by the temperature" in "\n".join(m.value for m in at.markdown)
     assert len(at.get("vega_lite_chart")) == 3  # two sweeps and the cumulative curve
 
@@ -503,7 +626,7 @@ def test_bad_temperature_range_shows_an_error_next_to_the_field():
     assert "Liquid temperature" in text
     assert "the low end (45 °C) must be below the high end (30 °C)" in text
     assert not any(m.label.startswith("95th percentile") for m in at.metric)
-    assert metric(at, "Headspace, all vapour").endswith("ppm")  # the stated result stays
+    assert metric(at, "Total vapour in the headspace").endswith("ppm")  # the stated result stays
 
 
 def test_indoor_spill_ranges_shown_equal_core():
@@ -538,7 +661,7 @@ def test_indoor_spill_ranges_shown_equal_core():
     for label, compared in (("TWA 250 ppm", "8-h TWA"), ("STEL 500 ppm", "highest 15-min average"),
                             ("emergency 2500 ppm", "peak")):
         p = core.exceedance[f"{label} (illustrative value for this demo)"]
-        assert f"| acetone {label} | {compared} | {100 * p:.3g} % |" in rows
+        assert f"| Acetone {label} | {compared} | {100 * p:.3g} % |" in rows
     top = next(iter(core.sensitivity["twa_ppm"]))
     assert top == "air_speed"
     assert "driven most by the air speed over the pool" in "\n".join(m.value for m in at.markdown)
@@ -638,6 +761,143 @@ def test_outdoor_page_shows_lfl_distances_of_the_core():
     i = next(i for i, s in enumerate(result.spills) if s.outdoor)
     od = result_to_dict(result)["spills"][i]["outdoor"]
     shown = metric(at, "Distance to the LFL")
-    assert shown == f"{od['distance_to_lfl_m']:,.0f} m"
-    assert metric(at, "Distance to 10 % LFL") == f"{od['distance_to_lfl_alarm_m']:,.0f} m"
+    assert shown == f"{format_number(od['distance_to_lfl_m'])} m"
+    assert metric(at, "Distance to 10 % LFL") == f"{format_number(od['distance_to_lfl_alarm_m'])} m"
     assert metric(at, "Britter-McQuaid criterion").startswith(f"{od['dense_gas']['value']:.2g}")
+
+
+# ------------------------------------------------------- inputs that fail alone
+
+def test_negative_tank_volume_marks_its_field_and_keeps_the_headspace():
+    """A negative tank volume is refused by its screen label; the headspace stays."""
+    at = page("tank.py")
+    at.number_input(key="w:tank.volume").set_value(-5.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Tank volume**: must be above 0" in text
+    assert "[[tank]]" not in text and "volume (line" not in text
+    core = headspace(THINNER, 307.15, barometric_pressure(DEMO_ELEVATION), basis="mass")
+    assert metric(at, "Total vapour in the headspace") == f"{format_ppm(core.total_ppm)} ppm"
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "Vapour pushed out by filling" not in shown  # depends on the volume
+
+
+def test_bad_purge_flow_keeps_the_rest_of_the_tank():
+    """A purge flow of zero is refused alone; the filling result is still shown."""
+    at = page("tank.py")
+    at.number_input(key="w:tank.purge_rate").set_value(0.0)
+    at.run()
+    assert not at.exception
+    assert "**Purge air flow**" in errors(at)
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "Vapour pushed out by filling" in shown
+    assert "Purge before entry" not in shown
+
+
+# ------------------------------------------------------------ numbers as read
+
+SCIENTIFIC = r"\d(?:\.\d+)?e[+-]?\d"
+
+
+def page_text(at: AppTest) -> str:
+    """Every text a person reads on a page: tiles, Markdown, captions, messages."""
+    parts = [f"{m.label} {m.value}" for m in at.metric]
+    for kind in ("markdown", "caption", "error", "warning", "info", "subheader", "title"):
+        parts += [str(e.value) for e in getattr(at, kind)]
+    return "\n".join(parts)
+
+
+@pytest.mark.parametrize("name,demo", [("tank.py", DEMOS[0]), ("spill_indoors.py", WAREHOUSE),
+                                       ("spill_outdoors.py", WAREHOUSE),
+                                       ("compare.py", DEMOS[0])])
+def test_no_scientific_notation_on_the_pages(name, demo):
+    """Nothing a person reads on a page is in scientific notation (1.67e+03)."""
+    import re
+
+    at = page(name, demo)
+    assert not at.exception
+    text = page_text(at)
+    assert text.strip()
+    assert not re.findall(SCIENTIFIC, text), re.findall(r".{30}" + SCIENTIFIC + ".{10}", text)
+    assert "degC" not in text and " m2" not in text
+    assert not re.findall(r"\b[a-z]+_[a-z_]+\b", text)  # no internal key (residual_area)
+    assert "[[" not in text and "mackay-matsugu" not in text
+
+
+def test_oxygen_is_shown_by_its_low_percentiles():
+    """The uncertainty section gives oxygen's 1st and 5th percentiles, not its high ones."""
+    import numpy as np
+
+    at = page("tank.py")
+    rows = [line for line in table_rows(at).split("\n") if "oxygen after displacement" in line]
+    heads = "\n".join(m.value for m in at.markdown if "1st percentile" in m.value)
+    assert "| 1st percentile | 5th percentile | median |" in heads
+    assert rows and not any("99th" in r for r in rows)
+    assert metric(at, "5th percentile, oxygen after displacement").endswith("%")
+    # the low percentile is the smaller oxygen (a property of percentiles, common practice)
+    values = [float(v.strip(" %")) for v in rows[0].split("|")[2:5]]
+    assert values == sorted(values) and np.isfinite(values).all()
+
+
+def test_ratio_of_exactly_one_reaches_the_limit():
+    """A concentration equal to the limit 'reaches' it (not 'below' or '1 times')."""
+    from estimator.limits import ExposureLimit, LimitComparison, format_ratio  # noqa: F401
+
+    lim = ExposureLimit("toluene", "TWA", 20.0, "ppm", "illustrative", 20e-6)
+    statement = LimitComparison(lim, 20e-6, 1.0).statement
+    assert "reaches the TWA of 20 ppm" in statement and "below" not in statement
+    assert format_ratio(1.0) == "reaches"
+
+
+def test_converted_inputs_are_rounded_to_sensible_steps():
+    """The demo's 2500 gal tank reads 9.464 m³ (not 9.46353) and back 2500 gal."""
+    at = page("tank.py")
+    assert at.number_input(key="w:tank.volume").value == 9.464
+    assert at.number_input(key="w:tank.purge_rate").value == 679.6  # 400 ft³/min in m³/h
+    at.toggle(key="w:units").set_value(True)
+    at.run()
+    assert at.number_input(key="w:tank.volume").value == 2500.0
+
+
+# ------------------------------------------------------------ temperature flags
+
+def test_worst_case_below_stated_is_flagged_and_the_stated_used():
+    """A worst case cooler than the stated temperature is flagged; the stated one is used."""
+    at = page("tank.py")
+    at.number_input(key="w:tank.worst").set_value(20.0)  # stated 34 degC
+    at.run()
+    assert not at.exception
+    warnings_shown = "\n".join(w.value for w in at.warning)
+    assert "worst-case temperature 20.0 °C is below the stated temperature 34.0 °C" \
+        in warnings_shown
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "**Worst case, 34.0 °C:**" in shown
+
+
+def test_core_screening_uses_the_stated_temperature_as_worst_case():
+    """screen_tank: worst case below the stated temperature -> the stated one, with a note."""
+    from estimator.screening import screen_tank
+
+    text = DEMOS[0].read_text(encoding="utf-8").replace(
+        'worst_temperature = "46 degC"', 'worst_temperature = "25 degC"')
+    assert 'worst_temperature = "25 degC"' in text
+    scenario = loads_scenario(text)
+    result = screen_tank(scenario, scenario.tanks[0])
+    assert result.worst_temperature == result.temperature
+    assert float(result.worst.total_ppm) == pytest.approx(float(result.headspace.total_ppm))
+    assert any("is below the stated temperature" in w for w in result.warnings)
+
+
+def test_inventory_tables_read_without_scientific_notation():
+    """The inventory tables on screen hold numbers as people read them."""
+    import re
+
+    at = page("inventory.py", demo=None)
+    at.toggle(key="w:inv.example").set_value(True)
+    at.run()
+    assert not at.exception
+    for frame in at.dataframe:
+        text = frame.value.to_csv(index=False)
+        assert not re.findall(SCIENTIFIC, text)
+        assert not re.findall(r"\d\.\d{5,}", text)  # no long tails of digits

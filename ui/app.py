@@ -15,8 +15,11 @@ st.set_page_config(page_title="ullage: vapour hazard screening", layout="wide")
 
 PAGES = _HERE / "screens"
 navigation = st.navigation({
+    "Case": [
+        st.Page(PAGES / "start.py", title="Start", default=True),
+    ],
     "Screening": [
-        st.Page(PAGES / "tank.py", title="Tank headspace", url_path="tank", default=True),
+        st.Page(PAGES / "tank.py", title="Tank headspace", url_path="tank"),
         st.Page(PAGES / "spill_indoors.py", title="Spill indoors", url_path="spill-indoors"),
         st.Page(PAGES / "spill_outdoors.py", title="Spill outdoors", url_path="spill-outdoors"),
         st.Page(PAGES / "inventory.py", title="Site inventory", url_path="inventory"),

@@ -127,7 +127,7 @@ PLAIN = {
     "weather.cloud": 4.0,
     "weather.stability": "D",
     "weather.terrain": "open",
-    "weather.receptors": "100, 300, 1000, 3000",
+    "weather.receptors": "100 m, 300 m, 1 km, 3 km",
     "cmp.study": "tank",
     "cmp.substance": "",
     "cmp.mixing": 3.0,
@@ -237,10 +237,21 @@ def to_display(value_si, kind: str, units: str):
     return _round(out)
 
 
-def _round(value: float, digits: int = 6) -> float:
+#: Significant figures kept in an input box after a unit conversion: enough to go
+#: SI -> US -> SI without drifting (2500 gal -> 9.464 m³ -> 2500 gal), few enough to
+#: read ("9.464 m³", not "9.46353 m³").
+SHOWN_DIGITS = 4
+
+
+def _round(value: float, digits: int = SHOWN_DIGITS) -> float:
+    """A converted value rounded to sensible steps (4 significant figures, and never
+    finer than 0.01 for numbers of 10 or more)."""
     if value == 0 or not math.isfinite(value):
         return float(value)
-    return float(f"{value:.{digits}g}")
+    out = float(f"{value:.{digits}g}")
+    if abs(out) >= 10:
+        out = round(out, 2)
+    return 0.0 if out == 0 else out
 
 
 def text(state, name: str) -> str | None:
@@ -262,14 +273,7 @@ def switch_units(state, old: str, new: str) -> None:
             continue
         state[key(name)] = _round(convert(float(value), UNITS[kind][old][2],
                                           UNITS[kind][new][2]))
-    receptors = state.get(key("weather.receptors"), "")
-    try:
-        values = [float(v) for v in str(receptors).replace(";", ",").split(",") if v.strip()]
-    except ValueError:
-        return
-    state[key("weather.receptors")] = ", ".join(
-        f"{_round(convert(v, UNITS['length'][old][2], UNITS['length'][new][2]), 4):g}"
-        for v in values)
+    # the downwind distances are text with their own units: nothing to convert
 
 
 # ----------------------------------------------------------------------- defaults
@@ -314,9 +318,25 @@ def reset_defaults(state) -> None:
         state[table_key(f"{p}.dissolved")] = dissolved_frame()
     state[table_key("limits")] = empty_limits()
     state["case.base"] = {}
-    state["case.source"] = "defaults"
+    state["case.base_si"] = {}
+    state["case.base_uncertain"] = {}
+    state["case.source"] = NEW_CASE
+    state.pop("cmp.seeded", None)  # case B starts again from the new case A
     state["case.studies"] = {"tank": False, "indoor": False, "outdoor": False}
     state["tbl.generation"] = state.get("tbl.generation", 0) + 1
+
+
+#: What the sidebar names when no file is loaded.
+NEW_CASE = "a new, empty case"
+
+
+def new_case(state) -> None:
+    """Start a new, empty case: every input at its default, no tank, spill, limits,
+    elevation or worst case of any file (the unit system on screen is kept)."""
+    keep_units = state.get(key("units"), False)
+    reset_defaults(state)
+    state[key("units")] = keep_units
+    state["units.shown"] = system(state)
 
 
 def demo_files() -> list[Path]:
@@ -489,9 +509,13 @@ def apply_scenario(state, scenario, source: str) -> list[str]:
             state[key("weather.cloud")] = float(od.get("cloud_cover", 4.0) or 0.0)
         state[key("weather.terrain")] = od.get("terrain", "open")
         units = system(state)
+        written = list(doc.get("outdoors", {}).get("receptors") or [])
         state[key("weather.receptors")] = ", ".join(
-            f"{to_display(x, 'length', units):g}" for x in od["receptors"])
+            str(x) for x in written) if written else ", ".join(
+            f"{to_display(x, 'length', units):g} {UNITS['length'][units][1]}"
+            for x in od["receptors"])
     state["case.studies"] = studies
+    state["case.base_si"] = _base_si(scenario, indoor, outdoor)
     notes += _set_uncertain(state, scenario)
     rows = [(_limit_name(lim, scenario), lim.kind, float(lim.value), lim.unit, lim.source)
             for lim in scenario.limits]
@@ -501,6 +525,28 @@ def apply_scenario(state, scenario, source: str) -> list[str]:
     if spills > 0:
         notes.append(f"{spills} further spill(s) in the file are kept in the saved file.")
     return notes
+
+
+def _base_si(scenario, indoor, outdoor) -> dict:
+    """The SI values of the items of a loaded file that the pages show, to tell an
+    input left as loaded from one the user changed (see `kept`)."""
+    out = {"pressure": scenario.pressure}
+    cond = scenario.document.get("conditions", {})
+    if "elevation" in cond:
+        from estimator.units import parse_quantity
+
+        out["elevation"] = parse_quantity(cond["elevation"], "length", "elevation")
+    if scenario.tanks:
+        out["tank"] = _plain(dict(scenario.tanks[0]))
+    if indoor:
+        out["indoor"] = _plain(dict(indoor[0]))
+        room = next(r for r in scenario.rooms if r["name"] == indoor[0]["room"])
+        out["room"] = _plain(dict(room))
+        out["room"]["air_changes"] = room["ventilation_rate"] / room["volume"]
+    if outdoor:
+        out["outdoor"] = _plain(dict(outdoor[0]))
+        out["outdoors"] = _plain(dict(scenario.outdoors or {}))
+    return out
 
 
 def _set_uncertain(state, scenario) -> list[str]:
@@ -564,6 +610,13 @@ def _set_distribution(state, study: str, field: str, dist, written) -> None:
     state[key(uncertain_name(study, field, "kind"))] = choice
     state[key(uncertain_name(study, field, "file"))] = (_plain(written) if choice == "file"
                                                         else None)
+    if choice != "file":
+        si = {"low": getattr(dist, "low", None), "mode": getattr(dist, "mode", None),
+              "high": getattr(dist, "high", None), "gm": getattr(dist, "geometric_mean", None),
+              "gsd": getattr(dist, "geometric_sd", None)}
+        state.setdefault("case.base_uncertain", {})[f"{study}.{field}"] = {
+            "choice": choice, "si": {p: si[p] for p in DISTRIBUTIONS[choice]},
+            "written": _plain(written)}
 
 
 def _limit_name(limit, scenario) -> str:
@@ -599,6 +652,65 @@ def _plain(value):
 
 
 # ---------------------------------------------------------------- inputs -> scenario
+
+#: Keys of a loaded file's items that the pages edit; the other keys of those items
+#: travel along into the saved file as written.
+EDITED_KEYS = {
+    "tank": {"name", "liquid", "temperature", "worst_temperature", "volume", "fill",
+             "gauge_pressure", "daily_low", "daily_high", "pumped_volume", "purge_rate",
+             "purge_target", "purge_mixing_factor"},
+    "indoor": {"name", "liquid", "temperature", "volume", "mass", "area", "dike_area", "room",
+               "duration", "cleanup_after", "model"},
+    "outdoor": {"name", "liquid", "temperature", "volume", "mass", "area", "dike_area",
+                "outdoors", "room", "model"},
+    "room": {"name", "volume", "air_changes", "ventilation_rate", "mixing_factor", "air_speed",
+             "near_field_radius", "random_air_speed"},
+    "outdoors": {"wind_speed", "wind_height", "stability", "daytime", "cloud_cover",
+                 "insolation", "terrain", "receptors"},
+}
+
+
+def base_item(state, which: str) -> dict:
+    """The written item of the loaded file shown on a page ("tank", "indoor",
+    "outdoor", "room", "outdoors"), or an empty dict."""
+    base = state.get("case.base", {}) or {}
+    si = (state.get("case.base_si", {}) or {}).get(which)
+    if not si:
+        return {}
+    if which == "outdoors":
+        return dict(base.get("outdoors") or {})
+    section = {"tank": "tank", "indoor": "spill", "outdoor": "spill", "room": "room"}[which]
+    name = str(si.get("name", "")).strip().lower()
+    return next((dict(x) for x in base.get(section, []) or []
+                 if str(x.get("name", "")).strip().lower() == name), {})
+
+
+def unchanged(state, name: str, value_si) -> bool:
+    """Whether an input still shows the value a loaded file gave it."""
+    shown = state.get(key(name))
+    if shown is None or value_si is None:
+        return False
+    if name in QUANTITIES:
+        return to_display(value_si, QUANTITIES[name][0], system(state)) == shown
+    return float(shown) == float(value_si)
+
+
+def kept(state, name: str, which: str, field: str):
+    """An input as scenario text: as the loaded file wrote it while it is unchanged on
+    screen (left out when the file left it to its default), else as entered."""
+    si = ((state.get("case.base_si", {}) or {}).get(which) or {}).get(field)
+    if si is None or not unchanged(state, name, si):
+        return text(state, name)
+    return base_item(state, which).get(field)
+
+
+def _carry(item: dict, state, which: str) -> dict:
+    """Add the keys of the loaded item that no page edits, as written."""
+    for name, value in base_item(state, which).items():
+        if name not in item and name not in EDITED_KEYS[which]:
+            item[name] = value
+    return item
+
 
 def _rows(frame) -> list[dict]:
     """The non-empty rows of a table as dicts, blanks as None."""
@@ -687,7 +799,18 @@ def liquid_item(state, prefix: str) -> tuple[dict, list[str]]:
         name = substance(chosen).name
     except Exception:  # shown by the substance chooser; keep the text for the message
         name = str(chosen)
+    loaded = _loaded_liquid(state, prefix)
+    if loaded and loaded.get("substance") == chosen and named:
+        name = named  # the loaded file's own name for this liquid
     return {"name": name, "substance": chosen}, problems
+
+
+def _loaded_liquid(state, prefix: str) -> dict:
+    """The written [[liquid]] table of the loaded item on a page, or an empty dict."""
+    wanted = str(base_item(state, prefix).get("liquid", "")).strip().lower()
+    base = state.get("case.base", {}) or {}
+    return next((dict(x) for x in base.get("liquid", []) or []
+                 if wanted and str(x.get("name", "")).strip().lower() == wanted), {})
 
 
 def uses_own_substance(state, prefixes) -> bool:
@@ -706,10 +829,17 @@ def uses_own_substance(state, prefixes) -> bool:
 def conditions(state) -> dict:
     mode = state.get(key("site.mode"), "sea level")
     out = {}
+    si = state.get("case.base_si", {}) or {}
+    written = (state.get("case.base", {}) or {}).get("conditions", {})
     if mode == "elevation" and text(state, "site.elevation"):
-        out["elevation"] = text(state, "site.elevation")
+        out["elevation"] = (written["elevation"] if "elevation" in written
+                            and unchanged(state, "site.elevation", si.get("elevation"))
+                            else text(state, "site.elevation"))
     elif mode == "barometric" and text(state, "site.barometric"):
-        out["barometric_pressure"] = text(state, "site.barometric")
+        out["barometric_pressure"] = (
+            written["barometric_pressure"] if "barometric_pressure" in written
+            and unchanged(state, "site.barometric", si.get("pressure"))
+            else text(state, "site.barometric"))
     air = (state.get("case.base", {}) or {}).get("conditions", {}).get("air_temperature")
     if air:
         out["air_temperature"] = air
@@ -764,73 +894,120 @@ def _head(state) -> dict:
 
 def tank_item(state, liquid_name: str) -> dict:
     item = {"name": str(state.get(key("tank.name")) or "tank 1").strip() or "tank 1",
-            "liquid": liquid_name, "temperature": text(state, "tank.temperature")}
+            "liquid": liquid_name,
+            "temperature": kept(state, "tank.temperature", "tank", "temperature")}
     for field, name in (("worst_temperature", "tank.worst"), ("volume", "tank.volume"),
                         ("fill", "tank.fill"), ("gauge_pressure", "tank.gauge")):
-        if text(state, name) is not None:
-            item[field] = text(state, name)
+        value = kept(state, name, "tank", field)
+        if value is not None:
+            item[field] = value
     if state.get(key("tank.details")):
         for field, name in (("daily_low", "tank.daily_low"), ("daily_high", "tank.daily_high"),
                             ("pumped_volume", "tank.pumped"), ("purge_rate", "tank.purge_rate"),
                             ("purge_target", "tank.purge_target")):
-            if text(state, name) is not None:
-                item[field] = text(state, name)
+            value = kept(state, name, "tank", field)
+            if value is not None:
+                item[field] = value
         if item.get("purge_rate") and state.get(key("tank.purge_mixing")) not in (None, 1.0):
             item["purge_mixing_factor"] = float(state[key("tank.purge_mixing")])
     if item.get("fill") is not None and item.get("volume") is None:
         item.pop("fill")
-    return item
+    return _carry(item, state, "tank")
 
 
 def room_item(state) -> dict:
     item = {"name": str(state.get(key("room.name")) or "room 1").strip() or "room 1",
-            "volume": text(state, "room.volume"), "air_changes": text(state, "room.air_changes"),
+            "volume": kept(state, "room.volume", "room", "volume"),
+            "air_changes": text(state, "room.air_changes"),
             "mixing_factor": float(state.get(key("room.mixing")) or 1.0),
-            "air_speed": text(state, "room.air_speed")}
+            "air_speed": kept(state, "room.air_speed", "room", "air_speed")}
+    written = base_item(state, "room")
+    si = (state.get("case.base_si", {}) or {}).get("room") or {}
+    if written and unchanged(state, "room.air_changes", si.get("air_changes")) and (
+            unchanged(state, "room.volume", si.get("volume"))):
+        if "ventilation_rate" in written:
+            item.pop("air_changes")
+            item["ventilation_rate"] = written["ventilation_rate"]
+        elif "air_changes" in written:
+            item["air_changes"] = written["air_changes"]
+    if written and "mixing_factor" in written and unchanged(state, "room.mixing",
+                                                             si.get("mixing_factor")):
+        item["mixing_factor"] = written["mixing_factor"]
     for field, name in (("near_field_radius", "room.near_field_radius"),
                         ("random_air_speed", "room.random_air_speed")):
-        if text(state, name) is not None:
-            item[field] = text(state, name)
-    return {k: v for k, v in item.items() if v is not None}
+        value = kept(state, name, "room", field)
+        if value is not None:
+            item[field] = value
+    return _carry({k: v for k, v in item.items() if v is not None}, state, "room")
 
 
 def spill_item(state, prefix: str, liquid_name: str) -> dict:
     item = {"name": str(state.get(key(f"{prefix}.name")) or prefix).strip() or prefix,
-            "liquid": liquid_name, "temperature": text(state, f"{prefix}.temperature")}
+            "liquid": liquid_name,
+            "temperature": kept(state, f"{prefix}.temperature", prefix, "temperature")}
     if prefix == "indoor" and state.get(key("indoor.amount_kind")) == "mass":
-        item["mass"] = text(state, "indoor.mass")
+        item["mass"] = kept(state, "indoor.mass", prefix, "mass")
     else:
-        item["volume"] = text(state, f"{prefix}.volume")
+        item["volume"] = kept(state, f"{prefix}.volume", prefix, "volume")
     for field, name in (("area", f"{prefix}.area"), ("dike_area", f"{prefix}.dike")):
-        if text(state, name) is not None:
-            item[field] = text(state, name)
+        value = kept(state, name, prefix, field)
+        if value is not None:
+            item[field] = value
+    written = base_item(state, prefix)
     if prefix == "indoor":
         item["room"] = room_item(state)["name"]
-        item["duration"] = text(state, "indoor.duration")
-        if text(state, "indoor.cleanup") is not None:
-            item["cleanup_after"] = text(state, "indoor.cleanup")
+        item["duration"] = kept(state, "indoor.duration", prefix, "duration")
+        if item["duration"] is None and text(state, "indoor.duration") is not None:
+            item["duration"] = text(state, "indoor.duration")
+        value = kept(state, "indoor.cleanup", prefix, "cleanup_after")
+        if value is not None:
+            item["cleanup_after"] = value
     else:
         item["outdoors"] = True
-        item["duration"] = "60.0 min"
-    item["model"] = state.get(key(f"{prefix}.model"), "mackay-matsugu")
-    return {k: v for k, v in item.items() if v is not None}
+        if not written:
+            item["duration"] = "60.0 min"
+    model = state.get(key(f"{prefix}.model"), "mackay-matsugu")
+    if model != "mackay-matsugu" or "model" in written:
+        item["model"] = model
+    return _carry({k: v for k, v in item.items() if v is not None}, state, prefix)
 
 
 def receptor_values(state) -> list[float]:
     """Receptor distances as typed, in the display length unit."""
     raw = str(state.get(key("weather.receptors")) or "")
-    values = []
-    for part in raw.replace(";", ",").split(","):
-        if part.strip():
-            values.append(float(part))
-    return values
+    return [to_display(x, "length", system(state)) for x in receptor_distances(raw)]
+
+
+def receptor_distances(raw: str) -> list[float]:
+    """Downwind distances typed as text with units ("100 m, 0.5 km, 2000 ft") -> [m].
+
+    A number without a unit is refused (InputError naming the field): the box takes
+    any length unit, so a bare number could mean metres or feet.
+    """
+    from estimator.errors import InputError
+    from estimator.units import parse_quantity
+
+    out = []
+    for part in str(raw).replace(";", ",").split(","):
+        part = part.strip()
+        if not part:
+            continue
+        try:
+            float(part)
+        except ValueError:
+            out.append(parse_quantity(part, "length", "Downwind distances"))
+            continue
+        raise InputError("Downwind distances", f"'{part}' has no unit; write it with one, "
+                         f"for example '{part} m' or '{part} ft'")
+    return out
 
 
 def outdoors_item(state, receptors=None) -> dict:
     length = UNITS["length"][system(state)][1]
-    item = {"wind_speed": text(state, "weather.wind")}
-    if text(state, "weather.wind_height") is not None:
-        item["wind_height"] = text(state, "weather.wind_height")
+    item = {"wind_speed": kept(state, "weather.wind", "outdoors", "wind_speed")}
+    height = kept(state, "weather.wind_height", "outdoors", "wind_height")
+    if height is not None or not base_item(state, "outdoors"):
+        item["wind_height"] = height if height is not None else text(state, "weather.wind_height")
     sky = state.get(key("weather.sky"), "day")
     if sky == "class":
         item["stability"] = str(state.get(key("weather.stability")) or "D")
@@ -842,9 +1019,18 @@ def outdoors_item(state, receptors=None) -> dict:
         item["insolation"] = str(state.get(key("weather.insolation")) or "moderate")
     item["terrain"] = str(state.get(key("weather.terrain")) or "open")
     values = receptor_values(state) if receptors is None else receptors
-    if values:
+    written = base_item(state, "outdoors")
+    loaded = ((state.get("case.base_si", {}) or {}).get("outdoors") or {}).get("receptors")
+    if (receptors is None and written.get("receptors") and loaded
+            and values == [to_display(x, "length", system(state)) for x in loaded]):
+        item["receptors"] = list(written["receptors"])
+    elif receptors is None and values:
+        item["receptors"] = [part.strip() for part in str(
+            state.get(key("weather.receptors")) or "").replace(";", ",").split(",")
+            if part.strip()]
+    elif values:
         item["receptors"] = [f"{float(v)!r} {length}" for v in values]
-    return item
+    return _carry({k: v for k, v in item.items() if v is not None}, state, "outdoors")
 
 
 def written_distribution(spec) -> str:
@@ -950,8 +1136,13 @@ def uncertain_entries(state, study: str, item_name: str) -> tuple[list[dict], di
         if problem:
             problems[field] = problem
             continue
+        loaded = (state.get("case.base_uncertain", {}) or {}).get(f"{study}.{field}")
         if choice == "file":
             spec = state[key(uncertain_name(study, field, "file"))]
+        elif loaded and loaded["choice"] == choice and all(
+                _unchanged_part(state, study, field, part, value)
+                for part, value in loaded["si"].items()):
+            spec = loaded["written"]  # as the loaded file wrote it
         elif choice == "lognormal":
             spec = {"lognormal": {"gm": _parameter_text(state, study, field, "gm"),
                                   "gsd": _parameter(state, study, field, "gsd")}}
@@ -962,6 +1153,17 @@ def uncertain_entries(state, study: str, item_name: str) -> tuple[list[dict], di
     for entry in carried_uncertain(state, study):
         entries.append(dict(entry, item=item_name))
     return entries, problems
+
+
+def _unchanged_part(state, study: str, field: str, part: str, value_si) -> bool:
+    kind = UNCERTAIN[study][field][2]
+    name = uncertain_name(study, field, part)
+    shown = state.get(key(name))
+    if shown is None or value_si is None:
+        return False
+    if kind is None or part == "gsd":
+        return _round(float(value_si)) == float(shown)
+    return unchanged(state, name, value_si)
 
 
 def monte_carlo_table(state) -> dict:
@@ -1040,6 +1242,27 @@ def study_document(state, study: str, *, receptors=None, limits=None,
         if entries:
             doc["uncertain"] = entries
             doc["monte_carlo"] = monte_carlo_table(state)
+    return doc, problems
+
+
+def view_document(state, study: str, *, limits=None) -> tuple[dict, list[str]]:
+    """The scenario document a page's result is computed from: `study_document`, and
+    for the tank a temperature sweep over whole steps (10 °C or 20 °F) that covers
+    the stated and worst-case temperatures with a margin (15 °C, 27 °F).
+
+    The sweep then stays the same while the temperature moves within a step, so
+    the charts update in place. Saved files and reports keep the core's own range.
+    """
+    doc, problems = study_document(state, study, limits=limits)
+    if study == "tank" and not problems:
+        tank = doc["tank"][0]
+        stated, worst = state.get(key("tank.temperature")), state.get(key("tank.worst"))
+        if stated is not None and "sweep_from" not in tank and "sweep_to" not in tank:
+            step, margin = (20.0, 27.0) if system(state) == "US" else (10.0, 15.0)
+            top = max(float(stated), float(worst)) if worst is not None else float(stated)
+            unit = UNITS["temperature"][system(state)][1]
+            tank["sweep_from"] = f"{math.floor((float(stated) - margin) / step) * step!r} {unit}"
+            tank["sweep_to"] = f"{math.ceil((top + margin) / step) * step!r} {unit}"
     return doc, problems
 
 

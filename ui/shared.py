@@ -35,7 +35,8 @@ ADVICE = {
     "time": "Check the run duration and the clean-up time.",
     "room": "Check the room volume, air changes, mixing factor and air speeds.",
     "weather": "Check the wind speed, its height and the sky or stability class.",
-    "receptors": "List downwind distances as numbers separated by commas.",
+    "receptors": "List downwind distances, each with its unit, separated by commas "
+                 "(100 m, 300 m, 1 km).",
     "file": "Fix the file and load it again.",
     "solver": "The calculation could not be finished for these inputs. A slightly different "
               "amount, area or run length usually gets past it; the inputs themselves are "
@@ -61,6 +62,7 @@ class Slots:
     def __init__(self):
         self.places = {}
         self.shown = set()
+        self.messages = {}
 
     def add(self, area: str, container=None) -> None:
         self.places[area] = (container or st).empty()
@@ -68,14 +70,17 @@ class Slots:
     def show(self, error: dict) -> None:
         area = error.get("area", "general")
         place = self.places.get(area) or self.places.get("general")
-        field = re.sub(r"\s*\(line \d+\)", "", str(error.get("field") or ""))
+        field = views.field_label(error.get("field") or "")
         words = AREA_NAMES.get(area, "Input")
-        head = f"**{words}**" + (f" ({field})" if field else "")
-        message = f"{head}: {error.get('reason', '')}\n\n{ADVICE.get(area, ADVICE['general'])}"
+        head = f"**{field}**" if field else f"**{words}**"
+        message = f"{head}: {error.get('reason', '')}.".replace("..", ".")
+        lines = self.messages.setdefault(area, [])
+        lines.append(message)
+        text = "\n\n".join(lines + [ADVICE.get(area, ADVICE["general"])])
         if place is None:
-            st.error(message)
+            st.error(text)
         else:
-            place.error(message)
+            place.error(text)
         self.shown.add(area)
 
     def problems(self, area: str, lines) -> None:
@@ -90,6 +95,20 @@ class Slots:
 
 
 # ------------------------------------------------------------------- the page
+
+#: Tiles (st.metric) wrap a long value or its unit instead of cutting it off.
+TILE_STYLE = """<style>
+[data-testid="stMetricValue"], [data-testid="stMetricValue"] > div {
+  white-space: normal !important; overflow: visible !important;
+  text-overflow: clip !important; overflow-wrap: break-word; line-height: 1.15;
+  font-size: clamp(1.15rem, 1.6vw, 2rem);
+}
+[data-testid="stMetricLabel"], [data-testid="stMetricLabel"] * {
+  white-space: normal !important; overflow: visible !important; text-overflow: clip !important;
+  word-break: normal !important; overflow-wrap: normal !important;
+}
+</style>"""
+
 
 def show_cautions() -> None:
     """The cautions, at the top of every page, never folded away."""
@@ -118,8 +137,34 @@ def _sync_widgets() -> None:
             st.session_state[name] = inputs[key(name[2:])]
 
 
-def bound(widget, label: str, name: str, **kwargs):
-    """Draw a widget for the input `name`, seeded from and written back to the store."""
+def entered() -> None:
+    """Mark the study of the page on screen as entered: the saved file holds it.
+
+    Called when the user changes an input of a study page (never when a page is only
+    drawn), so that saving writes what was entered and nothing more.
+    """
+    study = st.session_state.get("page.study")
+    if study:
+        store().setdefault("case.studies", {})[study] = True
+
+
+def _changed_then(callback=None, args=(), kwargs=None):
+    def run():
+        entered()
+        if callback is not None:
+            callback(*(args or ()), **(kwargs or {}))
+    return run
+
+
+def bound(widget, label: str, name: str, *, marks: bool = True, **kwargs):
+    """Draw a widget for the input `name`, seeded from and written back to the store.
+
+    A change made on screen marks the page's study as entered (`entered`), unless
+    `marks` is false (the sidebar's own inputs).
+    """
+    if marks:
+        kwargs["on_change"] = _changed_then(kwargs.pop("on_change", None),
+                                            kwargs.pop("args", ()), kwargs.pop("kwargs", None))
     inputs = store()
     widget_key = "w:" + name
     # The live value wins (a change just made on screen); otherwise the stored one.
@@ -134,17 +179,25 @@ def bound(widget, label: str, name: str, **kwargs):
 
 
 def _first_visit() -> None:
+    """A first visit starts a new, empty case; a demo loads only when asked."""
     inputs = store()
     if inputs.get("case.ready"):
         return
-    case.reset_defaults(inputs)
     inputs[key("units")] = False
+    case.new_case(inputs)
     inputs["units.shown"] = "SI"
-    files = case.demo_files()
-    if files:
-        _load_text(files[0].read_text(encoding="utf-8"), files[0].name)
-    inputs[key("demo")] = files[0].name if files else ""
+    inputs["load.message"] = inputs["load.error"] = ""
     inputs["case.ready"] = True
+
+
+def start_new_case() -> None:
+    """The sidebar's and the start page's control: a new, empty case."""
+    inputs = store()
+    case.new_case(inputs)
+    inputs["load.error"] = ""
+    inputs["load.message"] = ("New, empty case: no tank, spill, limits, elevation or worst "
+                              "case from any file.")
+    _sync_widgets()
 
 
 def _load_text(text: str, source: str) -> None:
@@ -156,7 +209,11 @@ def _load_text(text: str, source: str) -> None:
         notes = case.apply_scenario(inputs, scenario, source)
     except (UllageError, ValueError) as exc:
         record = views.error_record(exc)
-        inputs["load.error"] = (f"{source} was not loaded. {record['field']}: "
+        where = views.field_label(record["field"]) or "The file"
+        line = re.search(r"\(line (\d+)\)", str(record["field"]))
+        if line:
+            where += f" (line {line.group(1)} of the file)"
+        inputs["load.error"] = (f"{source} was not loaded. {where}: "
                                 f"{record['reason']}. Fix the file and load it again.")
         inputs["load.message"] = ""
         return
@@ -164,8 +221,11 @@ def _load_text(text: str, source: str) -> None:
     inputs["load.message"] = " ".join([f"Loaded {source}."] + notes)
 
 
-def _load_demo() -> None:
-    name = st.session_state.get("w:demo") or store().get(key("demo"))
+def _load_demo(widget: str = "w:demo") -> None:
+    name = st.session_state.get(widget)
+    if not name:
+        store()["load.error"] = "Choose a demo scenario first, then load it."
+        return
     for path in case.demo_files():
         if path.name == name:
             _load_text(path.read_text(encoding="utf-8"), path.name)
@@ -207,21 +267,40 @@ def _slug(title: str) -> str:
     return re.sub(r"[^a-z0-9]+", "-", title.lower()).strip("-")[:60] or "case"
 
 
+def loaded_words(inputs) -> str:
+    """What is on screen, in words: the file loaded (and its title) or a new case."""
+    source = str(inputs.get("case.source") or case.NEW_CASE)
+    title = str(inputs.get(key("title")) or "").strip()
+    if source == case.NEW_CASE:
+        return f"On screen: {case.NEW_CASE}" + (f", “{title}”" if title and title !=
+                                                   case.PLAIN["title"] else "") + "."
+    return f"On screen: {source}" + (f", “{title}”" if title else "") + "."
+
+
+def demo_chooser(where: str = "sidebar") -> None:
+    """A demo selectbox (empty until one is chosen) and its load button."""
+    names = [p.name for p in case.demo_files()]
+    if not names:
+        return
+    widget = "w:demo" if where == "sidebar" else f"w:demo.{where}"
+    st.selectbox("Demo scenario (invented sites)", names, index=None, key=widget,
+                 placeholder="Choose a demo")
+    st.button("Load this demo", on_click=_load_demo, args=(widget,), key=f"load:{where}",
+              disabled=not st.session_state.get(widget))
+
+
 def sidebar(study: str | None) -> None:
     from estimator.scenario import dumps_scenario
 
     inputs = store()
     with st.sidebar:
+        st.markdown(f"**{loaded_words(inputs)}**")
+        st.button("Start a new, empty case", on_click=start_new_case, key="new:sidebar")
         bound(st.toggle, "US customary units (°F, gal, ft, psi)", "units",
-              on_change=_units_changed)
-        bound(st.text_input, "Case title", "title")
+              on_change=_units_changed, marks=False)
+        bound(st.text_input, "Case title", "title", marks=False)
         st.markdown("**Scenario files**")
-        names = [p.name for p in case.demo_files()]
-        if names:
-            if inputs.get(key("demo")) not in names:
-                inputs[key("demo")] = names[0]
-            bound(st.selectbox, "Demo scenario", "demo", options=names)
-            st.button("Load this demo", on_click=_load_demo)
+        demo_chooser()
         st.file_uploader("Load a scenario file (.toml, up to 1 MB)", type=["toml"],
                          key="up:scenario", on_change=_load_upload, max_upload_size=1)
         if inputs.get("load.error"):
@@ -229,20 +308,19 @@ def sidebar(study: str | None) -> None:
         elif inputs.get("load.message"):
             st.caption(inputs["load.message"])
         title = str(inputs.get(key("title")) or "case")
-        studies = {study: True} if study else None
         st.download_button("Save the inputs as a scenario file",
-                           data=lambda: dumps_scenario(case.full_document(inputs, studies)),
+                           data=lambda: dumps_scenario(case.full_document(inputs)),
                            file_name=f"{_slug(title)}.toml", mime="application/toml",
                            on_click="ignore")
+        st.caption("The file holds what is loaded and what you entered, nothing more.")
 
 
 def setup_page(title: str, study: str | None = None, lead: str = "") -> Slots:
     """Start a page: first demo on a first visit, sidebar, cautions, title."""
     _first_visit()
-    if study:
-        studies = store().setdefault("case.studies", {})
-        studies[study] = True
+    st.session_state["page.study"] = study
     sidebar(study)
+    st.html(TILE_STYLE)
     show_cautions()
     st.title(title)
     if lead:
@@ -357,6 +435,7 @@ def _found(prefix: str) -> None:
 
 
 def _pick(prefix: str, substance_key: str) -> None:
+    entered()
     _set_input(f"{prefix}.substance", substance_key)
     _set_input(f"{prefix}.find", "")
 
@@ -408,7 +487,7 @@ def table_editor(name: str, column_config: dict, *, help_text: str = "") -> pd.D
         inputs[base] = (generation,
                         pd.DataFrame(inputs.get(case.table_key(name))).reset_index(drop=True))
     edited = st.data_editor(inputs[base][1], key=editor, num_rows="dynamic", hide_index=True,
-                            column_config=column_config, width="stretch")
+                            column_config=column_config, width="stretch", on_change=entered)
     inputs[case.table_key(name)] = edited
     if help_text:
         st.caption(help_text)
@@ -682,6 +761,13 @@ def uncertainty_results(study: str, slots: Slots, limit_rows, units: str,
         table(view["inputs"])
 
 
+def _chart_height(data: pd.DataFrame, color: str | None, lines) -> int:
+    """Height of a chart [px]: the plot itself plus room for every legend entry."""
+    entries = (data[color].nunique() if color and color in data else 0) + len(list(lines))
+    titles = (1 if color else 0) + (1 if lines else 0)
+    return 280 + 21 * entries + 24 * titles
+
+
 def cumulative_chart(data: pd.DataFrame, *, lines=(), log_x: bool = False) -> None:
     """Cumulative distribution curves with the limits as labelled vertical dashed lines."""
     x_enc = {"field": "ppm", "type": "quantitative", "title": "concentration [ppm]"}
@@ -692,28 +778,38 @@ def cumulative_chart(data: pd.DataFrame, *, lines=(), log_x: bool = False) -> No
                       "title": "fraction of samples at or below",
                       "scale": {"domain": [0, 1]}},
                 "color": {"field": "series", "type": "nominal", "title": None,
-                          "legend": {"orient": "right", "labelLimit": 160}},
+                          "legend": LEGEND},
                 "strokeDash": {"field": "series", "type": "nominal", "legend": None},
                 "tooltip": [{"field": "series", "type": "nominal"},
-                            {"field": "ppm", "type": "quantitative", "format": ".4g"},
-                            {"field": "fraction", "type": "quantitative", "format": ".3f"}]}
+                            {"field": "ppm", "type": "quantitative", "format": ",.3~r"},
+                            {"field": "fraction", "type": "quantitative", "format": ",.3~r"}]}
     layers = [{"mark": {"type": "line", "strokeWidth": 2}, "encoding": encoding}]
     if lines:
         layers.append({"data": {"values": [dict(v) for v in lines]},
-                       "mark": {"type": "rule", "strokeDash": [6, 4], "strokeWidth": 1.5},
+                       "mark": {"type": "text", "align": "right", "baseline": "bottom",
+                                "dx": -4, "dy": -3, "angle": 270, "fontSize": 11,
+                                "color": "#3a1c1c"},
                        "encoding": {"x": {"field": "ppm", "type": "quantitative"},
+                                    "y": {"value": 4}, "text": {"field": "limit"}}})
+        layers.append({"data": {"values": [dict(v) for v in lines]},
+                       "mark": {"type": "rule", "strokeWidth": 1.5},
+                       "encoding": {"x": {"field": "ppm", "type": "quantitative"},
+                                    "strokeDash": {"field": "limit", "type": "nominal",
+                                                   "scale": {"range": LIMIT_DASHES},
+                                                   "title": "limits (dashed)",
+                                                   "legend": LIMIT_LEGEND},
                                     "color": {"field": "limit", "type": "nominal",
                                               "title": "limits (dashed)",
                                               "scale": {"range": LIMIT_COLOURS},
-                                              "legend": {"orient": "right",
-                                                         "labelLimit": 160}},
+                                              "legend": LIMIT_LEGEND},
                                     "tooltip": [{"field": "limit", "type": "nominal"},
                                                 {"field": "ppm", "type": "quantitative",
-                                                 "format": ".4g"}]}})
+                                                 "format": ",.3~r"}]}})
     spec = {"layer": layers,
             "resolve": {"scale": {"color": "independent", "strokeDash": "independent"},
                         "legend": {"color": "independent"}}}
-    st.vega_lite_chart(data, spec, width="stretch", height=320)
+    st.vega_lite_chart(data, spec, width="stretch",
+                     height=_chart_height(data, "series", lines))
 
 
 def show_uncertainty(view: dict) -> None:
@@ -725,6 +821,9 @@ def show_uncertainty(view: dict) -> None:
             column.metric(label, value)
     st.markdown("**Percentiles over the samples**")
     table(view["percentiles"])
+    if len(view.get("low_percentiles", ())):
+        st.markdown("**Oxygen: its low percentiles** (the hazard is too little oxygen)")
+        table(view["low_percentiles"])
     st.markdown("**Probability of exceeding each limit and alarm**")
     table(view["exceedance"])
     if view["driver_text"]:
@@ -772,6 +871,17 @@ def show_notes(view: dict) -> None:
         st.caption("Assumptions: " + "; ".join(view["assumptions"]) + ".")
 
 
+#: Legends below the plot, one entry a line, never cut short.
+LEGEND = {"orient": "bottom", "direction": "vertical", "labelLimit": 0}
+#: The limit lines' legend above the plot (colour and dash pattern together), so
+#: that the two legends never sit side by side and run out of width.
+LIMIT_LEGEND = {"orient": "top", "direction": "vertical", "labelLimit": 0,
+                "symbolType": "stroke", "symbolStrokeWidth": 2}
+
+#: Dash patterns of limit lines, one per limit, so that they differ by more than
+#: colour (each is also labelled in place).
+LIMIT_DASHES = [[6, 4], [2, 3], [10, 3, 2, 3], [12, 4], [4, 2, 1, 2], [1, 4], [8, 2, 2, 2]]
+
 #: Colours of limit lines: dark, warm and clearly apart from the data lines.
 LIMIT_COLOURS = ["#7a1f1f", "#a65e00", "#5b3a73", "#375a7f", "#5e5e5e", "#8c4a2f", "#2f5d50"]
 
@@ -787,33 +897,45 @@ def chart(data: pd.DataFrame, *, x: str, x_title: str, y: str, y_title: str,
     if log_y:
         y_enc["scale"] = {"type": "log"}
     encoding = {"x": x_enc, "y": y_enc,
-                "tooltip": [{"field": x, "type": "quantitative", "format": ".4g"},
-                            {"field": y, "type": "quantitative", "format": ".4g"}]}
+                "tooltip": [{"field": x, "type": "quantitative", "format": ",.3~r"},
+                            {"field": y, "type": "quantitative", "format": ",.3~r"}]}
     if color:
         encoding["color"] = {"field": color, "type": "nominal", "title": None,
-                             "legend": {"orient": "right", "labelLimit": 160}}
+                             "legend": LEGEND}
         encoding["strokeDash"] = {"field": color, "type": "nominal", "legend": None}
         encoding["tooltip"].append({"field": color, "type": "nominal"})
     layers = [{"mark": {"type": "line", "strokeWidth": 2}, "encoding": encoding}]
     if lines:
         values = [dict(v) for v in lines]
         layers.append({"data": {"values": values},
-                       "mark": {"type": "rule", "strokeDash": [6, 4], "strokeWidth": 1.5},
+                       "mark": {"type": "text", "align": "left", "dx": 4, "dy": -6,
+                                "fontSize": 11, "color": "#3a1c1c"},
                        "encoding": {"y": {"field": line_field, "type": "quantitative"},
+                                    "x": {"value": 0}, "text": {"field": "limit"}}})
+        layers.append({"data": {"values": values},
+                       "mark": {"type": "rule", "strokeWidth": 1.5},
+                       "encoding": {"y": {"field": line_field, "type": "quantitative"},
+                                    "strokeDash": {"field": "limit", "type": "nominal",
+                                                   "scale": {"range": LIMIT_DASHES},
+                                                   "title": "limits (dashed)",
+                                                   "legend": LIMIT_LEGEND},
                                     "color": {"field": "limit", "type": "nominal",
                                               "title": "limits (dashed)",
                                               "scale": {"range": LIMIT_COLOURS},
-                                              "legend": {"orient": "right",
-                                                         "labelLimit": 160}},
+                                              "legend": LIMIT_LEGEND},
                                     "tooltip": [{"field": "limit", "type": "nominal"}]}})
     if marker is not None:
-        layers.append({"data": {"values": [{x: marker}]},
-                       "mark": {"type": "rule", "color": "#555555", "strokeDash": [2, 3]},
-                       "encoding": {"x": {"field": x, "type": "quantitative"}}})
+        # the marker's place travels with the data, not the spec: a new stated value
+        # then updates the chart in place instead of drawing it anew
+        data = data.assign(_marker=float(marker))
+        layers.append({"mark": {"type": "rule", "color": "#555555", "strokeDash": [2, 3]},
+                       "encoding": {"x": {"field": "_marker", "type": "quantitative",
+                                          "aggregate": "max"}}})
     spec = {"layer": layers,
             "resolve": {"scale": {"color": "independent", "strokeDash": "independent"},
                         "legend": {"color": "independent"}}}
-    st.vega_lite_chart(data, spec, width="stretch", height=320)
+    st.vega_lite_chart(data, spec, width="stretch",
+                     height=_chart_height(data, color, lines))
 
 
 def downloads(toml_text: str | None, stem: str) -> None:
@@ -832,18 +954,21 @@ def downloads(toml_text: str | None, stem: str) -> None:
                       key=f"dl:{stem}:csv")
 
 
-def study_tail(state, kind: str, slots, limit_rows, units, results, view_function, show,
-               caption: str) -> None:
-    """The result column, the uncertainty section and the downloads of a study page.
+def study_page(kind: str, draw_inputs, view_function, show, caption: str) -> None:
+    """The body of a study page: inputs and result in a fragment of their own, then
+    the uncertainty section.
+
+    A change to an input above reruns only the inputs and the result (the sidebar,
+    cautions and the Monte Carlo are left as they are), unless the change also
+    touches what the samples use (the liquid, the pressure, the limits): then the
+    whole page runs again. The Monte Carlo itself is cached on its own inputs.
 
     Parameters
     ----------
-    state, slots, limit_rows, units
-        As the page holds them.
     kind : str
         "tank" or "indoor".
-    results : streamlit container
-        The page's result column.
+    draw_inputs : callable
+        Slots -> the accepted limit rows; draws the page's inputs.
     view_function : callable
         Scenario text and units -> the view dict the page's `show` draws.
     show : callable
@@ -851,26 +976,10 @@ def study_tail(state, kind: str, slots, limit_rows, units, results, view_functio
     caption : str
         What the uncertainty section does, in plain words.
     """
-    from estimator.scenario import dumps_scenario
-
-    from ullage_ui import case
-
-    view = None
-    download_place = None
-    with results:
-        st.subheader("Result")
-        slots.add("general")
-        doc, problems = case.study_document(state, kind, limits=limit_rows)
-        if problems:
-            slots.problems("liquid", problems)
-        else:
-            view = view_function(dumps_scenario(doc), units)
-            if view["error"]:
-                slots.show(view["error"])
-            else:
-                show(view)
-                download_place = st.container()
-
+    st.session_state["page.full_run"] = True
+    st.fragment(_study_main)(kind, draw_inputs, view_function, show)
+    limit_rows = accepted_limits()[0]
+    slots = Slots()
     st.divider()
     st.header("Uncertainty", anchor="uncertainty")
     st.caption(caption)
@@ -879,10 +988,55 @@ def study_tail(state, kind: str, slots, limit_rows, units, results, view_functio
         uncertainty_inputs(kind, slots)
         sampled_place = st.container()
     with range_results:
-        uncertainty_results(kind, slots, limit_rows, units,
-                            stated_ok=download_place is not None, side=sampled_place)
+        slots.add("general")
+        uncertainty_results(kind, slots, limit_rows, case.system(store()),
+                            stated_ok=bool(st.session_state.get(f"result.ok.{kind}")),
+                            side=sampled_place)
+    st.session_state[f"mc.drawn.{kind}"] = _samples_key(kind, limit_rows)
+    st.session_state["page.full_run"] = False
 
-    if download_place is not None:
-        with download_place:
-            report_doc, _ = case.study_document(state, kind, limits=limit_rows, uncertain=True)
-            downloads(dumps_scenario(report_doc), _slug(view["name"]))
+
+def _samples_key(kind: str, limit_rows) -> tuple:
+    """What the page's uncertainty section depends on (see `study_page`)."""
+    from estimator.scenario import dumps_scenario
+
+    inputs = store()
+    doc = case.monte_carlo_document(inputs, kind, limits=limit_rows)
+    return (None if doc is None else dumps_scenario(doc),
+            bool(st.session_state.get(f"result.ok.{kind}")),
+            case.uncertainty_unavailable(inputs, kind))
+
+
+def _study_main(kind: str, draw_inputs, view_function, show) -> None:
+    """The inputs and the result of a study page, with the downloads."""
+    from estimator.scenario import dumps_scenario
+
+    state = store()
+    units = case.system(state)
+    slots = Slots()
+    inputs, results = st.columns([2, 3], gap="large")
+    with inputs:
+        limit_rows = draw_inputs(slots)
+    view = None
+    with results:
+        st.subheader("Result")
+        slots.add("general")
+        doc, problems = case.view_document(state, kind, limits=limit_rows)
+        if problems:
+            slots.problems("liquid", problems)
+        else:
+            view = view_function(dumps_scenario(doc), units)
+            for error in view.get("field_errors", ()):
+                slots.show(error)
+            if view["error"]:
+                slots.show(view["error"])
+                view = None
+            else:
+                show(view)
+                report_doc, _ = case.study_document(state, kind, limits=limit_rows,
+                                                    uncertain=True)
+                downloads(dumps_scenario(report_doc), _slug(view["name"]))
+    st.session_state[f"result.ok.{kind}"] = view is not None
+    if (not st.session_state.get("page.full_run")
+            and _samples_key(kind, limit_rows) != st.session_state.get(f"mc.drawn.{kind}")):
+        st.rerun()  # the change touches the samples too: run the whole page

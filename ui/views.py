@@ -21,7 +21,7 @@ import pandas as pd
 import streamlit as st
 
 from estimator.errors import UllageError
-from estimator.limits import format_ppm, format_ratio
+from estimator.limits import format_number, format_ppm, format_ratio
 from estimator.units import convert
 
 from ullage_ui.case import UNITS, unit_label
@@ -60,6 +60,143 @@ _CORE_FIELDS = {
     "wind speed": "weather", "stability": "weather", "terrain": "weather",
     "distance": "receptors", "LFL alarm": "alarms", "oxygen bounds": "alarms",
 }
+
+
+#: Screen labels of scenario fields: (section, key) -> the label the page shows.
+FIELD_LABELS = {
+    ("tank", "name"): "Tank", ("tank", "liquid"): "Liquid",
+    ("tank", "temperature"): "Liquid temperature",
+    ("tank", "worst_temperature"): "Worst-case temperature",
+    ("tank", "volume"): "Tank volume", ("tank", "fill"): "Liquid level",
+    ("tank", "gauge_pressure"): "Gauge pressure",
+    ("tank", "daily_low"): "Daily low liquid temperature",
+    ("tank", "daily_high"): "Daily high liquid temperature",
+    ("tank", "pumped_volume"): "Volume pumped in", ("tank", "purge_rate"): "Purge air flow",
+    ("tank", "purge_mixing_factor"): "Purge mixing factor",
+    ("tank", "purge_target"): "Purge target",
+    ("tank", "residual_area"): "Area of liquid left in the tank",
+    ("spill", "name"): "Spill", ("spill", "liquid"): "Liquid",
+    ("spill", "temperature"): "Liquid and air temperature",
+    ("spill", "volume"): "Spilled volume", ("spill", "mass"): "Spilled mass",
+    ("spill", "area"): "Pool area", ("spill", "dike_area"): "Dike or bund floor",
+    ("spill", "depth"): "Pool depth", ("spill", "duration"): "Time modelled",
+    ("spill", "cleanup_after"): "Pool removed at", ("spill", "model"): "Evaporation model",
+    ("room", "name"): "Room", ("room", "volume"): "Room volume",
+    ("room", "air_changes"): "Air changes", ("room", "ventilation_rate"): "Ventilation rate",
+    ("room", "mixing_factor"): "Mixing factor", ("room", "air_speed"): "Air speed over the pool",
+    ("room", "near_field_radius"): "Near-field radius",
+    ("room", "random_air_speed"): "Random air speed near the source",
+    ("outdoors", "wind_speed"): "Wind speed", ("outdoors", "wind_height"):
+        "Wind measured at height", ("outdoors", "insolation"): "Incoming sunshine",
+    ("outdoors", "cloud_cover"): "Cloud cover", ("outdoors", "stability"):
+        "Pasquill stability class", ("outdoors", "terrain"): "Terrain",
+    ("outdoors", "receptors"): "Downwind distances",
+    ("conditions", "elevation"): "Site elevation",
+    ("conditions", "barometric_pressure"): "Barometric pressure",
+    ("alarms", "percent_lfl"): "Flammable vapour alarm [% of LFL]",
+    ("alarms", "oxygen_low"): "Oxygen low", ("alarms", "oxygen_high"): "Oxygen high",
+    ("substance", "molar_mass"): "Molar mass", ("substance", "boiling_point"):
+        "Normal boiling point", ("substance", "vapor_pressure"): "Vapour pressure",
+    ("substance", "lower_flammability_limit"): "LFL", ("substance",
+                                                        "upper_flammability_limit"): "UFL",
+    ("substance", "liquid_density"): "Liquid density", ("substance", "flash_point"):
+        "Flash point",
+    ("limit", "substance"): "Exposure limits: substance", ("limit", "source"):
+        "Exposure limits: source",
+}
+
+#: Scenario keys -> screen labels (the first section that has the key wins).
+_KEY_LABELS = {}
+for (_section, _key), _label in FIELD_LABELS.items():
+    _KEY_LABELS.setdefault(_key, _label)
+_KEY_LABELS["worst_temperature"] = "Worst-case temperature"
+
+#: Core argument names as people know them.
+_CORE_LABELS = {"wind_speed": "Wind speed", "pressure": "Pressure in the vapour space",
+                "residual_area": "Area of liquid left in the tank"}
+
+
+def field_label(field: str) -> str:
+    """An error's field as the page labels it: "[[tank]] #1 volume (line 21)" ->
+    "Tank volume"; never a TOML path or an internal key ("" when the page's block
+    name says it better)."""
+    text = re.sub(r"\s*\(line \d+\)", "", str(field or "")).strip()
+    match = _SCENARIO_FIELD.match(text)
+    if match:
+        section, _, name = match.groups()
+        if name is None:
+            return {"tank": "Tank", "spill": "Spill", "room": "Room", "liquid": "Liquid",
+                    "substance": "Own substance", "limit": "Exposure limits",
+                    "outdoors": "Weather", "conditions": "Site pressure",
+                    "alarms": "Alarm levels"}.get(section, section.replace("_", " "))
+        return FIELD_LABELS.get((section, name), name.replace("_", " ").capitalize())
+    return _CORE_LABELS.get(text, "")
+
+
+#: Method ids of the core in words.
+METHOD_WORDS = {"mackay-matsugu": "Mackay–Matsugu", "epa-rmp": "US EPA RMP",
+                "well-mixed": "well-mixed room", "two-zone": "two-zone"}
+
+#: Phrases of core messages that point at an input this page does not have.
+_PAGE_PHRASES = {
+    "; give residual_area for the liquid left in it":
+        " (a scenario file can give the area of liquid left in the tank)",
+}
+
+
+def plain_words(text: str, names: dict | None = None) -> str:
+    """A core message as the page says it: substance keys as their names, input keys
+    as their screen labels, method ids in words; never an internal key."""
+    out = str(text)
+    for phrase, words in _PAGE_PHRASES.items():
+        out = out.replace(phrase, words)
+    for key_, name in sorted((names or {}).items(), key=lambda kv: -len(kv[0])):
+        if key_ and key_ != name:
+            out = re.sub(rf"(?<![\w-]){re.escape(key_)}(?![\w-])", name, out)
+    for method, words in METHOD_WORDS.items():
+        out = re.sub(rf"(?<![\w-]){re.escape(method)}(?![\w-])", words, out)
+
+    def label(match):
+        word = match.group(0)
+        found = _KEY_LABELS.get(word)
+        return found.lower() if found else word.replace("_", " ")
+
+    return re.sub(r"\b[a-z]+(?:_[a-z]+)+\b", label, out)
+
+
+def _plain_view(view: dict, names: dict) -> dict:
+    """Every text of a view in plain words (see `plain_words`)."""
+    for field in ("findings", "warnings", "assumptions"):
+        if view.get(field):
+            view[field] = [plain_words(t, names) for t in view[field]]
+    if isinstance(view.get("model"), str):
+        view["model"] = plain_words(view["model"], names)
+    for field in ("limit_lines", "lines"):
+        for line in view.get(field) or []:
+            line["limit"] = plain_words(line["limit"], names)
+    for field in ("comparisons", "worst_comparisons", "metrics", "distances", "exceedance"):
+        frame = view.get(field)
+        if isinstance(frame, pd.DataFrame) and len(frame):
+            for column in ("substance", "limit", "limit or alarm"):
+                if column in frame:
+                    frame[column] = [plain_words(v, names) for v in frame[column]]
+    return view
+
+
+def _names(scenario) -> dict:
+    """Substance key -> name, for every substance a scenario's texts may name."""
+    names = {c.key: c.name for c in _components(scenario)}
+    for sub in scenario.substances:
+        names[sub.key] = sub.name
+    for lim in scenario.limits:
+        if lim.substance not in names:
+            try:
+                from estimator.substances import substance
+
+                names[lim.substance] = substance(lim.substance).name
+            except Exception:  # a key that no longer resolves: shown as stored
+                pass
+    return names
 
 
 def area_of(field: str) -> str:
@@ -124,10 +261,10 @@ def _temperature_text(kelvin: float | None, units: str) -> str:
     return f"{_display(kelvin, 'temperature', units):.1f} {unit_label('temperature', units)}"
 
 
-def _quantity_text(value, kind: str, units: str, digits: str = ".3g") -> str:
+def _quantity_text(value, kind: str, units: str, digits: int = 3) -> str:
     if value is None:
         return "-"
-    return f"{_display(value, kind, units):{digits}} {unit_label(kind, units)}"
+    return f"{format_number(_display(value, kind, units), digits)} {unit_label(kind, units)}"
 
 
 def _minutes(seconds) -> str:
@@ -137,7 +274,7 @@ def _minutes(seconds) -> str:
 
 
 def _uncertainty_text(value) -> str:
-    return "not validated" if value is None else f"±{100.0 * value:.2g} % (95 % of checks)"
+    return "not validated" if value is None else f"±{format_number(100.0 * value, 2)} % (95 % of checks)"
 
 
 def _thin(n: int, cap: int = PLOT_POINTS) -> np.ndarray:
@@ -170,12 +307,12 @@ def _headspace_summary(hs, units: str) -> dict:
     for i, c in enumerate(comps):
         rows.append({
             "component": c.name,
-            "mole fraction in liquid": f"{x[i]:.3g}",
+            "mole fraction in liquid": f"{format_number(x[i])}",
             f"vapour pressure [{plabel}]": ("-" if not np.isfinite(p_sat[i]) else
-                                             f"{_display(p_sat[i], 'vapour_pressure', units):.3g}"),
-            f"partial pressure [{plabel}]": f"{_display(p_i[i], 'vapour_pressure', units):.3g}",
+                                             f"{format_number(_display(p_sat[i], 'vapour_pressure', units))}"),
+            f"partial pressure [{plabel}]": f"{format_number(_display(p_i[i], 'vapour_pressure', units))}",
             "headspace [ppm]": format_ppm(y[i] * 1e6),
-            "headspace [mg/m³]": f"{mg[i]:.3g}",
+            "headspace [mg/m³]": f"{format_number(mg[i])}",
         })
     methods = []
     for i, est in enumerate(hs.vapor_pressure_methods):
@@ -186,17 +323,17 @@ def _headspace_summary(hs, units: str) -> dict:
     return {
         "total_ppm": float(hs.total_ppm),
         "total_ppm_text": _ppm(hs.total_ppm),
-        "total_mg_text": f"{float(hs.total_mg_per_m3):.3g} mg/m³",
+        "total_mg_text": f"{format_number(float(hs.total_mg_per_m3))} mg/m³",
         "percent_lfl": float(hs.percent_lfl),
-        "percent_lfl_text": f"{float(hs.percent_lfl):.3g} %",
-        "oxygen_text": f"{float(hs.oxygen_percent):.3g} %",
+        "percent_lfl_text": f"{format_number(float(hs.percent_lfl))} %",
+        "oxygen_text": f"{format_number(float(hs.oxygen_percent))} %",
         "flammability": state,
         "flammability_words": str(hs.flammability_words),
         "components": pd.DataFrame(rows),
         "methods": pd.DataFrame(methods),
         "uncertainty": _uncertainty_text(hs.relative_uncertainty),
         "activity": hs.liquid.activity_source,
-        "pressure_text": _quantity_text(hs.pressure, "barometric", units, ".4g"),
+        "pressure_text": _quantity_text(hs.pressure, "barometric", units, 4),
         "warnings": list(hs.warnings),
     }
 
@@ -205,7 +342,7 @@ def _comparison_rows(comparisons) -> pd.DataFrame:
     rows = []
     for c in comparisons:
         lim = c.limit
-        rows.append({"substance": lim.substance, "limit": f"{lim.kind} {lim.value:g} {lim.unit}",
+        rows.append({"substance": lim.substance, "limit": f"{lim.kind} {format_number(lim.value, 6)} {lim.unit}",
                      "headspace": _ppm(c.concentration * 1e6),
                      "against the limit": f"{format_ratio(c.ratio)} the limit",
                      "ratio": float(c.ratio), "source": lim.source})
@@ -213,9 +350,51 @@ def _comparison_rows(comparisons) -> pd.DataFrame:
                                        "ratio", "source"])
 
 
+#: Tank inputs whose results stand apart from the headspace: a bad one is left out
+#: (with the inputs that only work with it) and the rest is still computed.
+_SEPARABLE = {
+    "volume": ("volume", "fill", "pumped_volume", "purge_rate", "purge_target",
+               "purge_mixing_factor", "residual_area"),
+    "fill": ("fill",), "worst_temperature": ("worst_temperature",),
+    "daily_low": ("daily_low", "daily_high"), "daily_high": ("daily_low", "daily_high"),
+    "pumped_volume": ("pumped_volume",),
+    "purge_rate": ("purge_rate", "purge_target", "purge_mixing_factor", "residual_area"),
+    "purge_target": ("purge_target",), "purge_mixing_factor": ("purge_mixing_factor",),
+    "residual_area": ("residual_area",), "sweep_from": ("sweep_from", "sweep_to"),
+    "sweep_to": ("sweep_from", "sweep_to"),
+}
+
+
 @st.cache_data(max_entries=64, show_spinner=False)
 def tank_view(toml_text: str, units: str) -> dict:
-    """Screen the tank of a one-tank scenario; plain values for the tank page."""
+    """Screen the tank of a one-tank scenario; plain values for the tank page.
+
+    An input that fails alone (a negative tank volume, a bad purge flow) is left out
+    and reported in ``field_errors``; the results that do not depend on it are kept.
+    """
+    import tomllib
+
+    from estimator.scenario import dumps_scenario
+
+    field_errors = []
+    text = toml_text
+    for _ in range(len(_SEPARABLE)):
+        view = _tank_view(text, units)
+        error = view["error"]
+        match = _SCENARIO_FIELD.match(str(error["field"])) if error else None
+        if not match or match.group(1) != "tank" or match.group(3) not in _SEPARABLE:
+            break
+        doc = tomllib.loads(text)
+        for name in _SEPARABLE[match.group(3)]:
+            doc["tank"][0].pop(name, None)
+        field_errors.append(dict(error, reason=error["reason"] + "; the results that depend "
+                                 "on it are left out until it is corrected"))
+        text = dumps_scenario(doc)
+    view["field_errors"] = field_errors
+    return view
+
+
+def _tank_view(toml_text: str, units: str) -> dict:
     from estimator.screening import screen_tank
 
     try:
@@ -282,7 +461,7 @@ def tank_view(toml_text: str, units: str) -> dict:
     view["limit_lines"] = _limit_lines(scenario.limits)
     view["temperature_unit"] = unit_label("temperature", units)
     view["stated_temperature"] = float(_display(result.temperature, "temperature", units))
-    return view
+    return _plain_view(view, _names(scenario))
 
 
 # ----------------------------------------------------------------------- spills
@@ -319,7 +498,7 @@ def _exposure_tables(spill) -> tuple[pd.DataFrame, pd.DataFrame]:
 
 def _rates_text(spill) -> str:
     names = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
-    parts = [f"{names.get(m, m)} {1000.0 * r:.3g} g/s" for m, r in spill.initial_rates.items()]
+    parts = [f"{names.get(m, m)} {format_number(1000.0 * r)} g/s" for m, r in spill.initial_rates.items()]
     return ", ".join(parts)
 
 
@@ -352,7 +531,7 @@ def indoor_view(toml_text: str, units: str) -> dict:
         pool = f"cleaned up at {_minutes(run.source_removed_time)}"
     else:
         pool = "still there at the end of the run"
-    return {
+    return _plain_view({
         "error": None, "name": spill.name, "where": spill.where,
         "peak_text": _ppm(first.peak) if first else "-",
         "peak_zone": first.zone if first else "",
@@ -362,13 +541,13 @@ def indoor_view(toml_text: str, units: str) -> dict:
         "pool_text": pool,
         "pool_area_text": _quantity_text(run.pool_area, "area", units),
         "model": run.model, "rates_text": _rates_text(spill),
-        "mass_balance_text": f"{100.0 * run.mass_balance_error:.2g} %",
+        "mass_balance_text": f"{format_number(100.0 * run.mass_balance_error, 2)} %",
         "series": pd.concat(frames, ignore_index=True),
         "metrics": metrics, "comparisons": comparisons,
         "limit_lines": _limit_lines(scenario.limits, {c.key for c in _components(scenario)}),
         "findings": list(spill.findings), "warnings": list(spill.warnings),
         "assumptions": list(scenario.assumptions),
-    }
+    }, _names(scenario))
 
 
 def _components(scenario):
@@ -421,25 +600,25 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
     def reach_text(d, flags):
         if d is None:
             return "never (below it at the pool edge)"
-        return _quantity_text(d, "length", units, ",.0f") + (
+        return _quantity_text(d, "length", units) + (
             f" ({'; '.join(flags)})" if flags else "")
     rows = []
     for r in receptors:
         i = int(np.argmin(np.abs(distance - r)))
-        row = {f"distance [{unit_label('length', units)}]": f"{r:g}"}
+        row = {f"distance [{unit_label('length', units)}]": format_number(r, 6)}
         for j, name in enumerate(run.components):
             row[name] = _ppm(ppm[i, j])
         rows.append(row)
     distances = [{"limit": label,
                   "centreline above it out to": ("beyond the farthest distance computed"
                                                  if d is None else "stays below it" if d == 0
-                                                 else _quantity_text(d, "length", units, ",.0f")),
+                                                 else _quantity_text(d, "length", units)),
                   "note": note} for label, d, note in spill.distances]
-    return {
+    return _plain_view({
         "error": None, "name": spill.name,
-        "source_text": f"{1000.0 * float(np.sum(run.emission_rate)):.3g} g/s",
+        "source_text": f"{format_number(1000.0 * float(np.sum(run.emission_rate)))} g/s",
         "stability": run.stability, "terrain": run.terrain,
-        "wind_text": _quantity_text(run.wind_speed, "wind", units, ".2g"),
+        "wind_text": _quantity_text(run.wind_speed, "wind", units, 2),
         "rates_text": _rates_text(spill),
         "series": pd.concat(frames, ignore_index=True),
         "receptors": pd.DataFrame(rows), "distances": pd.DataFrame(distances),
@@ -457,10 +636,10 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
         "dense_statement": None if run.dense_gas is None else run.dense_gas.statement,
         "cap_text": (None if run.capped_until is None else
                      "Near the pool, out to "
-                     + _quantity_text(run.capped_until, "length", units, ",.0f")
+                     + _quantity_text(run.capped_until, "length", units)
                      + ", the centreline is capped at the saturated vapour concentration "
                      "over the pool (the most the pool can give)."),
-    }
+    }, _names(scenario))
 
 
 def _keys(scenario):
@@ -483,9 +662,9 @@ _INPUT_WORDS = {"temperature": "temperature", "pool_area": "pool area", "area": 
 
 #: Outputs shown with their percentiles: model -> (output, words, how to format).
 _PERCENTILE_OUTPUTS = {
-    "headspace": (("total_ppm", "headspace, all vapour", "ppm"),
+    "headspace": (("total_ppm", "total vapour in the headspace", "ppm"),
                   ("percent_lfl", "flammable vapour (% of LFL)", "percent"),
-                  ("oxygen_percent", "oxygen left", "percent")),
+                  ("oxygen_percent", "oxygen after displacement", "percent")),
     "indoor spill": (("twa_ppm", "8-h TWA (room)", "ppm"),
                      ("short_term_ppm", "highest 15-min average (room)", "ppm"),
                      ("peak_ppm", "peak (room)", "ppm"),
@@ -496,6 +675,11 @@ _PERCENTILE_OUTPUTS = {
 #: The output whose spread the page explains, per model, and its name in a sentence.
 _KEY_OUTPUT = {"headspace": "total_ppm", "indoor spill": "twa_ppm"}
 _KEY_WORDS = {"headspace": "total headspace concentration", "indoor spill": "8-h TWA in the room"}
+
+
+#: Column heads of percentiles.
+_PERCENTILE_WORDS = {1: "1st percentile", 5: "5th percentile", 50: "median",
+                     90: "90th percentile", 95: "95th percentile", 99: "99th percentile"}
 
 
 def input_words(name: str) -> str:
@@ -512,15 +696,15 @@ def _statistic_text(value: float, how: str) -> str:
     if how == "ppm":
         return _ppm(value)
     if how == "percent":
-        return f"{value:.3g} %"
+        return f"{format_number(value)} %"
     if how == "minutes":
         return _minutes(value)
-    return f"{1000.0 * value:.3g} g/s"
+    return f"{format_number(1000.0 * value)} g/s"
 
 
 def probability_text(probability: float) -> str:
     """A probability as the pages and the report show it (3 significant figures, in %)."""
-    return f"{100.0 * float(probability):.3g} %"
+    return f"{format_number(100.0 * float(probability))} %"
 
 
 def distribution_text(dist, kind: str | None, units: str) -> str:
@@ -529,15 +713,15 @@ def distribution_text(dist, kind: str | None, units: str) -> str:
 
     def value(v):
         if kind is None:
-            return f"{v:.4g}"
-        return f"{_display(v, kind, units):.4g} {unit_label(kind, units)}"
+            return f"{format_number(v)}"
+        return f"{format_number(_display(v, kind, units))} {unit_label(kind, units)}"
 
     def spread(v):
         if kind is None:
-            return f"{v:.4g}"
+            return f"{format_number(v)}"
         if kind == "temperature":
-            return (f"{convert(v, 'delta_degC', 'delta_degF'):.4g} °F" if units == "US"
-                    else f"{v:.4g} K")
+            return (f"{format_number(convert(v, 'delta_degC', 'delta_degF'))} °F" if units == "US"
+                    else f"{format_number(v)} K")
         return value(v)
 
     if isinstance(dist, Uniform):
@@ -547,7 +731,7 @@ def distribution_text(dist, kind: str | None, units: str) -> str:
                 f"{value(dist.mode)}")
     if isinstance(dist, LogNormal):
         return (f"lognormal, geometric mean {value(dist.geometric_mean)}, geometric SD "
-                f"{dist.geometric_sd:.4g}")
+                f"{format_number(dist.geometric_sd)}")
     if isinstance(dist, Normal):
         text = f"normal, mean {value(dist.mean)}, SD {spread(dist.sd)}"
         bounds = [f"{w} {value(b)}" for w, b in (("above", dist.low), ("below", dist.high))
@@ -605,14 +789,19 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
     for name, text in mc.inputs.items():
         if name.startswith("vapor_pressure_factor"):
             rows.append({"input": input_words(name), "distribution": text})
-    stats = []
+    stats, low = [], []
     for output, words, how in _PERCENTILE_OUTPUTS[mc.model]:
         if output not in mc.percentiles:
             continue
         table = mc.percentiles[output]
         row = {"output": words}
+        if output == "oxygen_percent":  # the hazard is low oxygen: its low percentiles
+            for q in (1, 5, 50):
+                row[_PERCENTILE_WORDS[q]] = _statistic_text(table[q], how)
+            low.append(row)
+            continue
         for q in (50, 90, 95, 99):
-            row["median" if q == 50 else f"{q}th percentile"] = _statistic_text(table[q], how)
+            row[_PERCENTILE_WORDS[q]] = _statistic_text(table[q], how)
         stats.append(row)
     names = ({c.key: c.name for c in item.headspace.liquid.components}
              if mc.model == "headspace" else None)
@@ -626,7 +815,8 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
         shown.add(line["label"])
     for label, probability in mc.exceedance.items():
         if label not in shown:
-            compared = "oxygen left" if label.startswith("oxygen") else "flammable vapour"
+            compared = ("oxygen after displacement" if label.startswith("oxygen")
+                        else "flammable vapour")
             exceedance.append({"limit or alarm": label, "compared with": compared,
                                "probability of exceeding": probability_text(probability)})
     key_output = _KEY_OUTPUT[mc.model]
@@ -650,11 +840,15 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
     key_percentiles = [(f"95th percentile, {words}", _statistic_text(
         mc.percentiles[output][95], how)) for output, words, how in _PERCENTILE_OUTPUTS[mc.model]
         if how == "ppm" and output in mc.percentiles and output != "short_term_ppm"]
-    return {
+    if "oxygen_percent" in mc.percentiles:
+        key_percentiles.append(("5th percentile, oxygen after displacement", _statistic_text(
+            mc.percentiles["oxygen_percent"][5], "percent")))
+    return _plain_view({
         "error": None, "model": mc.model, "n": mc.n, "seed": mc.seed,
         "n_text": f"{mc.n:,} samples, seed {mc.seed}",
         "inputs": pd.DataFrame(rows, columns=["input", "distribution"]),
         "percentiles": pd.DataFrame(stats),
+        "low_percentiles": pd.DataFrame(low),
         "key_percentiles": key_percentiles,
         "exceedance": pd.DataFrame(exceedance, columns=["limit or alarm", "compared with",
                                                         "probability of exceeding"]),
@@ -665,7 +859,7 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
         "log_x": bool(log_x),
         "warnings": list(mc.warnings) + [w for w in item.warnings if "probabilistic" in w
                                          and w not in mc.warnings],
-    }
+    }, _names(scenario))
 
 
 # --------------------------------------------------------------------- checks
@@ -706,6 +900,18 @@ def reports_available() -> bool:
 
 # -------------------------------------------------------------------- inventory
 
+def readable(frame: pd.DataFrame) -> pd.DataFrame:
+    """A table for reading: every decimal number with three significant figures and
+    thousands separators, blanks for missing values (the CSV download keeps the
+    full precision)."""
+    out = frame.copy()
+    for column in out.columns:
+        if pd.api.types.is_float_dtype(out[column]):
+            out[column] = [("" if not np.isfinite(v) else format_number(v))
+                           for v in out[column].to_numpy(dtype=float)]
+    return out
+
+
 @st.cache_data(max_entries=8, show_spinner=False)
 def inventory_view(data: bytes, filename: str, pressure: float | None,
                    elevation: float | None, alarms: tuple) -> dict:
@@ -738,6 +944,7 @@ def inventory_view(data: bytes, filename: str, pressure: float | None,
     errors = table[table["status"] == "error"]
     return {"error": None, "rows": summary.rows, "counts": dict(summary.counts),
             "at_or_above": summary.at_or_above_alarm, "liquids": summary.liquids,
-            "worst": summary.worst.reset_index(drop=True), "table": table.reset_index(drop=True),
+            "worst": readable(summary.worst.reset_index(drop=True)),
+            "table": readable(table.reset_index(drop=True)),
             "errors": list(errors["reason"].astype(str)), "warnings": list(result.warnings),
-            "csv": csv_text, "pressure_text": f"{result.pressure / 1000.0:.4g} kPa"}
+            "csv": csv_text, "pressure_text": f"{format_number(result.pressure / 1000.0)} kPa"}

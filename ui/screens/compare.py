@@ -6,6 +6,7 @@ import copy
 import streamlit as st
 
 from estimator.scenario import dumps_scenario
+from estimator.limits import format_number
 from ullage_ui import case, shared, views
 from ullage_ui.case import key, system
 
@@ -117,7 +118,15 @@ def _flat(value, path=()):
 
 
 def _words(path) -> str:
-    return " ".join(str(p).replace("_", " ") for p in path if not isinstance(p, int))
+    names = [str(p) for p in path if not isinstance(p, int)]
+    if len(names) == 2 and tuple(names) in views.FIELD_LABELS:
+        return views.FIELD_LABELS[tuple(names)].lower()
+    return " ".join(n.replace("_", " ") for n in names)
+
+
+#: Units as scenario text writes them -> as the pages show them.
+_UNIT_WORDS = {"degC": "°C", "degF": "°F", "m3/h": "m³/h", "m3": "m³", "m2": "m²",
+               "ft3/min": "ft³/min", "ft3": "ft³", "ft2": "ft²"}
 
 
 def _value(v) -> str:
@@ -125,6 +134,15 @@ def _value(v) -> str:
         return "not given"
     if isinstance(v, list):
         return ", ".join(_value(x) for x in v)
+    if isinstance(v, float):
+        return format_number(v, 6)
+    words = str(v).split(" ")
+    if len(words) == 2:
+        try:
+            number = format_number(float(words[0]), 6)
+        except ValueError:
+            number = words[0]
+        return f"{number} {_UNIT_WORDS.get(words[1], words[1])}"
     return str(v)
 
 
@@ -146,7 +164,7 @@ def _times(a: float, b: float) -> str:
     ratio = b / a
     if abs(ratio - 1.0) < 0.005:
         return "about the same"
-    return f"{ratio:.3g} times A"
+    return f"{format_number(ratio)} times A"
 
 
 def _max_ratio(frame) -> float | None:
@@ -177,7 +195,7 @@ def result_words(va: dict, vb: dict) -> list[str]:
         out.append(f"Pool: {va['pool_text']} in A; {vb['pool_text']} in B.")
         ra, rb = _max_ratio(va["comparisons"]), _max_ratio(vb["comparisons"])
     else:
-        out.append(f"Source strength: {va['source_text']} in A, {vb['source_text']} in B; "
+        out.append(f"Release rate to air: {va['source_text']} in A, {vb['source_text']} in B; "
                    f"stability class {va['stability']} in A, {vb['stability']} in B.")
         for (_, ra_row), (_, rb_row) in zip(va["distances"].iterrows(),
                                             vb["distances"].iterrows()):
@@ -186,7 +204,7 @@ def result_words(va: dict, vb: dict) -> list[str]:
                        f"{rb_row['centreline above it out to']} in B.")
         ra = rb = None
     if ra is not None and rb is not None:
-        out.append(f"Highest ratio to a limit: {ra:.3g} in A, {rb:.3g} in B.")
+        out.append(f"Highest ratio to a limit: {format_number(ra)} in A, {format_number(rb)} in B.")
     return out
 
 
@@ -199,7 +217,7 @@ def column(view: dict, label: str) -> None:
         return
     if study == "tank":
         now = view["now"]
-        st.metric("Headspace, all vapour", now["total_ppm_text"])
+        st.metric("Total vapour in the headspace", now["total_ppm_text"])
         st.metric("Flammable vapour [% of LFL]", now["percent_lfl_text"])
         st.markdown(f"**Flammability:** {now['flammability_words']}.")
         table = view["comparisons"]
@@ -208,7 +226,7 @@ def column(view: dict, label: str) -> None:
         st.metric("8-h TWA", view["twa_text"])
         table = view["comparisons"]
     else:
-        st.metric("Source strength", view["source_text"])
+        st.metric("Release rate to air", view["source_text"])
         st.metric("Stability class", view["stability"])
         table = view["distances"]
     if table is not None and len(table):

@@ -4,6 +4,7 @@ every page compares with."""
 import streamlit as st
 
 from estimator.errors import UllageError
+from estimator.limits import format_number
 from ullage_ui import case, shared
 from ullage_ui.case import key
 
@@ -53,7 +54,7 @@ def _check_site() -> None:
         slots.show({"field": getattr(exc, "field", ""), "reason": getattr(exc, "reason", str(exc)),
                     "area": "site"})
         return
-    st.caption(f"Pressure used: {pressure / 1000.0:.4g} kPa (barometric; a tank's gauge "
+    st.caption(f"Pressure used: {format_number(pressure / 1000.0)} kPa (barometric; a tank's gauge "
                "pressure is added on the tank page).")
 
 

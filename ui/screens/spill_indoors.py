@@ -3,19 +3,18 @@
 import streamlit as st
 
 from ullage_ui import shared, views
-from ullage_ui.case import system
 
 MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
 
-slots = shared.setup_page(
+shared.setup_page(
     "Spill indoors", "indoor",
     "A pool evaporating into a room, coupled to the room air: the concentration over time "
     "in the room, or near the pool and in the rest of the room (two-zone model).")
 state = shared.store()
-units = system(state)
-inputs, results = st.columns([2, 3], gap="large")
 
-with inputs:
+
+def draw_inputs(slots):
+    """The page's inputs; returns the limit rows in use."""
     st.subheader("Spill and liquid")
     shared.text_box("Spill", "indoor.name")
     shared.liquid_block("indoor", slots)
@@ -49,16 +48,17 @@ with inputs:
     a, b = st.columns(2)
     shared.quantity("Near-field radius", "room.near_field_radius", optional=True, container=a,
                     help="Give both near-field boxes for the two-zone model.")
-    shared.quantity("Air speed between zones", "room.random_air_speed", optional=True,
+    shared.quantity("Random air speed near the source", "room.random_air_speed", optional=True,
                     container=b)
     slots.add("room")
     st.caption("Not sure of the temperature, amount, mixing factor or air speed? Give them "
                "as ranges under [Uncertainty](#uncertainty) below.")
     a, b = st.columns(2)
-    shared.quantity("Run length", "indoor.duration", container=a)
-    shared.quantity("Clean-up after", "indoor.cleanup", optional=True, container=b)
+    shared.quantity("Time modelled", "indoor.duration", container=a)
+    shared.quantity("Pool removed at", "indoor.cleanup", optional=True, container=b,
+                    help="When the pool is cleaned up or covered; empty: it stays until dry.")
     slots.add("time")
-    limit_rows = shared.limits_summary(slots)
+    return shared.limits_summary(slots)
 
 
 def show(view: dict) -> None:
@@ -93,5 +93,4 @@ UNCERTAINTY_CAPTION = (
     "well-mixed room (no near field); the pool area stays that of the stated amount."
 )
 
-shared.study_tail(state, "indoor", slots, limit_rows, units, results, views.indoor_view, show,
-                  UNCERTAINTY_CAPTION)
+shared.study_page("indoor", draw_inputs, views.indoor_view, show, UNCERTAINTY_CAPTION)

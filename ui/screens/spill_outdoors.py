@@ -37,12 +37,12 @@ with inputs:
     st.subheader("Weather")
     a, b = st.columns(2)
     shared.quantity("Wind speed", "weather.wind", container=a)
-    shared.quantity("measured at height", "weather.wind_height", container=b)
+    shared.quantity("Wind measured at height", "weather.wind_height", container=b)
     sky = shared.choice("Sky", "weather.sky", list(case.SKY), format_func=case.SKY.get,
                         horizontal=True)
     a, b = st.columns(2)
     if sky == "day":
-        shared.choice("Sunshine", "weather.insolation", INSOLATION, container=a,
+        shared.choice("Incoming sunshine", "weather.insolation", INSOLATION, container=a,
                       horizontal=True)
     elif sky == "night":
         shared.number("Cloud cover [oktas, 0-8]", "weather.cloud", container=a)
@@ -53,7 +53,8 @@ with inputs:
                   horizontal=True)
     slots.add("weather")
     length = case.unit_label("length", units)
-    shared.text_box(f"Downwind distances [{length}], separated by commas", "weather.receptors")
+    shared.text_box("Downwind distances, each with its unit, separated by commas",
+                    "weather.receptors", placeholder=f"e.g. 100 {length}, 300 {length}")
     slots.add("receptors")
     limit_rows = shared.limits_summary(slots)
 
@@ -61,7 +62,7 @@ with inputs:
 def show(view: dict) -> None:
     st.subheader(view["name"])
     a, b, c = st.columns(3)
-    a.metric("Source strength", view["source_text"], help="initial evaporation rate")
+    a.metric("Release rate to air", view["source_text"], help="initial evaporation rate")
     b.metric("Stability class", view["stability"])
     c.metric("Wind at 10 m", view["wind_text"])
     if view["flammable"]:
@@ -71,8 +72,10 @@ def show(view: dict) -> None:
         b.metric(view["alarm_label"], view["alarm_text"].split(" (")[0],
                  help=view["alarm_text"])
         if view["dense_text"]:
-            c.metric("Britter-McQuaid criterion", view["dense_text"],
-                     help=view["dense_statement"])
+            value, _, verdict = view["dense_text"].partition(" (")
+            c.metric("Britter-McQuaid criterion", value, help=view["dense_statement"])
+            c.caption("density effects matter: a dense-gas model is needed"
+                      if verdict.startswith("dense") else "passive dispersion")
         for text in (view["lfl_text"], view["alarm_text"]):
             if " (" in text:
                 st.caption(text)
@@ -102,11 +105,11 @@ with results:
     slots.add("general")
     try:
         asked = case.receptor_values(state)
-    except ValueError:
+    except ValueError as exc:
         asked = None
-        slots.show({"field": "downwind distances", "area": "receptors",
-                    "reason": f"'{state.get(case.key('weather.receptors'))}' is not a list "
-                              "of numbers"})
+        reason = getattr(exc, "reason", None) or (
+            f"'{state.get(case.key('weather.receptors'))}' is not a list of distances")
+        slots.show({"field": "", "area": "receptors", "reason": reason})
     if asked is not None:
         grid = [case.to_display(x, "length", units) for x in np.geomspace(100.0, 10000.0, 33)]
         everything = sorted(set(asked) | set(grid))

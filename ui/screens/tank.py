@@ -2,18 +2,19 @@
 
 import streamlit as st
 
+from estimator.limits import format_number
 from ullage_ui import shared, views
-from ullage_ui.case import system
+from ullage_ui.case import key
 
-slots = shared.setup_page(
+shared.setup_page(
     "Tank headspace", "tank",
     "The equilibrium vapour space over the liquid in a closed tank: what the air in it "
     "holds after long standing, the worst case for a closed space.")
 state = shared.store()
-units = system(state)
-inputs, results = st.columns([2, 3], gap="large")
 
-with inputs:
+
+def draw_inputs(slots):
+    """The page's inputs; returns the limit rows in use."""
     st.subheader("Tank and liquid")
     shared.text_box("Tank", "tank.name")
     shared.liquid_block("tank", slots, allow_water=True)
@@ -23,6 +24,10 @@ with inputs:
                     help="The hottest the liquid gets (sun, process heat); leave empty to "
                          "screen only the stated temperature.")
     slots.add("temperature")
+    stated, worst_case = state.get(key("tank.temperature")), state.get(key("tank.worst"))
+    if stated is not None and worst_case is not None and worst_case < stated:
+        st.warning("**Worst-case temperature** is below the liquid temperature: the liquid "
+                   "temperature is used as the worst case. Check both.")
     st.caption("Not sure of the liquid temperature? Give it as a range under "
                "[Uncertainty](#uncertainty) below.")
     a, b, c = st.columns(3)
@@ -46,17 +51,20 @@ with inputs:
         shared.quantity("Purge target", "tank.purge_target", optional=True, container=b,
                         help="Empty: the % LFL alarm level.")
     slots.add("details")
-    limit_rows = shared.limits_summary(slots)
+    return shared.limits_summary(slots)
 
 
 def show(view: dict) -> None:
     now = view["now"]
     st.subheader(f"{view['name']}: {view['liquid']} at {view['temperature_text']}")
     a, b, c = st.columns([1.4, 1, 1])
-    a.metric("Headspace, all vapour", now["total_ppm_text"], help=now["total_mg_text"])
+    a.metric("Total vapour in the headspace", now["total_ppm_text"],
+             help=now["total_mg_text"])
     b.metric("Flammable vapour [% of LFL]", now["percent_lfl_text"],
              help=f"Alarm level {view['alarm_percent']:g} % of the LFL ({view['alarm_source']})")
-    c.metric("Oxygen left", now["oxygen_text"])
+    c.metric("Oxygen after displacement", now["oxygen_text"])
+    st.caption("LFL (LEL): the lower flammability limit, also called the lower explosive "
+               "limit; % of LFL is what a combustible-gas meter reads.")
     st.markdown(f"**Flammability:** {now['flammability_words']}.  \n"
                 f"**Concentration:** {now['total_ppm_text']} = {now['total_mg_text']} at "
                 f"{now['pressure_text']}.")
@@ -73,7 +81,7 @@ def show(view: dict) -> None:
             table["worst case"] = list(view["worst_comparisons"]["against the limit"])
         shared.table(table)
         if view["additive_index"] is not None:
-            st.caption(f"Mixture exposure index Σ C/TWA = {view['additive_index']:.3g} "
+            st.caption(f"Mixture exposure index Σ C/TWA = {format_number(view['additive_index'])} "
                        "(above 1: the mixture exceeds; for substances acting on the same "
                        "organs).")
     else:
@@ -96,8 +104,12 @@ def show(view: dict) -> None:
         lfl_lines = [{"percent_lfl": view["alarm_percent"],
                       "limit": f"alarm {view['alarm_percent']:g} % LFL"},
                      {"percent_lfl": 100.0, "limit": "LFL"}]
+        highest = float(view["sweep_lfl"]["percent_lfl"].max())
+        # a logarithmic axis once the curve runs far above the alarm, so the alarm
+        # and LFL lines stay clear of the axis
         shared.chart(view["sweep_lfl"], x="temperature", x_title=f"liquid temperature [{unit}]",
                      y="percent_lfl", y_title="flammable vapour [% of LFL]", color=None,
+                     log_y=highest > 5.0 * view["alarm_percent"],
                      lines=lfl_lines, line_field="percent_lfl",
                      marker=view["stated_temperature"])
     st.markdown(f"**Method.** Raoult's law with {now['activity']}; vapour pressure by the "
@@ -115,5 +127,4 @@ UNCERTAINTY_CAPTION = (
     "of the headspace and the probability of exceeding each limit and alarm."
 )
 
-shared.study_tail(state, "tank", slots, limit_rows, units, results, views.tank_view, show,
-                  UNCERTAINTY_CAPTION)
+shared.study_page("tank", draw_inputs, views.tank_view, show, UNCERTAINTY_CAPTION)
