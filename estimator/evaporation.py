@@ -1237,7 +1237,7 @@ def _component_conductances(subs, t, area, wind, model, pressure):
     return p_sat, per_pascal, notes
 
 
-def _bubble_check(x, gamma, p_sat, pressure, notes):
+def bubble_check(x, gamma, p_sat, pressure, notes):
     """Refuse a boiling mixture; note one close to boiling."""
     bubble = float(np.sum(x * gamma * p_sat))
     notes += _validity_notes("the mixture (Raoult's law)", bubble, pressure, np.inf)
@@ -1249,8 +1249,9 @@ def _bubble_check(x, gamma, p_sat, pressure, notes):
     return bubble
 
 
-def _mixture_inputs(components, temperature, area, wind_speed, model, pressure,
-                    partial_pressures_air):
+def mixture_inputs(components, temperature, area, wind_speed, model, pressure,
+                   partial_pressures_air):
+    """Checked inputs of a mixture pool, shared by the weathering and spill models."""
     _check_model(model)
     subs = _components(components)
     t = _scalar(_positive(temperature, "temperature", "K"), "temperature")
@@ -1302,7 +1303,7 @@ def mixture_evaporation_rates(components, mole_fractions, temperature, area, win
     numpy.ndarray
         Evaporation rate of each component. [kg/s]
     """
-    subs, t, a, u, p, p_air, p_sat, per_pascal, notes = _mixture_inputs(
+    subs, t, a, u, p, p_air, p_sat, per_pascal, notes = mixture_inputs(
         components, temperature, area, wind_speed, model, pressure, partial_pressures_air)
     x = _non_negative(mole_fractions, "mole_fractions", "").ravel()
     if x.size != len(subs):
@@ -1315,7 +1316,7 @@ def mixture_evaporation_rates(components, mole_fractions, temperature, area, win
     x = x / total
     gamma_of, _ = _gamma_function(activity_coefficients, len(subs))
     gamma = gamma_of(x)
-    _bubble_check(x, gamma, p_sat, p, notes)
+    bubble_check(x, gamma, p_sat, p, notes)
     for note in dict.fromkeys(notes):
         warnings.warn(note, UllageWarning, stacklevel=2)
     return per_pascal * np.clip(x * gamma * p_sat - p_air, 0.0, None)
@@ -1381,7 +1382,7 @@ class MixturePool:
         return self.evaporation_rate.sum(axis=1)
 
 
-class _Budget:
+class StepBudget:
     """Counts right-hand-side calls and stops a runaway integration."""
 
     def __init__(self, max_evaluations: int, time_limit: float):
@@ -1473,7 +1474,7 @@ def mixture_pool(components, initial_amounts, temperature, area, wind_speed,
     if amount_basis not in ("mass", "moles"):
         raise ValueError(f"unknown amount_basis {amount_basis!r}; expected one of "
                          "['mass', 'moles']")
-    subs, t, a, u, p, p_air, p_sat, per_pascal, notes = _mixture_inputs(
+    subs, t, a, u, p, p_air, p_sat, per_pascal, notes = mixture_inputs(
         components, temperature, area, wind_speed, model, pressure, partial_pressures_air)
     n_comp = len(subs)
     molar_mass = np.array([s.molar_mass for s in subs])
@@ -1492,7 +1493,7 @@ def mixture_pool(components, initial_amounts, temperature, area, wind_speed,
     if gamma0.shape != (n_comp,) or np.any(~np.isfinite(gamma0)) or np.any(gamma0 <= 0):
         raise InputError("activity_coefficients", "must give one positive, finite "
                          "activity coefficient per component")
-    _bubble_check(x0, gamma0, p_sat, p, notes)
+    bubble_check(x0, gamma0, p_sat, p, notes)
     no_drive = (x0 * gamma0 * p_sat <= p_air) & (n0 > 0)
     for i in np.flatnonzero(no_drive):
         notes.append(f"{subs[i].name}: its partial pressure in the air is at or above its "
@@ -1519,7 +1520,7 @@ def mixture_pool(components, initial_amounts, temperature, area, wind_speed,
 
     molar_per_pascal = per_pascal / molar_mass  # mol/(s Pa)
     surface = p_sat.copy()
-    budget = _Budget(int(max_evaluations), float(time_limit))
+    budget = StepBudget(int(max_evaluations), float(time_limit))
 
     def drive(n):
         """Driving force [Pa] for amounts n of shape (n_comp,) or (n_comp, m)."""
@@ -1841,7 +1842,7 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
         if t_out[-1] > t_end or t_end <= 0.0:
             raise InputError("times", "output times must lie within (0, t_end]")
 
-    budget = _Budget(int(max_evaluations), float(time_limit))
+    budget = StepBudget(int(max_evaluations), float(time_limit))
 
     # state in s = sqrt(t): T, m, ground, air, solar, latent, carried sensible [J]
     def rhs(s, y):

@@ -116,20 +116,19 @@ from types import MappingProxyType
 import numpy as np
 import pandas as pd
 
-from . import CAUTIONS
+from ._meta import CAUTIONS
+from .checks import ELEVATION_RANGE, check_pressure, pressures_inside
 from .constants import (
-    BAR,
     FOOT,
     GAS_CONSTANT,
     OXYGEN_IN_AIR,
-    POUND_MASS,
+    PRESSURE_UNITS,
     STANDARD_ATMOSPHERE,
-    STANDARD_GRAVITY,
     ZERO_CELSIUS,
 )
 from .errors import InputError, UllageWarning
 from .files import atomic_writer, neutralise_arrow, neutralise_cell
-from .headspace import _check_pressure, barometric_pressure, le_chatelier
+from .headspace import barometric_pressure, le_chatelier
 from .limits import FlammabilityAlarms
 from .mixtures import Liquid, liquid as make_liquid
 from .vapor import METHODS, method_uncertainty
@@ -195,22 +194,14 @@ PROBLEMS = {
     6: "the pressure is not an absolute pressure between 1 kPa and 10 MPa",
 }
 
-#: Absolute vapour-space pressures accepted per row, as `estimator.headspace.headspace`
-#: accepts them. [Pa]
-_PRESSURE_RANGE = (1e3, 1e7)
-#: Site elevations accepted, those of the standard troposphere. [m]
-_ELEVATION_RANGE = (-500.0, 11000.0)
-
 _TEMPERATURE_SCALES = {"c": "degC", "f": "degF", "k": "K"}
 _TEMPERATURE_WORDS = {
     "c": "c", "degc": "c", "celsius": "c", "degreesc": "c", "degreescelsius": "c",
     "f": "f", "degf": "f", "fahrenheit": "f", "degreesf": "f", "degreesfahrenheit": "f",
     "k": "k", "kelvin": "k", "kelvins": "k",
 }
-#: Pound-force per square inch. [Pa] Derived from the exact pound, foot and standard
-#: gravity (NIST SP 811, Appendix B): 0.45359237 kg x 9.80665 m/s2 / (FOOT / 12)^2.
-_PSI = POUND_MASS * STANDARD_GRAVITY / (FOOT / 12.0) ** 2
-_PRESSURE_FACTORS = {"pa": 1.0, "kpa": 1e3, "bar": BAR, "psia": _PSI}
+_PRESSURE_FACTORS = {"pa": PRESSURE_UNITS["Pa"], "kpa": PRESSURE_UNITS["kPa"],
+                     "bar": PRESSURE_UNITS["bar"], "psia": PRESSURE_UNITS["psi"]}
 _PRESSURE_LABELS = {"pa": "Pa", "kpa": "kPa", "bar": "bar", "psia": "psia"}
 _ELEVATION_FACTORS = {"m": 1.0, "ft": FOOT}
 _LIMIT_KINDS = ("twa", "stel", "ceiling")
@@ -618,9 +609,7 @@ def headspace_arrays(liquids, temperatures, pressure=STANDARD_ATMOSPHERE, *,
     scalar_pressure = np.ndim(pressure) == 0
     p_sorted = float(pressure) if scalar_pressure else p[order]
     problem = np.zeros(m, dtype=np.int8)
-    with np.errstate(invalid="ignore"):
-        inside = ((np.asarray(p_sorted) >= _PRESSURE_RANGE[0])
-                  & (np.asarray(p_sorted) <= _PRESSURE_RANGE[1]))
+    inside = pressures_inside(p_sorted)
     problem[np.broadcast_to(~inside, t.shape)] = 6
     problem[:edges[0]] = 5  # rows without a usable liquid sort first
     out = {name: np.full(m, np.nan) for name in
@@ -1559,7 +1548,7 @@ def screen_inventory(source, pressure=STANDARD_ATMOSPHERE, alarms=FlammabilityAl
                              "not both")
         file_pressure = float(barometric_pressure(float(elevation)))
     else:
-        file_pressure = _check_pressure(pressure)
+        file_pressure = check_pressure(pressure)
     columns = _resolve_columns(frame)
     table, n_liquids, row_notes = _screen(frame, columns, file_pressure, alarms)
     notes = list(columns.notes) + row_notes
@@ -1739,8 +1728,7 @@ def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) 
                                                         _PRESSURE_LABELS[unit])
         issues.error(bad, label, texts)
         pascal = values * _PRESSURE_FACTORS[unit]
-        with np.errstate(invalid="ignore"):
-            inside = (pascal >= _PRESSURE_RANGE[0]) & (pascal <= _PRESSURE_RANGE[1])
+        inside = pressures_inside(pascal)
         rows = np.flatnonzero(np.isfinite(pascal) & ~inside)
         issues.error(rows, label, _format_each(values[rows], "g")
                      + f" {_PRESSURE_LABELS[unit]} is not an absolute pressure between 1 kPa "
@@ -1759,7 +1747,7 @@ def _read_pressures(frame, roles, units, file_pressure: float, issues: _Issues) 
         issues.error(bad, label, texts)
         metres = values * _ELEVATION_FACTORS[unit]
         with np.errstate(invalid="ignore"):
-            inside = (metres >= _ELEVATION_RANGE[0]) & (metres <= _ELEVATION_RANGE[1])
+            inside = (metres >= ELEVATION_RANGE[0]) & (metres <= ELEVATION_RANGE[1])
         rows = np.flatnonzero(np.isfinite(metres) & ~inside)
         issues.error(rows, label, _format_each(values[rows], "g")
                      + f" {unit} is outside -500 to 11000 m above sea level")

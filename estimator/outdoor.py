@@ -133,7 +133,8 @@ BRITTER_MCQUAID_CONTINUOUS = 0.15
 
 # --------------------------------------------------------------------- helpers
 
-def _terrain(terrain):
+def terrain_key(terrain):
+    """The key of `TERRAINS` a terrain text stands for (refused with the allowed ones)."""
     key = str(terrain).strip().lower()
     if key not in TERRAINS:
         raise InputError("terrain", f"unknown terrain {terrain!r}; allowed: "
@@ -141,7 +142,7 @@ def _terrain(terrain):
     return TERRAINS[key]
 
 
-def _classes(stability):
+def pasquill_classes(stability):
     """The one or two Pasquill classes a stability string stands for."""
     key = str(stability).strip().upper().replace("\u2013", "-").replace(" ", "")
     if key in STABILITY_CLASSES:
@@ -186,7 +187,12 @@ def _sigmas(x, classes, terrain):
     return sy / len(classes), sz / len(classes)
 
 
-def _centerline(rate, u, x, classes, terrain):
+def centerline_concentration(rate, u, x, classes, terrain):
+    """Ground-level centreline concentration of a ground source, inputs already checked.
+
+    ``classes`` from `pasquill_classes`, ``terrain`` from `terrain_key`; rate [kg/s],
+    u [m/s], x [m]; the result in kg/m3 (the body of `ground_level_centerline`).
+    """
     sy, sz = _sigmas(x, classes, terrain)
     return rate / (math.pi * u * sy * sz)
 
@@ -345,8 +351,8 @@ def briggs_sigmas(distance, stability, terrain="open") -> DispersionCoefficients
     (76.28, 37.95)
     """
     x = _positive_array("distance", distance, "m", " (downwind of the source)")
-    classes = _classes(stability)
-    land = _terrain(terrain)
+    classes = pasquill_classes(stability)
+    land = terrain_key(terrain)
     note = _out_of_range_note(x)
     if note:
         warnings.warn(note, UllageWarning, stacklevel=2)
@@ -400,12 +406,12 @@ def ground_level_centerline(emission_rate, wind_speed, distance, stability, terr
     u = _positive_array("wind_speed", wind_speed, "m/s", "; calm conditions are outside "
                         "the Gaussian plume model")
     x = _positive_array("distance", distance, "m", " (downwind of the source)")
-    classes = _classes(stability)
-    land = _terrain(terrain)
+    classes = pasquill_classes(stability)
+    land = terrain_key(terrain)
     note = _out_of_range_note(x)
     if note:
         warnings.warn(note, UllageWarning, stacklevel=2)
-    c = _centerline(rate, u, x, classes, land)
+    c = centerline_concentration(rate, u, x, classes, land)
     return float(c) if c.ndim == 0 else c
 
 
@@ -482,17 +488,17 @@ def distance_to_concentration(emission_rate, wind_speed, concentration, stabilit
     far = float(_positive_array("max_distance", max_distance, "m"))
     if far <= near:
         raise InputError("max_distance", f"must be beyond min_distance ({near:g} m)")
-    classes = _classes(stability)
-    land = _terrain(terrain)
+    classes = pasquill_classes(stability)
+    land = terrain_key(terrain)
 
     def log_excess(log_x):
-        return math.log(_centerline(rate, u, np.exp(log_x), classes, land) / target)
+        return math.log(centerline_concentration(rate, u, np.exp(log_x), classes, land) / target)
 
-    if rate == 0.0 or _centerline(rate, u, near, classes, land) <= target:
+    if rate == 0.0 or centerline_concentration(rate, u, near, classes, land) <= target:
         return EndpointDistance(0.0, False, f"the centreline is at or below the endpoint "
                                 f"from {near:g} m on; it is exceeded, if at all, only "
                                 "closer to the source")
-    if _centerline(rate, u, far, classes, land) > target:
+    if centerline_concentration(rate, u, far, classes, land) > target:
         return EndpointDistance(None, False, f"the centreline is still above the endpoint "
                                 f"at {far:g} m, the farthest distance searched",
                                 (f"the endpoint lies beyond {far:g} m, outside the range "
@@ -545,8 +551,8 @@ def wind_speed_at_height(speed, height, reference_height=10.0, stability="D",
     u = _positive_array("speed", speed, "m/s")
     z = _positive_array("height", height, "m")
     z_ref = float(_positive_array("reference_height", reference_height, "m"))
-    classes = _classes(stability)
-    land = _terrain(terrain)
+    classes = pasquill_classes(stability)
+    land = terrain_key(terrain)
     exponent = sum(WIND_PROFILE_EXPONENTS[land][c] for c in classes) / len(classes)
     result = u * (z / z_ref) ** exponent
     return float(result) if result.ndim == 0 else result

@@ -36,10 +36,11 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from types import MappingProxyType
 
-from . import __version__
+from ._meta import __version__
 from .constants import STANDARD_ATMOSPHERE
 from .errors import InputError, UnknownSubstanceError
 from .substances import Substance
+from .toml_text import toml_key, toml_value
 from .units import parse_quantity, parse_temperature
 
 __all__ = [
@@ -50,6 +51,7 @@ __all__ = [
     "loads_scenario",
     "dumps_scenario",
     "save_scenario",
+    "build_liquid",
     "MAX_SCENARIO_BYTES",
 ]
 
@@ -196,6 +198,11 @@ class Scenario:
             if sub.name.lower() == str(name).strip().lower():
                 return sub
         return substance(name, field)
+
+    def liquid(self, name: str):
+        """The model-ready `Liquid` of the scenario's liquid called ``name`` (None
+        for water with dissolved substances)."""
+        return build_liquid(self.liquids[name])
 
 
 def _line_of(text: str, section: str, index: int | None, key: str | None) -> int | None:
@@ -511,7 +518,7 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
                 resolve("liquid", i, "activity_coefficients", k): g for k, g in gammas.items()}
             entry["activity_source"] = v.get("activity_source", "user-entered")
         try:
-            _build_liquid(entry)
+            build_liquid(entry)
         except InputError as exc:
             raise ScenarioError(r.where("liquid", i, "components"), exc.reason) from None
         liquids[name] = entry
@@ -624,10 +631,10 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
             r.fail("outdoors", None, "daytime", "give the stability class, or daytime = true/false "
                    "with the insolation (day) or cloud_cover in oktas (night)")
         if "stability" in outdoors:
-            from .outdoor import _classes
+            from .outdoor import pasquill_classes
 
             try:
-                _classes(outdoors["stability"])
+                pasquill_classes(outdoors["stability"])
             except InputError as exc:
                 r.fail("outdoors", None, "stability", exc.reason)
         else:
@@ -732,8 +739,9 @@ def _split_limit(raw, where):
     return float(match.group(1)), match.group(2)
 
 
-def _build_liquid(entry):
-    """The model-ready liquid of a scenario liquid entry."""
+def build_liquid(entry):
+    """The model-ready liquid of a scenario liquid entry (None for water with
+    dissolved substances, which `estimator.headspace.water_headspace` takes)."""
     from .mixtures import liquid
 
     if entry["kind"] == "water":
@@ -761,29 +769,6 @@ def load_scenario(path) -> Scenario:
     return loads_scenario(text, str(p), base_dir=p.resolve().parent)
 
 
-def _toml_value(value) -> str:
-    if isinstance(value, bool):
-        return "true" if value else "false"
-    if isinstance(value, (int, float)):
-        if isinstance(value, float) and not math.isfinite(value):
-            raise ValueError("cannot write a non-finite number to a scenario")
-        return repr(value)
-    if isinstance(value, str):
-        escaped = (value.replace("\\", "\\\\").replace('"', '\\"').replace("\n", "\\n")
-                   .replace("\t", "\\t").replace("\r", "\\r"))
-        return f'"{escaped}"'
-    if isinstance(value, list):
-        return "[" + ", ".join(_toml_value(v) for v in value) + "]"
-    if isinstance(value, dict):
-        return "{ " + ", ".join(f"{_toml_key(k)} = {_toml_value(v)}"
-                                for k, v in value.items()) + " }"
-    raise ValueError(f"cannot write {type(value).__name__} to a scenario")
-
-
-def _toml_key(key: str) -> str:
-    return key if re.fullmatch(r"[A-Za-z0-9_-]+", key) else _toml_value(key)
-
-
 def dumps_scenario(document) -> str:
     """Write a scenario document as TOML, recording the ullage version.
 
@@ -806,13 +791,13 @@ def dumps_scenario(document) -> str:
         for item in items:
             out.append(f"[{section}]" if section in _TABLES else f"[[{section}]]")
             for key, v in item.items():
-                out.append(f"{_toml_key(key)} = {_toml_value(v)}")
+                out.append(f"{toml_key(key)} = {toml_value(v)}")
             out.append("")
     return "\n".join(out)
 
 
 def save_scenario(document, path) -> None:
     """Write a scenario file atomically (temporary file, then rename)."""
-    from .report import write_text_atomic
+    from .files import write_text_atomic
 
     write_text_atomic(path, dumps_scenario(document))

@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from . import CAUTIONS, __version__
+from ._meta import CAUTIONS, __version__
 from .errors import InputError, UllageError
 from .headspace import (
     AboveAtLowestTemperature,
@@ -32,7 +32,7 @@ from .limits import (
     flammability_findings,
     vapor_hazard_ratio,
 )
-from .scenario import Scenario, _build_liquid
+from .scenario import Scenario, build_liquid
 
 __all__ = [
     "TankResult",
@@ -309,7 +309,7 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
                 hs = water_headspace({s.key: c for s, c in entry["spec"].items()},
                                      temperature, pressure)
             else:
-                hs = headspace(_build_liquid(entry), temperature, pressure)
+                hs = headspace(build_liquid(entry), temperature, pressure)
         notes.extend(str(w.message) for w in caught)
         return hs
 
@@ -561,7 +561,7 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
     from .spill import indoor_spill, outdoor_spill
 
     entry = scenario.liquids[spill["liquid"]]
-    liq = _build_liquid(entry)
+    liq = build_liquid(entry)
     t = spill["temperature"]
     pressure = scenario.pressure
     notes: list[str] = []

@@ -413,27 +413,27 @@ class SdsReading:
     def to_toml(self, name: str | None = None, *, point: str = "mid",
                 unidentified="inert") -> str:
         """The ``[[liquid]]`` block of a scenario file, with the ranges."""
-        from .scenario import _toml_key, _toml_value
+        from .toml_text import toml_key, toml_value
 
         label = name or self.product or "liquid from safety data sheet"
         lines = [f"# Read from {self.source} by ullage: check every line against the sheet.",
-                 "[[liquid]]", f"name = {_toml_value(label)}",
-                 f"basis = {_toml_value(self.basis)}", f"point = {_toml_value(point)}"]
+                 "[[liquid]]", f"name = {toml_value(label)}",
+                 f"basis = {toml_value(self.basis)}", f"point = {toml_value(point)}"]
         ranges = {}
         for item in self.components:
             ranges[item.cas] = [f"{100 * item.low:.6g} %", f"{100 * item.high:.6g} %"]
         if ranges:
-            lines.append("ranges = " + _toml_value(ranges))
+            lines.append("ranges = " + toml_value(ranges))
         unlisted = {}
         for item in self.unidentified:
             label_u = item.name if item.name not in unlisted else f"{item.name} ({item.cas})"
             unlisted[label_u] = [f"{100 * item.low:.6g} %", f"{100 * item.high:.6g} %"]
         if unlisted:
-            lines.append("unlisted = " + _toml_value(unlisted))
+            lines.append("unlisted = " + toml_value(unlisted))
         treat = unidentified if isinstance(unidentified, str) else unidentified.name
-        lines.append(f"unidentified_as = {_toml_value(treat)}")
+        lines.append(f"unidentified_as = {toml_value(treat)}")
         for item in self.components:
-            lines.append(f"# {_toml_key(item.cas)}: {item.name}")
+            lines.append(f"# {toml_key(item.cas)}: {item.name}")
         return "\n".join(lines) + "\n"
 
     def summary(self) -> str:
@@ -1311,10 +1311,10 @@ class _Model:
         return w / w.sum()
 
     def _coefficients(self, temperature, pressure, limits, limit_kind):
-        from .headspace import _check_pressure
+        from .checks import check_pressure
         from .vapor import vapor_pressure_estimate
 
-        p_total = _check_pressure(pressure)
+        p_total = check_pressure(pressure)
         p_sat = np.array([float(vapor_pressure_estimate(s, temperature).pressure)
                           for s in self.substances])
         keyed = {}

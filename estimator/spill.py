@@ -21,9 +21,9 @@ from .errors import InputError
 from .evaporation import (
     DEPLETED_FRACTION,
     EvaporationSolverError,
-    _bubble_check,
-    _Budget,
-    _mixture_inputs,
+    bubble_check,
+    StepBudget,
+    mixture_inputs,
     spill_pool_area,
 )
 from .mixtures import liquid as make_liquid
@@ -237,14 +237,14 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
 
     subs = liq.components
     names = tuple(c.name for c in subs)
-    _, _, _, _, p, _, p_sat, per_pascal, notes = _mixture_inputs(
+    _, _, _, _, p, _, p_sat, per_pascal, notes = mixture_inputs(
         subs, t_k, pool_area, air_speed, model, pressure, None)
     notes = list(liq.warnings) + notes
     n_comp = len(subs)
     molar = liq.molar_masses
     x0 = liq.mole_fractions
     gamma = liq.activity_coefficients
-    _bubble_check(x0, gamma, p_sat, p, notes)
+    bubble_check(x0, gamma, p_sat, p, notes)
     n0 = mass * liq.mass_fractions / molar
     to_pressure = GAS_CONSTANT * t_k / molar
     surface = gamma * p_sat
@@ -253,7 +253,7 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
         q_eff = 0.0
         notes.append("the ventilation rate changes less than a billionth of the room air "
                      "over the run: treated as a closed room")
-    budget = _Budget(400_000, float(time_limit))
+    budget = StepBudget(400_000, float(time_limit))
     v_ff = v_room - v_nf if two_zone else v_room
 
     floor = DEPLETED_FRACTION * n0.sum()
@@ -439,11 +439,11 @@ class OutdoorSpill:
 
     def centreline(self, distances) -> np.ndarray:
         """Capped centreline volume fractions, shape (distances, components). [-]"""
-        from .outdoor import _centerline, _classes, _terrain
+        from .outdoor import centerline_concentration, pasquill_classes, terrain_key
 
         x = np.atleast_1d(np.asarray(distances, dtype=float))
-        shape = _centerline(1.0, self.wind_speed, x, _classes(self.stability),
-                            _terrain(self.terrain))
+        shape = centerline_concentration(1.0, self.wind_speed, x, pasquill_classes(self.stability),
+                            terrain_key(self.terrain))
         plume = shape[:, None] * self.volume_rates[None, :]
         return np.minimum(plume, self.saturation_volume_fraction[None, :])
 
@@ -567,7 +567,7 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     OutdoorSpill
     """
     from .evaporation import mixture_evaporation_rates
-    from .outdoor import _centerline, _classes, _terrain, pool_source_criterion
+    from .outdoor import centerline_concentration, pasquill_classes, terrain_key, pool_source_criterion
     from .outdoor import screening_validity
     from .vapor import component_vapor_pressure_estimates
 
@@ -587,7 +587,7 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
                                       wind_speed, liq.activity_coefficients, model, pressure)
     g = np.asarray(getattr(rates, "rates", rates), dtype=float)
     x = np.atleast_1d(np.asarray(distances, dtype=float))
-    classes, land = _classes(stability), _terrain(terrain)
+    classes, land = pasquill_classes(stability), terrain_key(terrain)
     for gi in g:  # checks the inputs and warns outside the fitted range, as before
         ground_level_centerline(gi, wind_speed, x, stability, terrain)
     u = float(wind_speed)
@@ -608,11 +608,11 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
                                       float(pressure), u)
     # where the cap applies
     capped_until = None
-    shape_edge = float(_centerline(1.0, u, edge, classes, land))
+    shape_edge = float(centerline_concentration(1.0, u, edge, classes, land))
     for j in range(len(g)):
         if volume_rates[j] * shape_edge > y_sat[j] > 0:
             def over(log_x, j=j):
-                return math.log(float(_centerline(1.0, u, math.exp(log_x), classes, land))
+                return math.log(float(centerline_concentration(1.0, u, math.exp(log_x), classes, land))
                                 * volume_rates[j] / y_sat[j])
             from scipy.optimize import brentq
 

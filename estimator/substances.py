@@ -17,7 +17,7 @@ from types import MappingProxyType
 
 from .constants import STANDARD_ATMOSPHERE
 from .errors import InputError, UllageError, UnknownSubstanceError, suggest
-from .vapor import (
+from .correlations import (
     AntoineCorrelation,
     ClausiusClapeyronCorrelation,
     Dippr101Correlation,

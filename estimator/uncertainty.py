@@ -110,6 +110,7 @@ from types import MappingProxyType
 
 import numpy as np
 
+from .checks import PRESSURE_RANGE, PRESSURE_RANGE_TEXT
 from .constants import (
     EIGHT_HOUR_SHIFT,
     GAS_CONSTANT,
@@ -850,10 +851,10 @@ def _bounded(samples, field, unit, *, minimum=None, above=None, maximum=None, be
 
 
 def _check_pressures(samples, field):
-    """Absolute pressures between 1 kPa and 10 MPa (the range `headspace` accepts)."""
-    _bounded(samples, field, "Pa", minimum=1e3, maximum=1e7,
-             why=" (pressures are absolute, in pascals: 101325 Pa = 1 atm; ullage accepts "
-                 "1 kPa to 10 MPa)")
+    """Sampled absolute pressures inside `estimator.checks.PRESSURE_RANGE`."""
+    low, high = PRESSURE_RANGE
+    _bounded(samples, field, "Pa", minimum=low, maximum=high,
+             why=f" ({PRESSURE_RANGE_TEXT})")
     return samples
 
 
@@ -871,7 +872,8 @@ def _limit_tuple(limits) -> tuple[ExposureLimit, ...]:
     return out
 
 
-def _unique_labels(limits) -> list[str]:
+def unique_labels(limits) -> list[str]:
+    """Each limit's label, numbered ("TWA #2") where two limits share one."""
     seen: dict[str, int] = {}
     labels = []
     for lim in limits:
@@ -1112,7 +1114,7 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
     exceedance[f"oxygen below {oxygen_level:g} %"] = float(np.mean(oxygen < oxygen_level))
 
     keys = [c.key for c in liq.components]
-    for lim, label in zip(limit_list, _unique_labels(limit_list)):
+    for lim, label in zip(limit_list, unique_labels(limit_list)):
         if lim.substance not in keys:
             notes.append(f"limit {label} is for {lim.substance}, which is not in the liquid; "
                          "it was left out")
@@ -1433,7 +1435,7 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
     else:
         notes.append(f"{sub.name} has no LFL on record: the peak is not compared with the "
                      "LFL alarm (it may still burn; enter the LFL from the safety data sheet)")
-    for lim, label in zip(limit_list, _unique_labels(limit_list)):
+    for lim, label in zip(limit_list, unique_labels(limit_list)):
         if lim.substance != sub.key:
             notes.append(f"limit {label} is for {lim.substance}, not {sub.key}; it was "
                          "left out")
