@@ -58,6 +58,10 @@ def number(value, field: str, unit: str = "") -> float:
     if isinstance(value, bool):
         raise InputError(field, f"expected a number{' in ' + unit if unit else ''}, "
                                 f"got {value!r}")
+    if np.ndim(value) > 0:
+        if np.size(value) != 1:
+            raise InputError(field, "give a single number here, not an array")
+        value = np.asarray(value).reshape(()).item()
     try:
         v = float(value)
     except (TypeError, ValueError):
@@ -82,10 +86,10 @@ def positive(value, field: str, unit: str = "", *, allow_zero: bool = False,
     """
     v = number(value, field, unit)
     if allow_zero and v < 0.0:
-        raise InputError(field, f"{v:g}{_unit(unit)} is negative; it must be zero or more"
+        raise InputError(field, f"{v:g}{_unit(unit)} is negative; it must be at least 0"
                                 f"{hint}")
     if not allow_zero and v <= 0.0:
-        raise InputError(field, f"{v:g}{_unit(unit)} is not above zero; it must be "
+        raise InputError(field, f"{v:g}{_unit(unit)} is not above 0; it must be "
                                 f"positive{hint}")
     return v
 
@@ -121,14 +125,16 @@ def finite_array(value, field: str, unit: str = "", *, allow_empty: bool = False
 
 
 def positive_array(value, field: str, unit: str = "", *, allow_zero: bool = False,
-                   hint: str = "") -> np.ndarray:
+                   hint: str = "", allow_empty: bool = False) -> np.ndarray:
     """Finite numbers above zero (or zero or more with ``allow_zero``). [unit]"""
-    array = finite_array(value, field, unit)
+    array = finite_array(value, field, unit, allow_empty=allow_empty)
+    if array.size == 0:
+        return array
     if allow_zero and (array < 0.0).any():
-        raise InputError(field, f"{array.min():g}{_unit(unit)} is negative; it must be zero "
-                                f"or more{hint}")
+        raise InputError(field, f"{array.min():g}{_unit(unit)} is negative; it must be "
+                                f"at least 0{hint}")
     if not allow_zero and (array <= 0.0).any():
-        raise InputError(field, f"{array.min():g}{_unit(unit)} is not above zero; it must "
+        raise InputError(field, f"{array.min():g}{_unit(unit)} is not above 0; it must "
                                 f"be positive{hint}")
     return array
 

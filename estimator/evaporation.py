@@ -65,6 +65,7 @@ from .constants import (
     STANDARD_ATMOSPHERE,
     UNDIKED_SPILL_DEPTH,
 )
+from .checks import positive_array, single
 from .errors import InputError, OutOfRangeError, UllageError, UllageWarning
 
 __all__ = [
@@ -168,44 +169,6 @@ class EvaporationSolverError(UllageError, RuntimeError):
 # input checks
 
 
-def _finite_array(value, field: str, unit: str) -> np.ndarray:
-    if isinstance(value, bool):
-        raise InputError(field, f"expected a number in {unit}, got {value!r}")
-    try:
-        array = np.asarray(value, dtype=float)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number in {unit}, got {value!r}") from None
-    if array.size == 0:
-        raise InputError(field, f"is empty; give a number in {unit}")
-    if np.isnan(array).any():
-        raise InputError(field, f"contains NaN; give a finite number in {unit}")
-    if np.isinf(array).any():
-        raise InputError(field, f"is infinite; give a finite number in {unit}")
-    return array
-
-
-def _positive(value, field: str, unit: str, hint: str = "") -> np.ndarray:
-    array = _finite_array(value, field, unit)
-    if (array <= 0.0).any():
-        raise InputError(field, f"{array.min():g} {unit} is not above zero; it must be "
-                         f"positive{hint}")
-    return array
-
-
-def _non_negative(value, field: str, unit: str) -> np.ndarray:
-    array = _finite_array(value, field, unit)
-    if (array < 0.0).any():
-        raise InputError(field, f"{array.min():g} {unit} is negative; it must be zero "
-                         "or more")
-    return array
-
-
-def _scalar(array: np.ndarray, field: str) -> float:
-    if array.ndim != 0 and array.size != 1:
-        raise InputError(field, "give a single number here, not an array")
-    return float(array.reshape(()))
-
-
 def _out(result):
     result = np.asarray(result, dtype=float)
     return float(result) if result.ndim == 0 else result
@@ -219,7 +182,7 @@ def _check_model(model: str) -> str:
 
 
 def _wind(value, field: str = "wind_speed") -> np.ndarray:
-    return _positive(value, field, "m/s", hint=(
+    return positive_array(value, field, "m/s", hint=(
         "; these models need moving air (for still indoor air use a typical room "
         "air speed of 0.05-0.3 m/s, Baldwin & Maynard 1998)"))
 
@@ -558,8 +521,8 @@ def pool_area(volume, depth=UNDIKED_SPILL_DEPTH):
     >>> round(pool_area(1.0), 6)
     100.0
     """
-    v = _positive(volume, "volume", "m3")
-    h = _positive(depth, "depth", "m")
+    v = positive_array(volume, "volume", "m3")
+    h = positive_array(depth, "depth", "m")
     return _out(v / h)
 
 
@@ -581,7 +544,7 @@ def pool_diameter(area):
     >>> round(pool_diameter(math.pi), 6)
     2.0
     """
-    a = _positive(area, "area", "m2")
+    a = positive_array(area, "area", "m2")
     return _out(np.sqrt(4.0 * a / math.pi))
 
 
@@ -618,7 +581,7 @@ def spill_pool_area(volume, dike_area=None, depth=UNDIKED_SPILL_DEPTH):
     spread = np.asarray(pool_area(volume, depth))
     if dike_area is None:
         return _out(spread)
-    dike = _positive(dike_area, "dike_area", "m2")
+    dike = positive_array(dike_area, "dike_area", "m2")
     return _out(np.minimum(spread, dike))
 
 
@@ -758,8 +721,8 @@ def air_diffusivity(substance_or_key, temperature, pressure=STANDARD_ATMOSPHERE)
     from .substances import as_substance
 
     sub = as_substance(substance_or_key, "substance_or_key")
-    t = _positive(temperature, "temperature", "K")
-    p = _positive(pressure, "pressure", "Pa")
+    t = positive_array(temperature, "temperature", "K")
+    p = positive_array(pressure, "pressure", "Pa")
     volume, note = _diffusion_volume(sub, "substance_or_key")
     if note:
         warnings.warn(note, UllageWarning, stacklevel=2)
@@ -841,11 +804,11 @@ def _prepare(substance_or_key, temperature, area, wind_speed, pressure,
     from .vapor import vapor_pressure_estimate
 
     sub = as_substance(substance_or_key, field)
-    t = _positive(temperature, "temperature", "K")
-    a = _positive(area, "area", "m2")
+    t = positive_array(temperature, "temperature", "K")
+    a = positive_array(area, "area", "m2")
     u = _wind(wind_speed)
-    p = _positive(pressure, "pressure", "Pa")
-    p_air = _non_negative(partial_pressure_air, "partial_pressure_air", "Pa")
+    p = positive_array(pressure, "pressure", "Pa")
+    p_air = positive_array(partial_pressure_air, "partial_pressure_air", "Pa", allow_zero=True)
     _boiling_check(sub, t, None, p, "temperature")
     estimate = vapor_pressure_estimate(sub, t, field="temperature")
     p_sat = np.asarray(estimate.pressure, dtype=float)
@@ -1073,7 +1036,7 @@ class PoolDepletion:
 
 
 def _times(times, field="times") -> np.ndarray:
-    t = np.atleast_1d(_non_negative(times, field, "s")).ravel()
+    t = np.atleast_1d(positive_array(times, field, "s", allow_zero=True)).ravel()
     if t.size > 1 and np.any(np.diff(t) <= 0.0):
         raise InputError(field, "must increase strictly; sort the times and drop repeats")
     return t
@@ -1124,10 +1087,10 @@ def pool_depletion(substance, temperature, initial_mass, area, wind_speed,
     _check_model(model)
     estimate = evaporation_estimate(substance, temperature, area, wind_speed, model,
                                     pressure, partial_pressure_air)
-    m0 = _scalar(_positive(initial_mass, "initial_mass", "kg"), "initial_mass")
-    a0 = _scalar(np.asarray(area, dtype=float), "area")
-    _scalar(np.asarray(temperature, dtype=float), "temperature")
-    _scalar(np.asarray(wind_speed, dtype=float), "wind_speed")
+    m0 = single(positive_array(initial_mass, "initial_mass", "kg"), "initial_mass")
+    a0 = single(np.asarray(area, dtype=float), "area")
+    single(np.asarray(temperature, dtype=float), "temperature")
+    single(np.asarray(wind_speed, dtype=float), "wind_speed")
     rate0 = float(estimate.rate)
     notes = list(estimate.warnings)
     beta = -MACKAY_MATSUGU_DIAMETER_EXPONENT / 2.0 if model == "mackay-matsugu" else 0.0
@@ -1192,7 +1155,7 @@ def _components(components, field="components"):
 def _per_component(value, n: int, field: str, unit: str, default: float) -> np.ndarray:
     if value is None:
         return np.full(n, default)
-    array = _non_negative(value, field, unit)
+    array = positive_array(value, field, unit, allow_zero=True)
     array = np.broadcast_to(array, (n,)) if array.ndim == 0 else array.ravel()
     if array.size != n:
         raise InputError(field, f"got {array.size} values for {n} components; give one "
@@ -1254,10 +1217,10 @@ def mixture_inputs(components, temperature, area, wind_speed, model, pressure,
     """Checked inputs of a mixture pool, shared by the weathering and spill models."""
     _check_model(model)
     subs = _components(components)
-    t = _scalar(_positive(temperature, "temperature", "K"), "temperature")
-    a = _scalar(_positive(area, "area", "m2"), "area")
-    u = _scalar(_wind(wind_speed), "wind_speed")
-    p = _scalar(_positive(pressure, "pressure", "Pa"), "pressure")
+    t = single(positive_array(temperature, "temperature", "K"), "temperature")
+    a = single(positive_array(area, "area", "m2"), "area")
+    u = single(_wind(wind_speed), "wind_speed")
+    p = single(positive_array(pressure, "pressure", "Pa"), "pressure")
     p_air = _per_component(partial_pressures_air, len(subs), "partial_pressures_air", "Pa",
                            0.0)
     p_sat, per_pascal, notes = _component_conductances(subs, t, a, u, model, p)
@@ -1305,7 +1268,7 @@ def mixture_evaporation_rates(components, mole_fractions, temperature, area, win
     """
     subs, t, a, u, p, p_air, p_sat, per_pascal, notes = mixture_inputs(
         components, temperature, area, wind_speed, model, pressure, partial_pressures_air)
-    x = _non_negative(mole_fractions, "mole_fractions", "").ravel()
+    x = positive_array(mole_fractions, "mole_fractions", "", allow_zero=True).ravel()
     if x.size != len(subs):
         raise InputError("mole_fractions", f"got {x.size} mole fractions for {len(subs)} "
                          "components; give one per component")
@@ -1479,7 +1442,7 @@ def mixture_pool(components, initial_amounts, temperature, area, wind_speed,
     n_comp = len(subs)
     molar_mass = np.array([s.molar_mass for s in subs])
     unit = "kg" if amount_basis == "mass" else "mol"
-    amounts = _non_negative(initial_amounts, "initial_amounts", unit).ravel()
+    amounts = positive_array(initial_amounts, "initial_amounts", unit, allow_zero=True).ravel()
     if amounts.size != n_comp:
         raise InputError("initial_amounts", f"got {amounts.size} amounts for {n_comp} "
                          "components; give one per component")
@@ -1502,7 +1465,7 @@ def mixture_pool(components, initial_amounts, temperature, area, wind_speed,
 
     # output grid
     if t_end is not None:
-        t_end = _scalar(_positive(t_end, "t_end", "s"), "t_end")
+        t_end = single(positive_array(t_end, "t_end", "s"), "t_end")
     if times is None:
         t_end = EIGHT_HOUR_SHIFT if t_end is None else t_end
         t_out = np.linspace(0.0, t_end, int(round(t_end / SECONDS_PER_MINUTE)) + 1)
@@ -1759,19 +1722,19 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
     if ground not in GROUND_TYPES:
         raise ValueError(f"unknown ground {ground!r}; expected one of {list(GROUND_TYPES)}")
     sub = as_substance(substance, "substance")
-    t_air = _scalar(_positive(ambient_temperature, "ambient_temperature", "K"),
+    t_air = single(positive_array(ambient_temperature, "ambient_temperature", "K"),
                     "ambient_temperature")
-    m0 = _scalar(_positive(initial_mass, "initial_mass", "kg"), "initial_mass")
-    a = _scalar(_positive(area, "area", "m2"), "area")
-    u = _scalar(_wind(wind_speed), "wind_speed")
-    cp = _scalar(_positive(liquid_heat_capacity, "liquid_heat_capacity", "J/(kg K)"),
+    m0 = single(positive_array(initial_mass, "initial_mass", "kg"), "initial_mass")
+    a = single(positive_array(area, "area", "m2"), "area")
+    u = single(_wind(wind_speed), "wind_speed")
+    cp = single(positive_array(liquid_heat_capacity, "liquid_heat_capacity", "J/(kg K)"),
                  "liquid_heat_capacity")
-    p = _scalar(_positive(pressure, "pressure", "Pa"), "pressure")
-    t0 = t_air if initial_temperature is None else _scalar(
-        _positive(initial_temperature, "initial_temperature", "K"), "initial_temperature")
-    t_ground = t_air if ground_temperature is None else _scalar(
-        _positive(ground_temperature, "ground_temperature", "K"), "ground_temperature")
-    solar = _scalar(_non_negative(solar_flux, "solar_flux", "W/m2"), "solar_flux")
+    p = single(positive_array(pressure, "pressure", "Pa"), "pressure")
+    t0 = t_air if initial_temperature is None else single(
+        positive_array(initial_temperature, "initial_temperature", "K"), "initial_temperature")
+    t_ground = t_air if ground_temperature is None else single(
+        positive_array(ground_temperature, "ground_temperature", "K"), "ground_temperature")
+    solar = single(positive_array(solar_flux, "solar_flux", "W/m2", allow_zero=True), "solar_flux")
     _boiling_check(sub, np.asarray(max(t0, t_air)), None, p, "initial_temperature"
                    if t0 > t_air else "ambient_temperature")
 
@@ -1796,7 +1759,7 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
     ground_factor = 2.0 * conductivity * a / math.sqrt(math.pi * diffusivity)
 
     if enthalpy_of_vaporization is not None:
-        dh_const = _scalar(_positive(enthalpy_of_vaporization, "enthalpy_of_vaporization",
+        dh_const = single(positive_array(enthalpy_of_vaporization, "enthalpy_of_vaporization",
                                      "J/mol"), "enthalpy_of_vaporization")
 
         def latent(_t):
@@ -1833,12 +1796,12 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
             life = m0 / r_ambient if r_ambient > 0 else math.inf
             t_end = min(2.0 * life, EIGHT_HOUR_SHIFT)
         else:
-            t_end = _scalar(_positive(t_end, "t_end", "s"), "t_end")
+            t_end = single(positive_array(t_end, "t_end", "s"), "t_end")
         t_out = np.linspace(0.0, t_end, 201)
     else:
         t_out = _times(times)
-        t_end = float(t_out[-1]) if t_end is None else _scalar(
-            _positive(t_end, "t_end", "s"), "t_end")
+        t_end = float(t_out[-1]) if t_end is None else single(
+            positive_array(t_end, "t_end", "s"), "t_end")
         if t_out[-1] > t_end or t_end <= 0.0:
             raise InputError("times", "output times must lie within (0, t_end]")
 

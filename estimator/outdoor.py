@@ -28,6 +28,7 @@ from typing import NamedTuple
 import numpy as np
 
 from .constants import GAS_CONSTANT, MOLAR_MASS_AIR, STANDARD_GRAVITY
+from .checks import positive_array
 from .errors import InputError, UllageWarning
 
 __all__ = [
@@ -152,18 +153,6 @@ def pasquill_classes(stability):
     allowed = list(STABILITY_CLASSES) + list(INTERMEDIATE_CLASSES)
     raise InputError("stability", f"unknown stability class {stability!r}; allowed: "
                      f"{', '.join(allowed)}")
-
-
-def _positive_array(field, value, unit, advice=""):
-    try:
-        array = np.asarray(value, dtype=float)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number, got {value!r}") from None
-    if not np.all(np.isfinite(array)):
-        raise InputError(field, "must be finite; got NaN or infinity")
-    if np.any(array <= 0.0):
-        raise InputError(field, f"must be above 0 {unit}{advice}")
-    return array
 
 
 def _out_of_range_note(distance):
@@ -350,7 +339,7 @@ def briggs_sigmas(distance, stability, terrain="open") -> DispersionCoefficients
     >>> round(sy, 2), round(sz, 2)
     (76.28, 37.95)
     """
-    x = _positive_array("distance", distance, "m", " (downwind of the source)")
+    x = positive_array(distance, "distance", "m", hint=" (downwind of the source)")
     classes = pasquill_classes(stability)
     land = terrain_key(terrain)
     note = _out_of_range_note(x)
@@ -403,9 +392,9 @@ def ground_level_centerline(emission_rate, wind_speed, distance, stability, terr
     rate = np.asarray(emission_rate, dtype=float)
     if not np.all(np.isfinite(rate)) or np.any(rate < 0.0):
         raise InputError("emission_rate", "must be a finite rate of at least 0 kg/s")
-    u = _positive_array("wind_speed", wind_speed, "m/s", "; calm conditions are outside "
+    u = positive_array(wind_speed, "wind_speed", "m/s", hint="; calm conditions are outside "
                         "the Gaussian plume model")
-    x = _positive_array("distance", distance, "m", " (downwind of the source)")
+    x = positive_array(distance, "distance", "m", hint=" (downwind of the source)")
     classes = pasquill_classes(stability)
     land = terrain_key(terrain)
     note = _out_of_range_note(x)
@@ -482,10 +471,10 @@ def distance_to_concentration(emission_rate, wind_speed, concentration, stabilit
     rate = float(emission_rate)
     if not np.isfinite(rate) or rate < 0.0:
         raise InputError("emission_rate", "must be a finite rate of at least 0 kg/s")
-    u = float(_positive_array("wind_speed", wind_speed, "m/s"))
-    target = float(_positive_array("concentration", concentration, "kg/m3"))
-    near = float(_positive_array("min_distance", min_distance, "m"))
-    far = float(_positive_array("max_distance", max_distance, "m"))
+    u = float(positive_array(wind_speed, "wind_speed", "m/s"))
+    target = float(positive_array(concentration, "concentration", "kg/m3"))
+    near = float(positive_array(min_distance, "min_distance", "m"))
+    far = float(positive_array(max_distance, "max_distance", "m"))
     if far <= near:
         raise InputError("max_distance", f"must be beyond min_distance ({near:g} m)")
     classes = pasquill_classes(stability)
@@ -548,9 +537,9 @@ def wind_speed_at_height(speed, height, reference_height=10.0, stability="D",
     >>> round(wind_speed_at_height(3.0, 2.0, stability="F"), 3)
     1.238
     """
-    u = _positive_array("speed", speed, "m/s")
-    z = _positive_array("height", height, "m")
-    z_ref = float(_positive_array("reference_height", reference_height, "m"))
+    u = positive_array(speed, "speed", "m/s")
+    z = positive_array(height, "height", "m")
+    z_ref = float(positive_array(reference_height, "reference_height", "m"))
     classes = pasquill_classes(stability)
     land = terrain_key(terrain)
     exponent = sum(WIND_PROFILE_EXPONENTS[land][c] for c in classes) / len(classes)
@@ -602,12 +591,12 @@ def britter_mcquaid_continuous(reduced_gravity, volume_rate, wind_speed,
     0.433
     """
     g = float(reduced_gravity)
-    q = float(_positive_array("volume release rate", volume_rate, "m3/s"))
-    u = float(_positive_array("wind_speed", wind_speed, "m/s"))
+    q = float(positive_array(volume_rate, "volume release rate", "m3/s"))
+    u = float(positive_array(wind_speed, "wind_speed", "m/s"))
     if not math.isfinite(g):
         raise InputError("reduced gravity", "must be a finite number in m/s2")
     d = math.sqrt(q / u) if source_dimension is None else float(
-        _positive_array("source dimension", source_dimension, "m"))
+        positive_array(source_dimension, "source dimension", "m"))
     if g <= 0.0:
         return 0.0
     return (g * q / d) ** (1.0 / 3.0) / u
@@ -693,15 +682,15 @@ def pool_source_criterion(vapour_molar_rate, vapour_fraction, vapour_molar_mass,
     y = float(vapour_fraction)
     if not (math.isfinite(y) and 0.0 < y <= 1.0):
         raise InputError("vapour fraction", "must be above 0 and at most 1")
-    n = float(_positive_array("evaporation rate", vapour_molar_rate, "mol/s"))
-    t = float(_positive_array("temperature", temperature, "K"))
-    p = float(_positive_array("pressure", pressure, "Pa"))
+    n = float(positive_array(vapour_molar_rate, "evaporation rate", "mol/s"))
+    t = float(positive_array(temperature, "temperature", "K"))
+    p = float(positive_array(pressure, "pressure", "Pa"))
     molar_volume = GAS_CONSTANT * t / p
     rho_air = MOLAR_MASS_AIR / molar_volume
     rho_mix = (y * float(vapour_molar_mass) + (1.0 - y) * MOLAR_MASS_AIR) / molar_volume
     g0 = STANDARD_GRAVITY * (rho_mix - rho_air) / rho_air
     q0 = n * molar_volume / y
-    u = float(_positive_array("wind_speed", wind_speed, "m/s"))
+    u = float(positive_array(wind_speed, "wind_speed", "m/s"))
     value = britter_mcquaid_continuous(g0, q0, u)
     return DenseGasCriterion(value, BRITTER_MCQUAID_CONTINUOUS,
                              value >= BRITTER_MCQUAID_CONTINUOUS, rho_mix, rho_air, y, g0,

@@ -17,6 +17,7 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from .constants import EIGHT_HOUR_SHIFT, GAS_CONSTANT, STANDARD_ATMOSPHERE, UNDIKED_SPILL_DEPTH
+from .checks import positive
 from .errors import InputError
 from .evaporation import (
     DEPLETED_FRACTION,
@@ -41,17 +42,6 @@ def liquid_mixture_density(liq) -> float:
         raise InputError("liquid", f"no liquid density for {', '.join(missing)}; give the "
                          "spilled mass instead of the volume")
     return float(1.0 / np.sum(liq.mass_fractions / np.asarray(densities)))
-
-
-def _positive(value, field, unit, allow_zero=False) -> float:
-    try:
-        v = float(value)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number in {unit}, got {value!r}") from None
-    if not math.isfinite(v) or v < 0 or (v == 0 and not allow_zero):
-        raise InputError(field, f"{value!r} must be a {'non-negative' if allow_zero else 'positive'}"
-                         f" number in {unit}")
-    return v
 
 
 @dataclass(frozen=True)
@@ -188,9 +178,9 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     from scipy.integrate import odeint
 
     liq = make_liquid(liquid, basis, activity_coefficients)
-    t_k = _positive(temperature, "temperature", "K")
-    v_room = _positive(room_volume, "room volume", "m3")
-    q = _positive(ventilation_rate, "ventilation rate", "m3/s", allow_zero=True)
+    t_k = positive(temperature, "temperature", "K")
+    v_room = positive(room_volume, "room volume", "m3")
+    q = positive(ventilation_rate, "ventilation rate", "m3/s", allow_zero=True)
     k_mix = float(mixing_factor)
     if not math.isfinite(k_mix) or k_mix < 1.0:
         raise InputError("mixing factor", f"{mixing_factor!r} must be 1 or more: ullage "
@@ -199,30 +189,30 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
         raise InputError("spilled volume", "give either the spilled volume or the spilled "
                          "mass (one of the two)")
     if spilled_mass is None:
-        vol = _positive(spilled_volume, "spilled volume", "m3")
+        vol = positive(spilled_volume, "spilled volume", "m3")
         if vol >= v_room:
             raise InputError("spilled volume", f"{vol:g} m3 is not smaller than the room "
                              f"({v_room:g} m3); check the units")
         mass = vol * liquid_mixture_density(liq)
     else:
-        mass = _positive(spilled_mass, "spilled mass", "kg")
+        mass = positive(spilled_mass, "spilled mass", "kg")
         vol = None
     if area is None:
         if vol is None:
             vol = mass / liquid_mixture_density(liq)
         area = spill_pool_area(vol, dike_area, depth)
-    pool_area = _positive(area, "pool area", "m2")
+    pool_area = positive(area, "pool area", "m2")
     two_zone = near_field_volume is not None or interzonal_flow is not None
     if two_zone:
         if near_field_volume is None or interzonal_flow is None:
             raise InputError("near field", "the two-zone model needs both the near-field "
                              "volume and the interzonal airflow")
-        v_nf = _positive(near_field_volume, "near-field volume", "m3")
-        beta = _positive(interzonal_flow, "interzonal airflow", "m3/s")
+        v_nf = positive(near_field_volume, "near-field volume", "m3")
+        beta = positive(interzonal_flow, "interzonal airflow", "m3/s")
         if v_nf >= v_room:
             raise InputError("near-field volume", "must be smaller than the room volume")
     if times is None:
-        end = _positive(duration, "duration", "s")
+        end = positive(duration, "duration", "s")
         t_out = np.linspace(0.0, end, int(round(end / 10.0)) + 1)
     else:
         t_out = np.asarray(times, dtype=float)
@@ -233,7 +223,7 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
         end = float(t_out[-1])
     t_remove = None
     if source_removed_at is not None:
-        t_remove = _positive(source_removed_at, "source removed at", "s", allow_zero=True)
+        t_remove = positive(source_removed_at, "source removed at", "s", allow_zero=True)
 
     subs = liq.components
     names = tuple(c.name for c in subs)
@@ -572,16 +562,16 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     from .vapor import component_vapor_pressure_estimates
 
     liq = make_liquid(liquid, basis, activity_coefficients)
-    alarm = _positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
+    alarm = positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
     if alarm > 100.0:
         raise InputError("LFL alarm", f"{alarm:g} % is above 100 % of the LFL; give the "
                          "alarm as a percentage of the LFL, such as 10")
     if area is None:
         if spilled_volume is None:
             raise InputError("pool area", "give the pool area or the spilled volume")
-        area = spill_pool_area(_positive(spilled_volume, "spilled volume", "m3"),
+        area = spill_pool_area(positive(spilled_volume, "spilled volume", "m3"),
                                dike_area, depth)
-    area = _positive(area, "pool area", "m2")
+    area = positive(area, "pool area", "m2")
     t = float(temperature)
     rates = mixture_evaporation_rates(liq.components, liq.mole_fractions, temperature, area,
                                       wind_speed, liq.activity_coefficients, model, pressure)

@@ -110,7 +110,7 @@ from types import MappingProxyType
 
 import numpy as np
 
-from .checks import PRESSURE_RANGE, PRESSURE_RANGE_TEXT
+from .checks import PRESSURE_RANGE, PRESSURE_RANGE_TEXT, number
 from .constants import (
     EIGHT_HOUR_SHIFT,
     GAS_CONSTANT,
@@ -164,18 +164,6 @@ _HIGH_VOLATILITY_RATIO = 0.3
 # input checks
 
 
-def _finite(value, field: str) -> float:
-    if isinstance(value, bool):
-        raise InputError(field, f"expected a number, got {value!r}")
-    try:
-        number = float(value)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number, got {value!r}") from None
-    if not math.isfinite(number):
-        raise InputError(field, f"{number!r} is not a finite number; give a finite value")
-    return number
-
-
 def _sample_count(n) -> int:
     if isinstance(n, bool) or not isinstance(n, (int, np.integer)) or n < 1:
         raise InputError("n", f"{n!r}: the number of samples must be a whole number of 1 "
@@ -214,7 +202,7 @@ class Fixed:
     value: float
 
     def __post_init__(self):
-        object.__setattr__(self, "value", _finite(self.value, "value"))
+        object.__setattr__(self, "value", number(self.value, "value"))
 
     def sample(self, n, rng=None) -> np.ndarray:
         """n copies of the value; draws nothing from `rng`."""
@@ -245,7 +233,7 @@ class Uniform:
     high: float
 
     def __post_init__(self):
-        low, high = _finite(self.low, "low"), _finite(self.high, "high")
+        low, high = number(self.low, "low"), number(self.high, "high")
         if not low < high:
             raise InputError("high", f"{high:g} must be above low ({low:g}); for a value "
                              "known exactly use Fixed")
@@ -276,8 +264,8 @@ class Triangular:
     high: float
 
     def __post_init__(self):
-        low, mode, high = (_finite(self.low, "low"), _finite(self.mode, "mode"),
-                           _finite(self.high, "high"))
+        low, mode, high = (number(self.low, "low"), number(self.mode, "mode"),
+                           number(self.high, "high"))
         if not low < high:
             raise InputError("high", f"{high:g} must be above low ({low:g}); for a value "
                              "known exactly use Fixed")
@@ -328,12 +316,12 @@ class Normal:
     high: float | None = None
 
     def __post_init__(self):
-        mean, sd = _finite(self.mean, "mean"), _finite(self.sd, "sd")
+        mean, sd = number(self.mean, "mean"), number(self.sd, "sd")
         if sd <= 0.0:
             raise InputError("sd", f"{sd:g} must be above 0; for a value known exactly use "
                              "Fixed")
-        low = None if self.low is None else _finite(self.low, "low")
-        high = None if self.high is None else _finite(self.high, "high")
+        low = None if self.low is None else number(self.low, "low")
+        high = None if self.high is None else number(self.high, "high")
         if low is not None and high is not None and not low < high:
             raise InputError("high", f"{high:g} must be above low ({low:g})")
         if low is not None and mean < low:
@@ -403,8 +391,8 @@ class LogNormal:
     geometric_sd: float
 
     def __post_init__(self):
-        gm = _finite(self.geometric_mean, "geometric_mean")
-        gsd = _finite(self.geometric_sd, "geometric_sd")
+        gm = number(self.geometric_mean, "geometric_mean")
+        gsd = number(self.geometric_sd, "geometric_sd")
         if gm <= 0.0:
             raise InputError("geometric_mean", f"{gm:g} must be above 0")
         if gsd <= 1.0:
@@ -446,7 +434,7 @@ class DirichletComposition:
     concentration: float
 
     def __post_init__(self):
-        value = _finite(self.concentration, "concentration")
+        value = number(self.concentration, "concentration")
         if value <= 0.0:
             raise InputError("concentration", f"{value:g} must be above 0 (larger values "
                              "give a tighter composition)")
@@ -635,7 +623,7 @@ def vapor_pressure_factor(relative_uncertainty):
     >>> round(vapor_pressure_factor(0.10).geometric_sd, 4)
     1.0498
     """
-    u = _finite(relative_uncertainty, "relative_uncertainty")
+    u = number(relative_uncertainty, "relative_uncertainty")
     if u < 0.0:
         raise InputError("relative_uncertainty", f"{u:g} cannot be negative")
     if u == 0.0:
@@ -769,7 +757,7 @@ class MonteCarloResult:
         if output not in self.outputs:
             raise InputError("output", f"{output!r} is not an output of this run; it has "
                              f"{', '.join(self.outputs)}")
-        return float(np.mean(self.outputs[output] > _finite(threshold, "threshold")))
+        return float(np.mean(self.outputs[output] > number(threshold, "threshold")))
 
     def table(self):
         """Tidy table of the summary: one statistic per row.
@@ -1039,10 +1027,10 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
     liq = make_liquid(liquid)
     count = _sample_count(n)
     seed, rng = _generator(seed)
-    alarm = _finite(lfl_alarm, "lfl_alarm")
+    alarm = number(lfl_alarm, "lfl_alarm")
     if not 0.0 < alarm <= 100.0:
         raise InputError("lfl_alarm", f"{alarm:g} must be above 0 and at most 100 % of the LFL")
-    oxygen_level = _finite(oxygen_alarm, "oxygen_alarm")
+    oxygen_level = number(oxygen_alarm, "oxygen_alarm")
     if not 0.0 < oxygen_level < 100.0 * OXYGEN_IN_AIR:
         raise InputError("oxygen_alarm", f"{oxygen_level:g} must be above 0 and below the "
                          f"{100 * OXYGEN_IN_AIR:g} % of fresh air")
@@ -1348,13 +1336,13 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
     sub = as_substance(substance_or_key, "substance_or_key")
     count = _sample_count(n)
     seed, rng = _generator(seed)
-    period = _finite(duration, "duration")
+    period = number(duration, "duration")
     if period <= 0.0:
         raise InputError("duration", f"{period:g} s must be above 0")
-    alarm = _finite(lfl_alarm, "lfl_alarm")
+    alarm = number(lfl_alarm, "lfl_alarm")
     if not 0.0 < alarm <= 100.0:
         raise InputError("lfl_alarm", f"{alarm:g} must be above 0 and at most 100 % of the LFL")
-    p_air = float(_check_pressures(np.asarray(_finite(pressure, "pressure")), "pressure"))
+    p_air = float(_check_pressures(np.asarray(number(pressure, "pressure")), "pressure"))
     limit_list = _limit_tuple(limits)
     if not isinstance(include_method_uncertainty, bool):
         raise InputError("include_method_uncertainty", "must be True or False")
