@@ -155,10 +155,10 @@ _CUBIC_CENTIMETRES_PER_CUBIC_METRE = 1e6
 #: rate is more than about 20 % low (the high-flux factor -ln(1-y)/y exceeds
 #: 1.19 at y = 0.3; Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed.,
 #: Section 22.8, from memory).
-_HIGH_VOLATILITY_RATIO = 0.3
+HIGH_VOLATILITY_RATIO = 0.3
 
 #: Air speed below which results carry the low-air-speed caution. [m/s]
-_LOW_AIR_SPEED = 0.5
+LOW_AIR_SPEED = 0.5
 
 
 class EvaporationSolverError(UllageError, RuntimeError):
@@ -782,19 +782,25 @@ def _boiling_check(sub, t: np.ndarray, p_sat, pressure, field: str) -> None:
             "flashing release), which lies outside these evaporation models"))
 
 
+def low_air_speed_note(share=None) -> str:
+    """The caution for air speeds below `LOW_AIR_SPEED`; ``share`` is the fraction of
+    Monte Carlo samples below it (None for a single case)."""
+    where = "" if share is None else f" in {100 * share:.3g} % of samples"
+    return (f"air speed below {LOW_AIR_SPEED:g} m/s{where}: the models tend to "
+            "under-predict evaporation at low air speeds (Lennert, Nielsen & Breum 1997)")
+
+
 def _validity_notes(name, p_sat, pressure, wind) -> list[str]:
     notes = []
     ratio = float(np.max(np.asarray(p_sat) / np.asarray(pressure)))
-    if ratio > _HIGH_VOLATILITY_RATIO:
+    if ratio > HIGH_VOLATILITY_RATIO:
         factor = -math.log1p(-min(ratio, 0.999)) / ratio
         notes.append(
             f"{name}: the vapour pressure is {100 * ratio:.0f} % of the ambient "
             f"pressure; the dilute-vapour models may under-predict by a factor of about "
             f"{factor:.2f} this close to boiling")
-    if np.min(wind) < _LOW_AIR_SPEED:
-        notes.append(
-            f"air speed below {_LOW_AIR_SPEED:g} m/s: the models tend to under-predict "
-            "evaporation at low air speeds (Lennert, Nielsen & Breum 1997)")
+    if np.min(wind) < LOW_AIR_SPEED:
+        notes.append(low_air_speed_note())
     return notes
 
 

@@ -78,7 +78,7 @@ BOX_FACES = {
 }
 
 #: Below this reduced step the second exponential-integrator weight uses its series.
-_SERIES_LIMIT = 1e-3
+SERIES_LIMIT = 1e-3
 
 
 # --------------------------------------------------------------------------- checks
@@ -137,23 +137,35 @@ def _source(generation_rate, times):
 
 # --------------------------------------------------------------- exact integrator
 
-def _phi1(z):
-    """(1 - exp(-z)) / z, equal to 1 at z = 0."""
-    out = np.ones_like(z)
-    positive = z > 0.0
-    out[positive] = -np.expm1(-z[positive]) / z[positive]
-    return out
+def phi1(z):
+    """(1 - exp(-z)) / z, equal to 1 at z = 0 (and for z <= 0), elementwise.
+
+    The first weight of the exact exponential integrator (the "phi functions" of
+    Hochbruck & Ostermann, Acta Numerica 19 (2010) 209).
+
+    Examples
+    --------
+    >>> round(float(phi1(1.0)), 6)
+    0.632121
+    """
+    z = np.asarray(z, dtype=float)
+    safe = np.where(z > 0.0, z, 1.0)
+    return np.where(z > 0.0, -np.expm1(-safe) / safe, 1.0)
 
 
-def _phi2(z):
-    """(z - 1 + exp(-z)) / z**2, equal to 1/2 at z = 0."""
-    out = np.empty_like(z)
-    small = z < _SERIES_LIMIT
-    zs = z[small]
-    out[small] = 0.5 - zs / 6.0 + zs**2 / 24.0 - zs**3 / 120.0
-    zl = z[~small]
-    out[~small] = (zl + np.expm1(-zl)) / zl**2
-    return out
+def phi2(z):
+    """(z - 1 + exp(-z)) / z**2, equal to 1/2 at z = 0, elementwise (a series below
+    `SERIES_LIMIT`, where the closed form loses digits).
+
+    Examples
+    --------
+    >>> round(float(phi2(1.0)), 6), float(phi2(0.0))
+    (0.367879, 0.5)
+    """
+    z = np.asarray(z, dtype=float)
+    large = np.where(z >= SERIES_LIMIT, z, 1.0)
+    series = 0.5 - z / 6.0 + z**2 / 24.0 - z**3 / 120.0
+    return np.where(z >= SERIES_LIMIT, (large + np.expm1(-large)) / large**2, series)
 
 
 def _relaxation_steps(decay_rate, times, forcing, start_value, cap=None):
@@ -167,7 +179,7 @@ def _relaxation_steps(decay_rate, times, forcing, start_value, cap=None):
     h = np.diff(times)
     z = decay_rate * h
     decay = np.exp(-z).tolist()
-    increment = (forcing[:-1] * h * _phi1(z) + np.diff(forcing) * h * _phi2(z)).tolist()
+    increment = (forcing[:-1] * h * phi1(z) + np.diff(forcing) * h * phi2(z)).tolist()
     y = float(start_value)
     values = [y]
     if cap is None:
@@ -416,7 +428,7 @@ def well_mixed_room(generation_rate, volume, ventilation_rate, times, mixing_fac
 
     if kind == "constant":
         z = decay_rate * t
-        c = c0 * np.exp(-z) + source / v * t * _phi1(z)
+        c = c0 * np.exp(-z) + source / v * t * phi1(z)
         if cap is not None:
             c = np.minimum(c, cap)
     elif kind == "series":

@@ -119,6 +119,8 @@ from .constants import (
     STANDARD_ATMOSPHERE,
 )
 from .errors import InputError, OutOfRangeError, UllageWarning
+from .evaporation import HIGH_VOLATILITY_RATIO, LOW_AIR_SPEED, low_air_speed_note
+from .indoor import phi1, phi2
 from .limits import ExposureLimit
 
 __all__ = [
@@ -146,18 +148,6 @@ PERCENTILES = (50, 90, 95, 99)
 #: a two-sided 95 % interval spans +-1.96 standard deviations (common practice).
 NORMAL_975 = 1.96
 
-#: Below this the series of (z - 1 + exp(-z)) / z**2 is used. [-]
-_SERIES_LIMIT = 1e-3
-
-#: Air speed below which the evaporation models tend to under-predict. [m/s]
-#: Lennert, Nielsen & Breum (1997), Ann. Occup. Hyg. 41, 625 (the same caution
-#: as `estimator.evaporation`).
-_LOW_AIR_SPEED = 0.5
-
-#: Above this ratio of vapour pressure to ambient pressure the dilute film
-#: theory behind the evaporation model is more than about 20 % low (the caution
-#: of `estimator.evaporation`). [-]
-_HIGH_VOLATILITY_RATIO = 0.3
 
 
 # --------------------------------------------------------------------------
@@ -1121,21 +1111,6 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
 # indoor spill chain
 
 
-def _phi1(z):
-    """(1 - exp(-z)) / z, 1 at z = 0, elementwise."""
-    z = np.asarray(z, dtype=float)
-    safe = np.where(z > 0.0, z, 1.0)
-    return np.where(z > 0.0, -np.expm1(-safe) / safe, 1.0)
-
-
-def _phi2(z):
-    """(z - 1 + exp(-z)) / z**2, 1/2 at z = 0, elementwise (series for small z)."""
-    z = np.asarray(z, dtype=float)
-    large = np.where(z >= _SERIES_LIMIT, z, 1.0)
-    series = 0.5 - z / 6.0 + z**2 / 24.0 - z**3 / 120.0
-    return np.where(z >= _SERIES_LIMIT, (large + np.expm1(-large)) / large**2, series)
-
-
 @dataclass(frozen=True)
 class _RoomHistory:
     """Piecewise analytic concentration of a well-mixed room, one value per sample.
@@ -1163,13 +1138,13 @@ class _RoomHistory:
                                   -np.log1p(-np.where(reach < 1.0, reach, 0.0)) / safe_rate,
                                   np.inf)
         saturation_time = np.where(decay_rate > 0.0, ventilated, saturation / source)
-        rising = source * dry_time * _phi1(decay_rate * dry_time)
+        rising = source * dry_time * phi1(decay_rate * dry_time)
         return cls(source, decay_rate, saturation, dry_time, saturation_time,
                    np.minimum(rising, saturation))
 
     def concentration(self, t):
         """C(t). [kg/m3]"""
-        rise = np.minimum(self.source * t * _phi1(self.decay_rate * t), self.saturation)
+        rise = np.minimum(self.source * t * phi1(self.decay_rate * t), self.saturation)
         after = np.maximum(t - self.dry_time, 0.0)
         fall = self.dry_concentration * np.exp(-self.decay_rate * after)
         return np.where(t <= self.dry_time, rise, fall)
@@ -1177,11 +1152,11 @@ class _RoomHistory:
     def integral(self, t):
         """Integral of C from 0 to t. [kg s/m3]"""
         uncapped = np.minimum(t, np.minimum(self.saturation_time, self.dry_time))
-        rise = self.source * uncapped**2 * _phi2(self.decay_rate * uncapped)
+        rise = self.source * uncapped**2 * phi2(self.decay_rate * uncapped)
         plateau = self.saturation * np.clip(np.minimum(t, self.dry_time)
                                             - self.saturation_time, 0.0, None)
         after = np.maximum(t - self.dry_time, 0.0)
-        fall = self.dry_concentration * after * _phi1(self.decay_rate * after)
+        fall = self.dry_concentration * after * phi1(self.decay_rate * after)
         return rise + plateau + fall
 
     def highest_window_average(self, end, window):
@@ -1441,15 +1416,12 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
         notes.append(f"in {100 * np.mean(capped):.3g} % of samples the room air reaches the "
                      "saturated vapour concentration and is capped there; evaporation would "
                      "slow and the pool last longer than m/G")
-    if np.any(speed < _LOW_AIR_SPEED):
-        notes.append(f"air speed below {_LOW_AIR_SPEED:g} m/s in "
-                     f"{100 * np.mean(speed < _LOW_AIR_SPEED):.3g} % of samples: the "
-                     "evaporation models tend to under-predict at low air speeds (Lennert, "
-                     "Nielsen & Breum 1997)")
-    volatile = p_sat / p_air > _HIGH_VOLATILITY_RATIO
+    if np.any(speed < LOW_AIR_SPEED):
+        notes.append(low_air_speed_note(float(np.mean(speed < LOW_AIR_SPEED))))
+    volatile = p_sat / p_air > HIGH_VOLATILITY_RATIO
     if np.any(volatile):
         notes.append(f"in {100 * np.mean(volatile):.3g} % of samples the vapour pressure is "
-                     f"above {100 * _HIGH_VOLATILITY_RATIO:g} % of the ambient pressure; the "
+                     f"above {100 * HIGH_VOLATILITY_RATIO:g} % of the ambient pressure; the "
                      "dilute-vapour evaporation model under-predicts this close to boiling")
     if period > EIGHT_HOUR_SHIFT:
         notes.append(f"the period of {period / 3600:.3g} h is longer than 8 h; its exposure "
