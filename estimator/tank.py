@@ -2,8 +2,17 @@
 
 First-principles screening: ideal gas, a saturated vapour space at the liquid
 temperature, a free vent at constant pressure. US EPA AP-42 Chapter 7.1 gives
-the regulatory emission-estimating method for fixed-roof tanks; these functions
-reduce to its equations when its factors are set to 1.
+the regulatory emission-estimating method for fixed-roof tanks, and the two
+relate differently for the two losses:
+
+- filling (`filling_displacement`) is AP-42's working loss with its turnover,
+  product and vent factors set to 1: the displaced volume leaves saturated;
+- thermal breathing (`thermal_breathing`) is not AP-42's standing loss with
+  factors of 1: it integrates the mole balance of the venting vapour space
+  exactly over the temperature swing, where AP-42 uses the linearised
+  vapour-space expansion factor K_E = ΔT_V/T_LA + ΔP_V/(P_A - P_VA) and a
+  vented-vapour saturation factor K_S. For a small swing the two agree to first
+  order in ΔT (with K_S = 1); for a wide swing they differ.
 """
 
 from __future__ import annotations
