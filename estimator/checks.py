@@ -22,6 +22,7 @@ __all__ = [
     "finite_array",
     "positive_array",
     "single",
+    "float_or_array",
     "PRESSURE_RANGE",
     "PRESSURE_RANGE_TEXT",
     "ELEVATION_RANGE",
@@ -145,6 +146,12 @@ def single(array, field: str) -> float:
     if array.ndim != 0 and array.size != 1:
         raise InputError(field, "give a single number here, not an array")
     return float(array.reshape(()))
+
+
+def float_or_array(result):
+    """A result as a plain float when it is a scalar, else as a float array."""
+    result = np.asarray(result, dtype=float)
+    return float(result) if result.ndim == 0 else result
 
 
 def check_pressure(pressure, field: str = "pressure") -> float:
