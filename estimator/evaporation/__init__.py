@@ -75,7 +75,7 @@ from .mass_transfer import (
     evaporation_rate,
     low_air_speed_note,
     mackay_matsugu_coefficient,
-    mass_transfer_coefficient,
+    pool_mass_transfer,
     prepare_pool,
     validity_notes,
 )

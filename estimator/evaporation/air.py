@@ -220,7 +220,7 @@ def schmidt_number(kinematic_viscosity, diffusivity):
 # substance-level estimates
 
 
-def diffusion_volume(sub, field: str) -> tuple[float, str | None]:
+def diffusion_volume_of(sub, field: str) -> tuple[float, str | None]:
     """The substance's Fuller diffusion volume, or an estimate with a note."""
     if sub.diffusion_volume is not None:
         return float(sub.diffusion_volume), None
@@ -262,7 +262,7 @@ def air_diffusivity(substance_or_key, temperature, pressure=STANDARD_ATMOSPHERE)
     sub = as_substance(substance_or_key, "substance_or_key")
     t = positive_array(temperature, "temperature", "K")
     p = positive_array(pressure, "pressure", "Pa")
-    volume, note = diffusion_volume(sub, "substance_or_key")
+    volume, note = diffusion_volume_of(sub, "substance_or_key")
     if note:
         warnings.warn(note, UllageWarning, stacklevel=2)
     return fuller_diffusivity(t, p, sub.molar_mass, volume)

@@ -24,7 +24,7 @@ from ..constants import (
 )
 from ..errors import InputError
 from .air import (
-    diffusion_volume,
+    diffusion_volume_of,
     air_density,
     air_kinematic_viscosity,
     fuller_diffusivity,
@@ -35,7 +35,7 @@ from .mass_transfer import (
     check_model,
     check_wind_speed,
     epa_rmp_rate,
-    mass_transfer_coefficient,
+    pool_mass_transfer,
     validity_notes,
 )
 from .mixture import StepBudget
@@ -313,12 +313,12 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
     boiling_check(sub, np.asarray(t_air), ambient.pressure, p, "ambient_temperature")
 
     # transfer coefficients at the ambient temperature
-    volume, note = diffusion_volume(sub, "substance")
+    volume, note = diffusion_volume_of(sub, "substance")
     if note:
         notes.append(note)
     sc = float(air_kinematic_viscosity(t_air, p)) / float(
         fuller_diffusivity(t_air, p, sub.molar_mass, volume))
-    k, _, _, _, _ = mass_transfer_coefficient(sub, np.asarray(t_air), np.asarray(a), np.asarray(u), p,
+    k, _, _, _, _ = pool_mass_transfer(sub, np.asarray(t_air), np.asarray(a), np.asarray(u), p,
                                    model, "substance")
     k = float(k)
     h = float(chilton_colburn_heat_transfer_coefficient(k, sc, t_air, p)) \

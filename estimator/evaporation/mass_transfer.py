@@ -25,7 +25,7 @@ from ..constants import (
 from ..errors import OutOfRangeError, UllageError, UllageWarning
 from .air import (
     GRAMS_PER_KILOGRAM,
-    diffusion_volume,
+    diffusion_volume_of,
     air_kinematic_viscosity,
     fuller_diffusivity,
 )
@@ -331,11 +331,11 @@ def prepare_pool(substance_or_key, temperature, area, wind_speed, pressure,
     return sub, t, a, u, p, p_air, p_sat, notes
 
 
-def mass_transfer_coefficient(sub, t, a, u, p, model, field):
+def pool_mass_transfer(sub, t, a, u, p, model, field):
     """Mass-transfer coefficient [m/s], diffusivity, Schmidt number, diameter, notes."""
     diameter = np.sqrt(4.0 * a / math.pi)
     if model == "mackay-matsugu":
-        volume, note = diffusion_volume(sub, field)
+        volume, note = diffusion_volume_of(sub, field)
         d = np.asarray(fuller_diffusivity(t, p, sub.molar_mass, volume))
         sc = np.asarray(air_kinematic_viscosity(t, p)) / d
         k = np.asarray(mackay_matsugu_coefficient(u, diameter, sc))
@@ -362,7 +362,7 @@ def evaporation_estimate(substance_or_key, temperature, area, wind_speed,
     check_model(model)
     sub, t, a, u, p, p_air, p_sat, notes = prepare_pool(
         substance_or_key, temperature, area, wind_speed, pressure, partial_pressure_air)
-    k, d, sc, diameter, more = mass_transfer_coefficient(sub, t, a, u, p, model, "substance_or_key")
+    k, d, sc, diameter, more = pool_mass_transfer(sub, t, a, u, p, model, "substance_or_key")
     notes += more
     if np.any(p_air >= p_sat):
         notes.append(f"{sub.name}: the partial pressure in the air is at or above the "

@@ -23,7 +23,7 @@ from .mass_transfer import (
     EvaporationSolverError,
     check_model,
     check_wind_speed,
-    mass_transfer_coefficient,
+    pool_mass_transfer,
     validity_notes,
 )
 from .pool import DEPLETED_FRACTION, check_times
@@ -87,7 +87,7 @@ def component_conductances(subs, t, area, wind, model, pressure):
         estimate = estimates[i]
         p_sat[i] = float(estimate.pressure)
         notes += list(estimate.warnings) + list(sub.notes)
-        k, _, _, _, more = mass_transfer_coefficient(sub, np.asarray(t), np.asarray(area),
+        k, _, _, _, more = pool_mass_transfer(sub, np.asarray(t), np.asarray(area),
                                           np.asarray(wind), pressure, model,
                                           f"components[{i}]")
         notes += more
