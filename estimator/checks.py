@@ -174,8 +174,9 @@ def check_pressure(pressure, field: str = "pressure") -> float:
 
 
 def pressures_inside(pressures):
-    """True where an absolute pressure [Pa] is inside `PRESSURE_RANGE` (NaN: False)."""
+    """True where an absolute pressure [Pa] is inside `PRESSURE_RANGE` (NaN: False),
+    as a boolean numpy array (0-d for a scalar, so ``~`` negates it)."""
     p = np.asarray(pressures, dtype=float)
     with np.errstate(invalid="ignore"):
         inside = (p >= PRESSURE_RANGE[0]) & (p <= PRESSURE_RANGE[1])
-    return bool(inside) if inside.ndim == 0 else inside
+    return inside
