@@ -204,6 +204,77 @@ class PoolTemperatureHistory:
     warnings: tuple[str, ...] = ()
 
 
+def _latent_heat(sub, enthalpy_of_vaporization, notes):
+    """The latent heat of vaporization [J/kg] as a function of temperature [K]: the
+    given value, Watson's ΔHvap(T), the table's constant value, or Trouton's rule
+    (with a note)."""
+    from ..vapor import trouton_enthalpy, watson_enthalpy
+
+    if enthalpy_of_vaporization is not None:
+        dh_const = single(positive_array(enthalpy_of_vaporization, "enthalpy_of_vaporization",
+                                     "J/mol"), "enthalpy_of_vaporization")
+
+        def latent(_t):
+            return dh_const / sub.molar_mass
+    elif sub.enthalpy_of_vaporization is not None and sub.critical_temperature is not None:
+        def latent(temperature):
+            return float(watson_enthalpy(temperature, sub.boiling_point,
+                                         sub.enthalpy_of_vaporization,
+                                         sub.critical_temperature)) / sub.molar_mass
+    elif sub.enthalpy_of_vaporization is not None:
+        def latent(_t):
+            return sub.enthalpy_of_vaporization / sub.molar_mass
+    else:
+        dh_trouton = float(trouton_enthalpy(sub.boiling_point))
+        notes.append(f"{sub.name}: no enthalpy of vaporization known; Trouton's rule "
+                     "was used")
+
+        def latent(_t):
+            return dh_trouton / sub.molar_mass
+    return latent
+
+
+def _output_times(times, t_end, rate_at, t_air, m0):
+    """Output times [s] and the end of the integration [s]: 201 points to twice the
+    pool's life at the ambient rate (at most a shift), or the times given."""
+    if times is None:
+        if t_end is None:
+            r_ambient = rate_at(t_air)
+            life = m0 / r_ambient if r_ambient > 0 else math.inf
+            t_end = min(2.0 * life, EIGHT_HOUR_SHIFT)
+        else:
+            t_end = single(positive_array(t_end, "t_end", "s"), "t_end")
+        t_out = np.linspace(0.0, t_end, 201)
+    else:
+        t_out = check_times(times)
+        t_end = float(t_out[-1]) if t_end is None else single(
+            positive_array(t_end, "t_end", "s"), "t_end")
+        if t_out[-1] > t_end or t_end <= 0.0:
+            raise InputError("times", "output times must lie within (0, t_end]")
+    return t_out, t_end
+
+
+def _heat_flows(temperature, mass, t_out, rate_at, latent, bounds, ground_factor, t_ground,
+                air_conductance, t_air, solar_power, insulated):
+    """Evaporation rate [kg/s] and the heat flows [W] into the pool at each output
+    time, from the integrated temperature and mass."""
+    t_floor, t_ceiling = bounds
+    evaporation = np.array([rate_at(tt) if mm > 0.0 else 0.0
+                            for tt, mm in zip(temperature, mass)])
+    evaporation[np.isnan(temperature)] = 0.0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ground_flow = np.where(t_out > 0.0, ground_factor * (t_ground - temperature)
+                               / (2.0 * np.sqrt(t_out)), np.nan)
+    if insulated:
+        ground_flow = np.where(np.isnan(temperature), np.nan, 0.0)
+    air_flow = air_conductance * (t_air - temperature)
+    solar_flow = np.where(np.isnan(temperature), 0.0, solar_power)
+    latent_flow = -np.array([e * latent(min(max(tt, t_floor), t_ceiling))
+                             if np.isfinite(tt) else 0.0
+                             for e, tt in zip(evaporation, temperature)])
+    return evaporation, ground_flow, air_flow, solar_flow, latent_flow
+
+
 def pool_temperature_balance(substance, ambient_temperature, initial_mass, area, wind_speed,
                              liquid_heat_capacity, *, initial_temperature=None,
                              ground="concrete", ground_temperature=None, solar_flux=0.0,
@@ -284,7 +355,7 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
     from scipy.integrate import solve_ivp
 
     from ..substances import as_substance
-    from ..vapor import vapor_pressure_estimate, watson_enthalpy, trouton_enthalpy
+    from ..vapor import vapor_pressure_estimate
 
     check_model(model)
     if ground not in GROUND_TYPES:
@@ -326,27 +397,7 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
     conductivity, diffusivity = GROUND_TYPES[ground]
     ground_factor = 2.0 * conductivity * a / math.sqrt(math.pi * diffusivity)
 
-    if enthalpy_of_vaporization is not None:
-        dh_const = single(positive_array(enthalpy_of_vaporization, "enthalpy_of_vaporization",
-                                     "J/mol"), "enthalpy_of_vaporization")
-
-        def latent(_t):
-            return dh_const / sub.molar_mass
-    elif sub.enthalpy_of_vaporization is not None and sub.critical_temperature is not None:
-        def latent(temperature):
-            return float(watson_enthalpy(temperature, sub.boiling_point,
-                                         sub.enthalpy_of_vaporization,
-                                         sub.critical_temperature)) / sub.molar_mass
-    elif sub.enthalpy_of_vaporization is not None:
-        def latent(_t):
-            return sub.enthalpy_of_vaporization / sub.molar_mass
-    else:
-        dh_trouton = float(trouton_enthalpy(sub.boiling_point))
-        notes.append(f"{sub.name}: no enthalpy of vaporization known; Trouton's rule "
-                     "was used")
-
-        def latent(_t):
-            return dh_trouton / sub.molar_mass
+    latent = _latent_heat(sub, enthalpy_of_vaporization, notes)
 
     t_floor = (sub.melting_point if sub.melting_point is not None else 0.5 * t_air) + 0.01
     t_ceiling = sub.boiling_point - 0.01
@@ -358,20 +409,7 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
             return k * a * p_sat * sub.molar_mass / (GAS_CONSTANT * temperature)
         return float(epa_rmp_rate(sub.molar_mass, p_sat, a, u, temperature))
 
-    if times is None:
-        if t_end is None:
-            r_ambient = rate_at(t_air)
-            life = m0 / r_ambient if r_ambient > 0 else math.inf
-            t_end = min(2.0 * life, EIGHT_HOUR_SHIFT)
-        else:
-            t_end = single(positive_array(t_end, "t_end", "s"), "t_end")
-        t_out = np.linspace(0.0, t_end, 201)
-    else:
-        t_out = check_times(times)
-        t_end = float(t_out[-1]) if t_end is None else single(
-            positive_array(t_end, "t_end", "s"), "t_end")
-        if t_out[-1] > t_end or t_end <= 0.0:
-            raise InputError("times", "output times must lie within (0, t_end]")
+    t_out, t_end = _output_times(times, t_end, rate_at, t_air, m0)
 
     budget = StepBudget(int(max_evaluations), float(time_limit))
 
@@ -431,19 +469,9 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
         mass[done:] = 0.0
         temperature[done:] = np.nan
         notes.append("after the pool is gone its temperature is reported as NaN")
-    evaporation = np.array([rate_at(tt) if mm > 0.0 else 0.0
-                            for tt, mm in zip(temperature, mass)])
-    evaporation[np.isnan(temperature)] = 0.0
-    with np.errstate(divide="ignore", invalid="ignore"):
-        ground_flow = np.where(t_out > 0.0, ground_factor * (t_ground - temperature)
-                               / (2.0 * np.sqrt(t_out)), np.nan)
-    if ground == "insulated":
-        ground_flow = np.where(np.isnan(temperature), np.nan, 0.0)
-    air_flow = h * a * (t_air - temperature)
-    solar_flow = np.where(np.isnan(temperature), 0.0, solar * a)
-    latent_flow = -np.array([e * latent(min(max(tt, t_floor), t_ceiling))
-                             if np.isfinite(tt) else 0.0
-                             for e, tt in zip(evaporation, temperature)])
+    evaporation, ground_flow, air_flow, solar_flow, latent_flow = _heat_flows(
+        temperature, mass, t_out, rate_at, latent, (t_floor, t_ceiling), ground_factor,
+        t_ground, h * a, t_air, solar * a, ground == "insulated")
 
     # energy check at the end of the integration
     final = y[:, -1]
