@@ -112,6 +112,77 @@ class IndoorSpill:
         return self.volume_fraction(zone) * 1e6
 
 
+def _spilled_mass(liq, spilled_volume, spilled_mass, v_room, area, dike_area, depth):
+    """Spilled mass [kg] and pool area [m2] from the volume or the mass given, and the
+    area given, the dike or the undiked spreading depth."""
+    if (spilled_volume is None) == (spilled_mass is None):
+        raise InputError("spilled volume", "give either the spilled volume or the spilled "
+                         "mass (one of the two)")
+    if spilled_mass is None:
+        vol = positive(spilled_volume, "spilled volume", "m3")
+        if vol >= v_room:
+            raise InputError("spilled volume", f"{vol:g} m3 is not smaller than the room "
+                             f"({v_room:g} m3); check the units")
+        mass = vol * liquid_mixture_density(liq)
+    else:
+        mass = positive(spilled_mass, "spilled mass", "kg")
+        vol = None
+    if area is None:
+        if vol is None:
+            vol = mass / liquid_mixture_density(liq)
+        area = spill_pool_area(vol, dike_area, depth)
+    return mass, positive(area, "pool area", "m2")
+
+
+def _output_times(times, duration):
+    """Output times [s] (every 10 s over the duration, or those given) and the end."""
+    if times is None:
+        end = positive(duration, "duration", "s")
+        t_out = np.linspace(0.0, end, int(round(end / 10.0)) + 1)
+    else:
+        t_out = np.asarray(times, dtype=float)
+        if t_out.ndim != 1 or t_out.size < 2 or not np.all(np.isfinite(t_out)):
+            raise InputError("times", "give at least two finite output times")
+        if t_out[0] < 0 or np.any(np.diff(t_out) <= 0):
+            raise InputError("times", "times must start at or after 0 and increase")
+        end = float(t_out[-1])
+    return t_out, end
+
+
+def _integrate_segments(rhs, y0, t_out, segments, atol):
+    """Integrate ``rhs`` over each (start, end, source active) segment, reporting the
+    state at `t_out` (LSODA through ``scipy.integrate.odeint``)."""
+    from scipy.integrate import odeint
+
+    y_out = np.empty((t_out.size, y0.size))
+    y_start = y0
+    for index, (t0, t1, active) in enumerate(segments):
+        mask = (t_out >= t0) & (t_out <= t1) if index else (t_out <= t1)
+        if t1 <= t0:
+            y_out[mask] = y_start
+            continue
+        grid = np.concatenate(([t0], t_out[mask & (t_out > t0)], [t1]))
+        try:
+            values, info = odeint(rhs, y_start, grid, args=(active,), tfirst=True,
+                                  rtol=1e-8, atol=atol, full_output=True,
+                                  hmax=max((t1 - t0) / 50.0, 1e-3), mxstep=20_000)
+        except EvaporationSolverError:
+            raise
+        except Exception as exc:
+            raise EvaporationSolverError(f"the spill integration failed: {exc}") from None
+        if info["message"] != "Integration successful.":
+            raise EvaporationSolverError(f"the spill integration failed: {info['message']}")
+        inside = values[1:-1]
+        if t_out[mask][0] == t0:
+            inside = np.vstack((values[:1], inside))
+        y_out[mask] = inside
+        y_start = values[-1]
+    if not np.all(np.isfinite(y_out)):
+        raise EvaporationSolverError("the spill integration produced no finite result; "
+                                     "check the inputs for extreme values")
+    return y_out
+
+
 def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_volume=None,
                  spilled_mass=None, area=None, dike_area=None, depth=UNDIKED_SPILL_DEPTH,
                  mixing_factor=1.0, air_speed=0.1, times=None, duration=EIGHT_HOUR_SHIFT,
@@ -175,8 +246,6 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     -------
     IndoorSpill
     """
-    from scipy.integrate import odeint
-
     liq = make_liquid(liquid, basis, activity_coefficients)
     t_k = positive(temperature, "temperature", "K")
     v_room = positive(room_volume, "room volume", "m3")
@@ -185,23 +254,8 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     if not math.isfinite(k_mix) or k_mix < 1.0:
         raise InputError("mixing factor", f"{mixing_factor!r} must be 1 or more: ullage "
                          "divides the ventilation rate by K >= 1 (effective ventilation Q/K)")
-    if (spilled_volume is None) == (spilled_mass is None):
-        raise InputError("spilled volume", "give either the spilled volume or the spilled "
-                         "mass (one of the two)")
-    if spilled_mass is None:
-        vol = positive(spilled_volume, "spilled volume", "m3")
-        if vol >= v_room:
-            raise InputError("spilled volume", f"{vol:g} m3 is not smaller than the room "
-                             f"({v_room:g} m3); check the units")
-        mass = vol * liquid_mixture_density(liq)
-    else:
-        mass = positive(spilled_mass, "spilled mass", "kg")
-        vol = None
-    if area is None:
-        if vol is None:
-            vol = mass / liquid_mixture_density(liq)
-        area = spill_pool_area(vol, dike_area, depth)
-    pool_area = positive(area, "pool area", "m2")
+    mass, pool_area = _spilled_mass(liq, spilled_volume, spilled_mass, v_room, area,
+                                    dike_area, depth)
     two_zone = near_field_volume is not None or interzonal_flow is not None
     if two_zone:
         if near_field_volume is None or interzonal_flow is None:
@@ -211,16 +265,7 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
         beta = positive(interzonal_flow, "interzonal airflow", "m3/s")
         if v_nf >= v_room:
             raise InputError("near-field volume", "must be smaller than the room volume")
-    if times is None:
-        end = positive(duration, "duration", "s")
-        t_out = np.linspace(0.0, end, int(round(end / 10.0)) + 1)
-    else:
-        t_out = np.asarray(times, dtype=float)
-        if t_out.ndim != 1 or t_out.size < 2 or not np.all(np.isfinite(t_out)):
-            raise InputError("times", "give at least two finite output times")
-        if t_out[0] < 0 or np.any(np.diff(t_out) <= 0):
-            raise InputError("times", "times must start at or after 0 and increase")
-        end = float(t_out[-1])
+    t_out, end = _output_times(times, duration)
     t_remove = None
     if source_removed_at is not None:
         t_remove = positive(source_removed_at, "source removed at", "s", allow_zero=True)
@@ -290,36 +335,10 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     segments = [(0.0, end, True)]
     if t_remove is not None and t_remove < end:
         segments = [(0.0, t_remove, True), (t_remove, end, False)]
-    n_state = y0.size
-    y_out = np.empty((t_out.size, n_state))
     scale = np.concatenate((n0, np.full(zones * n_comp, mass / v_room),
                             np.full(n_comp, mass)))
     atol = np.maximum(scale, 1e-30) * 1e-12
-    y_start = y0
-    for index, (t0, t1, active) in enumerate(segments):
-        mask = (t_out >= t0) & (t_out <= t1) if index else (t_out <= t1)
-        if t1 <= t0:
-            y_out[mask] = y_start
-            continue
-        grid = np.concatenate(([t0], t_out[mask & (t_out > t0)], [t1]))
-        try:
-            values, info = odeint(rhs, y_start, grid, args=(active,), tfirst=True,
-                                  rtol=1e-8, atol=atol, full_output=True,
-                                  hmax=max((t1 - t0) / 50.0, 1e-3), mxstep=20_000)
-        except EvaporationSolverError:
-            raise
-        except Exception as exc:
-            raise EvaporationSolverError(f"the spill integration failed: {exc}") from None
-        if info["message"] != "Integration successful.":
-            raise EvaporationSolverError(f"the spill integration failed: {info['message']}")
-        inside = values[1:-1]
-        if t_out[mask][0] == t0:
-            inside = np.vstack((values[:1], inside))
-        y_out[mask] = inside
-        y_start = values[-1]
-    if not np.all(np.isfinite(y_out)):
-        raise EvaporationSolverError("the spill integration produced no finite result; "
-                                     "check the inputs for extreme values")
+    y_out = _integrate_segments(rhs, y0, t_out, segments, atol)
     n_t = np.clip(y_out[:, :n_comp], 0.0, None)
     air = y_out[:, n_comp:(1 + zones) * n_comp]
     ventilated = y_out[:, (1 + zones) * n_comp:]
