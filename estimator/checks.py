@@ -26,6 +26,8 @@ __all__ = [
     "PRESSURE_RANGE",
     "PRESSURE_RANGE_TEXT",
     "ELEVATION_RANGE",
+    "BAROMETRIC_RANGE",
+    "check_barometric_pressure",
     "check_pressure",
     "pressures_inside",
 ]
@@ -42,6 +44,13 @@ PRESSURE_RANGE_TEXT = ("pressures are absolute, in pascals (101325 Pa = 1 atm), 
 
 #: Site elevations accepted, those of the standard troposphere. [m] ISO 2533:1975.
 ELEVATION_RANGE = (-500.0, 11000.0)
+
+#: Barometric pressures accepted for a site, both excluded: 30 to 120 kPa. [Pa]
+#: The standard atmosphere (ISO 2533:1975) gives about 107.5 kPa at -500 m and
+#: 30 kPa near 9 km; the upper bound leaves room for weather. A reading outside
+#: it is a unit slip (hPa, psi, a gauge reading) far more often than a real site
+#: (common practice).
+BAROMETRIC_RANGE = (3e4, 1.2e5)
 
 
 def _unit(unit: str) -> str:
@@ -170,6 +179,22 @@ def check_pressure(pressure, field: str = "pressure") -> float:
         raise InputError(field, f"{p:g} Pa: the absolute pressure must be above zero")
     if not pressures_inside(p):
         raise InputError(field, f"{p:g} Pa is outside the accepted range: {PRESSURE_RANGE_TEXT}")
+    return p
+
+
+def check_barometric_pressure(pressure, field: str = "barometric pressure") -> float:
+    """A site's barometric pressure inside `BAROMETRIC_RANGE`. [Pa]
+
+    Examples
+    --------
+    >>> check_barometric_pressure(84000.0)
+    84000.0
+    """
+    p = number(pressure, field, "Pa")
+    low, high = BAROMETRIC_RANGE
+    if not low < p < high:
+        raise InputError(field, f"{p:g} Pa: must be between 30 and 120 kPa (a barometric "
+                                "pressure, absolute; 101.325 kPa at sea level)")
     return p
 
 

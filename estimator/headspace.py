@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .checks import ELEVATION_RANGE, check_pressure
+from .checks import ELEVATION_RANGE, check_barometric_pressure, check_pressure
 from .constants import (
     GAS_CONSTANT,
     MOLAR_MASS_AIR,
@@ -120,7 +120,7 @@ def site_pressure(barometric=None, elevation=None, gauge=0.0) -> float:
         raise InputError("barometric pressure", "give either the barometric pressure or "
                          "the site elevation, not both")
     if barometric is not None:
-        base = check_pressure(barometric, "barometric pressure")
+        base = check_barometric_pressure(barometric, "barometric pressure")
     elif elevation is not None:
         base = barometric_pressure(elevation)
     else:

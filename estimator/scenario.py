@@ -37,6 +37,7 @@ from pathlib import Path
 from types import MappingProxyType
 
 from ._meta import __version__
+from .checks import check_barometric_pressure
 from .constants import STANDARD_ATMOSPHERE
 from .errors import InputError, UnknownSubstanceError
 from .substances import Substance
@@ -362,9 +363,10 @@ def _read_conditions(r, doc):
         r.fail("conditions", None, "elevation", "give the barometric pressure or the "
                "elevation, not both")
     if baro is not None:
-        if not 3e4 < baro < 1.2e5:
+        try:
+            pressure = check_barometric_pressure(baro)
+        except InputError:
             r.fail("conditions", None, "barometric_pressure", "must be between 30 and 120 kPa")
-        pressure = baro
     elif elev is not None:
         try:
             pressure = barometric_pressure(elev)
