@@ -511,28 +511,10 @@ def _method_labels(liq: Liquid, method_nominal: np.ndarray, method_worst: np.nda
     return np.array(labels, dtype=object)[inverse], np.array(spreads)[inverse]
 
 
-def _screen(frame: pd.DataFrame, columns: ColumnRoles, file_pressure: float,
-            alarms: FlammabilityAlarms):
-    n = len(frame)
-    roles, units = columns.roles, columns.units
-    lines = np.arange(n) + 2
-    issues = _Issues(lines)
-    notes: list[str] = []
-
-    _, liquid_blank = text_cells(frame[roles["liquid"]])
-    empty = _empty_rows(frame, liquid_blank)
-    issues.error(np.flatnonzero(empty), None, "the row is empty")
-    _read_formulas(frame, roles, issues)
-    _read_containers(frame[roles["container"]], roles["container"], empty, issues, notes)
-    temperatures, nominal, nominal_from, worst, worst_from = _read_temperatures(
-        frame, roles, units, issues, empty)
-    _read_fill(frame, roles, issues)
-    row_pressure = _read_pressures(frame, roles, units, file_pressure, issues)
-    limits = _read_limits(frame, roles, issues)
-    sets, row_set, row_composition = _read_liquids(frame, roles, empty, issues)
-
-    # Temperature limits of each liquid (melting point, critical point), per set.
-    row_set = np.where(issues.error_mask(n), -1, row_set)
+def _check_temperature_bounds(sets, row_set, temperatures, issues) -> None:
+    """Refuse temperatures outside each liquid's range (melting point, critical
+    point), one component set at a time."""
+    row_set = np.where(issues.error_mask(len(row_set)), -1, row_set)
     for g, rows in enumerate(rows_by_code(row_set, len(sets))):
         if rows.size == 0:
             continue
@@ -546,9 +528,13 @@ def _screen(frame: pd.DataFrame, columns: ColumnRoles, file_pressure: float,
                 issues.error(bad, column.label, _temperature_messages(
                     int(code), column.values[bad], column.unit, bounds, liq))
 
-    # Each component set in one evaluation, at the liquid and worst-case temperatures.
-    row_set = np.where(issues.error_mask(n), -1, row_set)
-    computed = row_set >= 0
+
+def _evaluate_sets(sets, row_set, row_composition, nominal, worst, nominal_from, worst_from,
+                   row_pressure, roles, issues):
+    """Each component set in one evaluation, at the liquid and the worst-case
+    temperatures: the per-row results, flammability state, whether the liquid has
+    a fuel, the method labels and the count of distinct compositions evaluated."""
+    n = row_set.size
     result = {name: np.full(n, np.nan) for name in
               ("headspace_ppm", "worst_case_ppm", "worst_case_mg_per_m3",
                "worst_case_percent_lfl", "worst_case_oxygen_percent",
@@ -595,8 +581,12 @@ def _screen(frame: pd.DataFrame, columns: ColumnRoles, file_pressure: float,
             issues.caution(rows, roles["liquid"], "an upper flammability limit is missing "
                            "for a flammable component; the too-rich state cannot be judged "
                            "for it")
+    return result, flammability, has_fuel, method_text, evaluated
 
-    # Limits, vapour hazard ratio and concern.
+
+def _concern(result, limits, has_fuel, alarms: FlammabilityAlarms, computed, notes):
+    """Limit ratios, vapour hazard ratio and the concern with its driver and rank."""
+    n = computed.size
     with np.errstate(invalid="ignore", divide="ignore"):
         ratios = {kind: result["worst_case_ppm"] / limits[kind] for kind in LIMIT_KINDS}
         stacked = np.vstack([limits[k] for k in LIMIT_KINDS])
@@ -620,6 +610,39 @@ def _screen(frame: pd.DataFrame, columns: ColumnRoles, file_pressure: float,
     driver_names = np.array(["exposure limit", "LFL alarm", "oxygen"], dtype=object)
     driver = np.where(np.isfinite(concern), driver_names[filled.argmax(axis=0)], None)
     rank = pd.Series(concern).rank(ascending=False, method="min").astype("Int64")
+    return ratios, vapor_hazard, concern, driver, rank
+
+
+def _screen(frame: pd.DataFrame, columns: ColumnRoles, file_pressure: float,
+            alarms: FlammabilityAlarms):
+    n = len(frame)
+    roles, units = columns.roles, columns.units
+    lines = np.arange(n) + 2
+    issues = _Issues(lines)
+    notes: list[str] = []
+
+    _, liquid_blank = text_cells(frame[roles["liquid"]])
+    empty = _empty_rows(frame, liquid_blank)
+    issues.error(np.flatnonzero(empty), None, "the row is empty")
+    _read_formulas(frame, roles, issues)
+    _read_containers(frame[roles["container"]], roles["container"], empty, issues, notes)
+    temperatures, nominal, nominal_from, worst, worst_from = _read_temperatures(
+        frame, roles, units, issues, empty)
+    _read_fill(frame, roles, issues)
+    row_pressure = _read_pressures(frame, roles, units, file_pressure, issues)
+    limits = _read_limits(frame, roles, issues)
+    sets, row_set, row_composition = _read_liquids(frame, roles, empty, issues)
+
+    _check_temperature_bounds(sets, row_set, temperatures, issues)
+
+    row_set = np.where(issues.error_mask(n), -1, row_set)
+    computed = row_set >= 0
+    result, flammability, has_fuel, method_text, evaluated = _evaluate_sets(
+        sets, row_set, row_composition, nominal, worst, nominal_from, worst_from,
+        row_pressure, roles, issues)
+
+    ratios, vapor_hazard, concern, driver, rank = _concern(result, limits, has_fuel,
+                                                           alarms, computed, notes)
 
     # Status and reason: errors first, then cautions.
     status, reason = issues.assemble(n)
