@@ -275,6 +275,27 @@ def _heat_flows(temperature, mass, t_out, rate_at, latent, bounds, ground_factor
     return evaporation, ground_flow, air_flow, solar_flow, latent_flow
 
 
+def _pool_events(m0, t_floor, t_ceiling):
+    """Terminal events of the pool heat balance, in the order the results read
+    them: the pool is gone, it reaches its melting point, it reaches its boiling
+    point (state y = T [K], m [kg], ...)."""
+    def gone(_s, y):
+        return y[1] - DEPLETED_FRACTION * m0
+    gone.terminal = True
+    gone.direction = -1
+
+    def freezing(_s, y):
+        return y[0] - t_floor
+    freezing.terminal = True
+    freezing.direction = -1
+
+    def boiling(_s, y):
+        return t_ceiling - y[0]
+    boiling.terminal = True
+    boiling.direction = -1
+    return [gone, freezing, boiling]
+
+
 def pool_temperature_balance(substance, ambient_temperature, initial_mass, area, wind_speed,
                              liquid_heat_capacity, *, initial_temperature=None,
                              ground="concrete", ground_temperature=None, solar_flux=0.0,
@@ -429,25 +450,10 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
                          2.0 * s * q_air, 2.0 * s * q_solar, 2.0 * s * q_latent,
                          2.0 * s * carried])
 
-    def gone(_s, y):
-        return y[1] - DEPLETED_FRACTION * m0
-    gone.terminal = True
-    gone.direction = -1
-
-    def freezing(_s, y):
-        return y[0] - t_floor
-    freezing.terminal = True
-    freezing.direction = -1
-
-    def boiling(_s, y):
-        return t_ceiling - y[0]
-    boiling.terminal = True
-    boiling.direction = -1
-
     s_out = np.sqrt(t_out)
     y0 = np.array([t0, m0, 0.0, 0.0, 0.0, 0.0, 0.0])
     solution = solve_ivp(rhs, (0.0, math.sqrt(t_end)), y0, method="LSODA", t_eval=s_out,
-                         events=[gone, freezing, boiling], rtol=1e-8,
+                         events=_pool_events(m0, t_floor, t_ceiling), rtol=1e-8,
                          atol=np.array([1e-8, 1e-12 * m0, 1e-6, 1e-6, 1e-6, 1e-6, 1e-6]))
     if solution.status < 0:
         raise EvaporationSolverError(f"the pool energy balance failed: {solution.message}")
