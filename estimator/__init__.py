@@ -10,17 +10,7 @@ The stable API takes and returns SI units (K, Pa, kg, m, s, mol) as floats or
 numpy arrays.
 """
 
-__version__ = "0.1.0"
-
-#: The cautions every result carries.
-CAUTIONS = (
-    "This is a screening estimate, not a measurement.",
-    "Measure the real atmosphere with calibrated direct-reading instruments before "
-    "anyone enters or opens a space.",
-    "Follow local codes, permits, confined-space and hot-work rules, and qualified "
-    "industrial-hygiene and process-safety practice.",
-)
-
+from ._meta import CAUTIONS, __version__
 from .errors import (
     ExtrapolationWarning,
     InputError,

@@ -12,28 +12,15 @@ import sys
 import textwrap
 from pathlib import Path
 
-from . import CAUTIONS, __version__
-from .errors import InputError, UllageError
+from ._meta import CAUTIONS, __version__
+from .errors import UllageError
 
-EXIT_OK = 0
-EXIT_LIMIT = 1
-EXIT_BAD_INPUT = 2
-
-def _cautions_block() -> str:
-    lines = ["", "Cautions:"]
-    for caution in CAUTIONS:
-        lines.append(textwrap.fill(caution, width=78, initial_indent="  - ",
-                                   subsequent_indent="    "))
-    return "\n".join(lines)
-
-
-class _BadInput(InputError):
-    """A command-line argument that cannot be used."""
+from .cli_common import EXIT_BAD_INPUT, EXIT_LIMIT, EXIT_OK, BadInput, cautions_block
 
 
 def _out(text: str, output: str | None) -> None:
     if output:
-        from .report import write_text_atomic
+        from .files import write_text_atomic
 
         write_text_atomic(output, text)
         print(f"wrote {output}", file=sys.stderr)
@@ -124,7 +111,7 @@ def _describe(s) -> str:
     out.append("\nSources:")
     out += [f"  {group}: {source}" for group, source in s.sources.items()]
     out += [textwrap.fill("note: " + n, width=78, subsequent_indent="      ") for n in s.notes]
-    return "\n".join(out) + "\n" + _cautions_block()
+    return "\n".join(out) + "\n" + cautions_block()
 
 
 def _summary(result) -> str:
@@ -151,7 +138,7 @@ def _summary(result) -> str:
         lines += ["", "Assumptions:"]
         lines += [textwrap.fill(a, width=78, initial_indent="  - ", subsequent_indent="    ")
                   for a in result.assumptions]
-    return "\n".join(lines) + "\n" + _cautions_block() + "\n"
+    return "\n".join(lines) + "\n" + cautions_block() + "\n"
 
 
 def _load(path):
@@ -238,33 +225,31 @@ def _cmd_sweep(args) -> int:
     low = parse_temperature(args.low, "--from")
     high = parse_temperature(args.high, "--to")
     if high <= low:
-        raise _BadInput("--to", "must be above --from")
+        raise BadInput("--to", "must be above --from")
     step = parse_quantity(args.step, "temperature_difference", "--step")
     if step <= 0:
-        raise _BadInput("--step", "must be above zero")
+        raise BadInput("--step", "must be above zero")
     if (high - low) / step > 2000:
-        raise _BadInput("--step", "gives more than 2000 rows; use a larger step")
+        raise BadInput("--step", "gives more than 2000 rows; use a larger step")
     pressure = parse_quantity(args.pressure, "pressure", "--pressure")
     grid = np.arange(low, high + step / 2, step)
     if args.liquid:
         hs = headspace(parse_liquid(args.liquid, args.basis, "liquid"), grid, pressure)
     else:
         if not args.scenario or not args.tank:
-            raise _BadInput("liquid", "give a liquid (\"toluene\", or \"toluene 60%, o-xylene "
+            raise BadInput("liquid", "give a liquid (\"toluene\", or \"toluene 60%, o-xylene "
                             "40%\") or --scenario FILE --tank NAME")
         sc = _load(args.scenario)
         tank = {t["name"].lower(): t for t in sc.tanks}.get(args.tank.lower())
         if tank is None:
-            raise _BadInput("--tank", f"no tank {args.tank!r} in the scenario; tanks: "
+            raise BadInput("--tank", f"no tank {args.tank!r} in the scenario; tanks: "
                             f"{', '.join(t['name'] for t in sc.tanks) or 'none'}")
         entry = sc.liquids[tank["liquid"]]
         p = sc.pressure + tank.get("gauge_pressure", 0.0)
         if entry["kind"] == "water":
             hs = water_headspace({s.key: c for s, c in entry["spec"].items()}, grid, p)
         else:
-            from .scenario import _build_liquid
-
-            hs = headspace(_build_liquid(entry), grid, p)
+            hs = headspace(sc.liquid(tank["liquid"]), grid, p)
     names = [c.key for c in hs.liquid.components]
     header = ["T [degC]", "total ppm", "mg/m3", "% LFL", "O2 %", "state"] + \
         [f"{n} ppm" for n in names]
@@ -297,7 +282,7 @@ def _cmd_sweep(args) -> int:
     methods = sorted({f"{e.description} ({e.source})" for e in hs.vapor_pressure_methods})
     lines += ["", "Vapour pressure: " + "; ".join(methods)]
     lines += [f"note: {w}" for w in hs.warnings]
-    _out("\n".join(lines) + "\n" + _cautions_block() + "\n", args.output)
+    _out("\n".join(lines) + "\n" + cautions_block() + "\n", args.output)
     return EXIT_OK
 
 
@@ -308,14 +293,14 @@ def _cmd_inventory(args) -> int:
 
     pressure = parse_quantity(args.pressure, "pressure", "--pressure")
     if args.top < 0:
-        raise _BadInput("--top", "give a number of rows, 0 or more")
+        raise BadInput("--top", "give a number of rows, 0 or more")
     result = screen_inventory(args.file, pressure=pressure,
                               max_bytes=parse_size(args.max_size, "--max-size"))
     if args.output:
         write_inventory_csv(result, args.output)
         print(f"wrote {args.output}", file=sys.stderr)
     print(inventory_summary_text(result, top=args.top, output=args.output))
-    print(_cautions_block())
+    print(cautions_block())
     errors = result.summary.counts.get("error", 0)
     if errors:
         print(f"ullage: {errors} row(s) could not be computed; they are listed above"
@@ -331,7 +316,7 @@ def _cmd_demo(args) -> int:
 
     files = demo_scenarios()
     if not files:
-        raise _BadInput("demo", "no demo scenarios are in this installation; reinstall "
+        raise BadInput("demo", "no demo scenarios are in this installation; reinstall "
                         "ullage (pip install ullage)")
     for path in files:
         result = run_scenario(_load(path))
@@ -362,7 +347,7 @@ def _cmd_app(args) -> int:
     try:
         from ullage_ui import launch
     except ImportError:
-        raise _BadInput("app", "the browser front end (package ullage_ui) is not in this "
+        raise BadInput("app", "the browser front end (package ullage_ui) is not in this "
                         "installation; reinstall ullage (pip install ullage)") from None
     command = launch.command(["--server.address", args.address,
                               "--server.port", str(args.port)])

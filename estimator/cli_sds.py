@@ -28,15 +28,15 @@ def add_parser(sub) -> None:
 
 
 def command(args) -> int:
-    from .cli import EXIT_OK, _BadInput, _cautions_block
+    from .cli_common import EXIT_OK, BadInput, cautions_block
     from .errors import UllageError
     from .headspace import headspace
-    from .report import write_text_atomic
+    from .files import write_text_atomic
     from .sds import read_sds
     from .units import parse_temperature
 
     if args.output and not args.output.lower().endswith(".toml"):
-        raise _BadInput("--output", f"{args.output!r}: the [[liquid]] block goes in a .toml "
+        raise BadInput("--output", f"{args.output!r}: the [[liquid]] block goes in a .toml "
                         "file")
     temperature = parse_temperature(args.temperature, "--temperature")
     reading = read_sds(args.file)
@@ -65,7 +65,7 @@ def command(args) -> int:
     except UllageError as exc:
         out += [f"The liquid could not be screened: {exc}. What was read is shown above; "
                 "correct the composition or pick a surrogate (--surrogate)."]
-    sys.stdout.write("\n".join(out) + "\n" + _cautions_block() + "\n")
+    sys.stdout.write("\n".join(out) + "\n" + cautions_block() + "\n")
     if args.output:
         write_text_atomic(args.output, reading.to_toml(args.name, point=args.point,
                                                        unidentified=treat))

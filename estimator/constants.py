@@ -46,6 +46,27 @@ FOOT = 0.3048
 #: (133.322 387 415 Pa, from 13.5951 g/cm3 mercury under standard gravity).
 MILLIMETRE_OF_MERCURY = 133.322387415
 
+#: Pound-force per square inch. [Pa] Derived from the exact pound, foot and
+#: standard gravity (NIST SP 811 (2008), Appendix B):
+#: 0.45359237 kg x 9.80665 m/s2 / (0.3048 m / 12)^2.
+POUND_FORCE_PER_SQUARE_INCH = POUND_MASS * STANDARD_GRAVITY / (FOOT / 12.0) ** 2
+
+#: Pascals per pressure unit: the one table of pressure-unit factors (exact by
+#: definition, or NIST SP 811 for mmHg and psi). Gauge or absolute is the
+#: caller's business; "psi" here is pound-force per square inch.
+PRESSURE_UNITS = {
+    "Pa": 1.0,
+    "hPa": 1e2,
+    "kPa": 1e3,
+    "MPa": 1e6,
+    "bar": BAR,
+    "mbar": BAR / 1e3,
+    "atm": STANDARD_ATMOSPHERE,
+    "mmHg": MILLIMETRE_OF_MERCURY,
+    "torr": STANDARD_ATMOSPHERE / 760.0,
+    "psi": POUND_FORCE_PER_SQUARE_INCH,
+}
+
 #: Seconds in one minute and in one hour. [s] SI definitions.
 SECONDS_PER_MINUTE = 60.0
 SECONDS_PER_HOUR = 3600.0

@@ -14,6 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from .checks import ELEVATION_RANGE, check_barometric_pressure, check_pressure
 from .constants import (
     GAS_CONSTANT,
     MOLAR_MASS_AIR,
@@ -90,7 +91,8 @@ def barometric_pressure(elevation):
     83431
     """
     h = np.asarray(elevation, dtype=float)
-    if not np.all(np.isfinite(h)) or np.any(h < -500.0) or np.any(h > 11000.0):
+    low, high = ELEVATION_RANGE
+    if not np.all(np.isfinite(h)) or np.any(h < low) or np.any(h > high):
         raise InputError("elevation", "must be between -500 m and 11000 m above sea level")
     exponent = STANDARD_GRAVITY * MOLAR_MASS_AIR / (GAS_CONSTANT * _LAPSE_RATE)
     p = STANDARD_ATMOSPHERE * (1.0 - _LAPSE_RATE * h / _SEA_LEVEL_TEMPERATURE) ** exponent
@@ -118,7 +120,7 @@ def site_pressure(barometric=None, elevation=None, gauge=0.0) -> float:
         raise InputError("barometric pressure", "give either the barometric pressure or "
                          "the site elevation, not both")
     if barometric is not None:
-        base = _check_pressure(barometric, "barometric pressure")
+        base = check_barometric_pressure(barometric, "barometric pressure")
     elif elevation is not None:
         base = barometric_pressure(elevation)
     else:
@@ -128,19 +130,6 @@ def site_pressure(barometric=None, elevation=None, gauge=0.0) -> float:
         raise InputError("gauge pressure", f"the absolute pressure would be {total:g} Pa; "
                          "a gauge pressure cannot be below minus the barometric pressure")
     return total
-
-
-def _check_pressure(pressure, field="pressure") -> float:
-    try:
-        p = float(pressure)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a pressure in Pa, got {pressure!r}") from None
-    if not math.isfinite(p) or p <= 0:
-        raise InputError(field, f"{p:g} Pa: the absolute pressure must be above zero")
-    if p < 1e3 or p > 1e7:
-        raise InputError(field, f"{p:g} Pa is outside 1 kPa-10 MPa; pressures are "
-                         "absolute, in pascals (101325 Pa = 1 atm)")
-    return p
 
 
 def le_chatelier(volume_fractions, limits):
@@ -413,7 +402,7 @@ def headspace(liquid, temperature, pressure=STANDARD_ATMOSPHERE, *, basis="mole"
     (37400.0, 'flammable')
     """
     liq = make_liquid(liquid, basis, activity_coefficients)
-    p_total = _check_pressure(pressure)
+    p_total = check_pressure(pressure)
     estimates = _estimates(liq, temperature, "temperature")
     notes = list(liq.warnings) + [n for c in liq.components for n in c.notes]
     for e in estimates:
@@ -509,7 +498,7 @@ def water_headspace(dissolved, temperature, pressure=STANDARD_ATMOSPHERE) -> Hea
 
     if not dissolved:
         raise InputError("dissolved", "name at least one dissolved compound")
-    p_total = _check_pressure(pressure)
+    p_total = check_pressure(pressure)
     water = as_substance("water")
     solutes = [as_substance(k, "dissolved compound") for k in dissolved]
     notes: list[str] = []
@@ -726,7 +715,7 @@ def estimated_flash_point(liquid, pressure=STANDARD_ATMOSPHERE, *, basis="mole",
     except AboveAtLowestTemperature:
         if not liq.is_pure:
             raise
-        estimate = _subcooled_lfl_temperature(liq.components[0], _check_pressure(pressure))
+        estimate = _subcooled_lfl_temperature(liq.components[0], check_pressure(pressure))
         whenever_liquid = True
         note = (f"the vapour over the liquid is flammable at every temperature at which it "
                 f"is liquid: the saturated vapour reaches the LFL at {estimate - 273.15:.1f} "
@@ -882,7 +871,7 @@ def boiling_temperature(liquid, pressure, *, basis="mole",
     from scipy.optimize import brentq
 
     liq = make_liquid(liquid, basis, activity_coefficients)
-    p_total = _check_pressure(pressure)
+    p_total = check_pressure(pressure)
     lo, hi = _liquid_range(liq)
 
     def f(t):

@@ -25,6 +25,7 @@ from pathlib import Path
 import numpy as np
 
 from .constants import GAS_CONSTANT, STANDARD_ATMOSPHERE
+from .checks import finite_array, positive_array
 from .errors import ExtrapolationWarning, InputError, OutOfRangeError, UllageWarning, suggest
 
 __all__ = [
@@ -115,39 +116,16 @@ TABLE_PATH = Path(__file__).with_name("data") / "henry_constants.csv"
 # --------------------------------------------------------------------------- helpers
 
 
-def _as_float_array(value, field: str) -> np.ndarray:
-    try:
-        return np.asarray(value, dtype=float)
-    except (TypeError, ValueError):
-        raise InputError(field, f"{value!r} is not a number; give a number in SI units") from None
-
-
 def _scalar_or_array(result, *inputs):
     if all(np.ndim(x) == 0 for x in inputs):
         return float(result)
     return result
 
 
-def _check_finite(arr: np.ndarray, field: str) -> None:
-    if arr.size and np.any(np.isnan(arr)):
-        raise InputError(field, "contains NaN; give finite numbers")
-    if arr.size and np.any(np.isinf(arr)):
-        raise InputError(field, "contains an infinite value; give finite numbers")
-
-
-def _check_positive(value, field: str, unit: str) -> np.ndarray:
-    arr = _as_float_array(value, field)
-    _check_finite(arr, field)
-    if arr.size and np.any(arr <= 0.0):
-        raise InputError(field, f"must be above zero [{unit}]; got {np.min(arr):g}")
-    return arr
-
-
 def _check_water_temperature(temperature, field: str = "temperature") -> np.ndarray:
-    t = _as_float_array(temperature, field)
+    t = finite_array(temperature, field, "K", allow_empty=True)
     if t.size == 0:
         raise InputError(field, "no temperatures given")
-    _check_finite(t, field)
     lo, hi = WATER_TEMPERATURE_RANGE
     if np.any(t < lo) or np.any(t > hi):
         bad = float(np.min(t)) if np.any(t < lo) else float(np.max(t))
@@ -155,20 +133,6 @@ def _check_water_temperature(temperature, field: str = "temperature") -> np.ndar
             field, f"{bad:g} K is outside liquid water at atmospheric pressure "
                    f"({lo:g}-{hi:g} K); temperatures are in kelvin here")
     return t
-
-
-def _check_concentration(concentration, field: str = "concentration") -> np.ndarray:
-    c = _as_float_array(concentration, field)
-    _check_finite(c, field)
-    if c.size and np.any(c < 0.0):
-        raise InputError(field, f"must not be negative [kg/m3]; got {np.min(c):g}")
-    return c
-
-
-def _check_dependence(temperature_dependence, field: str = "temperature_dependence"):
-    b = _as_float_array(temperature_dependence, field)
-    _check_finite(b, field)
-    return b
 
 
 def _unit_key(unit, field: str) -> str:
@@ -222,8 +186,8 @@ def henry_solubility(temperature, hcp_298, temperature_dependence):
     0.002772
     """
     t = _check_water_temperature(temperature)
-    h = _check_positive(hcp_298, "hcp_298", "mol/(m3 Pa)")
-    b = _check_dependence(temperature_dependence)
+    h = positive_array(hcp_298, "hcp_298", "mol/(m3 Pa)", allow_empty=True)
+    b = finite_array(temperature_dependence, "temperature_dependence", allow_empty=True)
     out = h * np.exp(b * (1.0 / t - 1.0 / HENRY_REFERENCE_TEMPERATURE))
     return _scalar_or_array(out, temperature, hcp_298, temperature_dependence)
 
@@ -259,8 +223,8 @@ def dimensionless_henry(hcp, temperature):
     >>> round(dimensionless_henry(1.7e-3, 298.15), 4)
     0.2373
     """
-    h = _check_positive(hcp, "hcp", "mol/(m3 Pa)")
-    t = _check_positive(temperature, "temperature", "K")
+    h = positive_array(hcp, "hcp", "mol/(m3 Pa)", allow_empty=True)
+    t = positive_array(temperature, "temperature", "K", allow_empty=True)
     return _scalar_or_array(1.0 / (h * GAS_CONSTANT * t), hcp, temperature)
 
 
@@ -312,24 +276,24 @@ def henry_to_hcp(value, unit, temperature=HENRY_REFERENCE_TEMPERATURE,
     0.001698
     """
     key = _unit_key(unit, "unit")
-    v = _check_positive(value, "value", key)
+    v = positive_array(value, "value", key, allow_empty=True)
     if key == "hcp":
         out = v
     elif key == "m_per_atm":
         out = v / CUBIC_METRES_PER_LITRE / STANDARD_ATMOSPHERE
     elif key == "mol_per_kg_bar":
-        rho = float(_check_positive(water_density, "water_density", "kg/m3"))
+        rho = float(positive_array(water_density, "water_density", "kg/m3", allow_empty=True))
         out = v * rho / PASCALS_PER_BAR
     elif key == "kaw":
-        t = _check_positive(temperature, "temperature", "K")
+        t = positive_array(temperature, "temperature", "K", allow_empty=True)
         out = 1.0 / (v * GAS_CONSTANT * t)
     elif key == "hpc":
         out = 1.0 / v
     elif key == "atm_m3_per_mol":
         out = 1.0 / (v * STANDARD_ATMOSPHERE)
     else:  # "kx"
-        cw = float(_check_positive(water_molar_concentration, "water_molar_concentration",
-                                   "mol/m3"))
+        cw = float(positive_array(water_molar_concentration, "water_molar_concentration",
+                                   "mol/m3", allow_empty=True))
         out = cw / v
     return _scalar_or_array(out, value, *((temperature,) if key == "kaw" else ()))
 
@@ -367,24 +331,24 @@ def hcp_to_unit(hcp, unit, temperature=HENRY_REFERENCE_TEMPERATURE,
     0.005805
     """
     key = _unit_key(unit, "unit")
-    h = _check_positive(hcp, "hcp", "mol/(m3 Pa)")
+    h = positive_array(hcp, "hcp", "mol/(m3 Pa)", allow_empty=True)
     if key == "hcp":
         out = h
     elif key == "m_per_atm":
         out = h * STANDARD_ATMOSPHERE * CUBIC_METRES_PER_LITRE
     elif key == "mol_per_kg_bar":
-        rho = float(_check_positive(water_density, "water_density", "kg/m3"))
+        rho = float(positive_array(water_density, "water_density", "kg/m3", allow_empty=True))
         out = h * PASCALS_PER_BAR / rho
     elif key == "kaw":
-        t = _check_positive(temperature, "temperature", "K")
+        t = positive_array(temperature, "temperature", "K", allow_empty=True)
         out = 1.0 / (h * GAS_CONSTANT * t)
     elif key == "hpc":
         out = 1.0 / h
     elif key == "atm_m3_per_mol":
         out = 1.0 / (h * STANDARD_ATMOSPHERE)
     else:  # "kx"
-        cw = float(_check_positive(water_molar_concentration, "water_molar_concentration",
-                                   "mol/m3"))
+        cw = float(positive_array(water_molar_concentration, "water_molar_concentration",
+                                   "mol/m3", allow_empty=True))
         out = cw / h
     return _scalar_or_array(out, hcp, *((temperature,) if key == "kaw" else ()))
 
@@ -452,20 +416,21 @@ def dilution_warnings(concentration, solubility=None, water_density=WATER_DENSIT
     tuple of str
         Empty when the solution is dilute.
     """
-    c = _check_concentration(concentration)
+    c = positive_array(concentration, "concentration", "kg/m3", allow_zero=True,
+                       allow_empty=True)
     if c.size == 0:
         return ()
     top = float(np.max(c))
     if solubility is not None:
-        s = float(_check_positive(solubility, "solubility", "kg/m3"))
+        s = float(positive_array(solubility, "solubility", "kg/m3", allow_empty=True))
         if top > s:
             return (f"{name}: {top:g} kg/m3 exceeds its water solubility of about {s:g} "
                     "kg/m3 near 25 °C; a separate liquid layer is likely and the "
                     "vapour follows the pure liquid's vapour pressure, not Henry's law "
                     "- screen it as a liquid",)
         return ()
-    limit = DILUTE_MASS_FRACTION_LIMIT * float(_check_positive(water_density, "water_density",
-                                                               "kg/m3"))
+    limit = DILUTE_MASS_FRACTION_LIMIT * float(positive_array(water_density, "water_density",
+                                                               "kg/m3", allow_empty=True))
     if top > limit:
         return (f"{name}: {top:g} kg/m3 is above {100 * DILUTE_MASS_FRACTION_LIMIT:g} % by "
                 "mass; Henry's law is an infinite-dilution law and loses accuracy here, "
@@ -580,8 +545,9 @@ def henry_partial_pressure(concentration, molar_mass, temperature, hcp_298,
     >>> round(henry_partial_pressure(1e-3, 0.078114, 298.15, 1.7e-3, 4200.0), 2)
     7.53
     """
-    c = _check_concentration(concentration)
-    m = _check_positive(molar_mass, "molar_mass", "kg/mol")
+    c = positive_array(concentration, "concentration", "kg/m3", allow_zero=True,
+                       allow_empty=True)
+    m = positive_array(molar_mass, "molar_mass", "kg/mol", allow_empty=True)
     t = _check_water_temperature(temperature)
     hcp = henry_solubility(t, hcp_298, temperature_dependence)
     for note in dilution_warnings(c, solubility):
@@ -818,12 +784,13 @@ def headspace_over_water(compound, concentration, molar_mass, temperature,
     74.3
     """
     constants = compound if isinstance(compound, HenryConstants) else henry_constants(compound)
-    c0 = _check_concentration(concentration)
-    m = float(_check_positive(molar_mass, "molar_mass", "kg/mol"))
+    c0 = positive_array(concentration, "concentration", "kg/m3", allow_zero=True,
+                       allow_empty=True)
+    m = float(positive_array(molar_mass, "molar_mass", "kg/mol", allow_empty=True))
     t = _check_water_temperature(temperature)
-    total = _check_positive(pressure, "pressure", "Pa")
-    ratio = _as_float_array(headspace_to_liquid_ratio, "headspace_to_liquid_ratio")
-    _check_finite(ratio, "headspace_to_liquid_ratio")
+    total = positive_array(pressure, "pressure", "Pa", allow_empty=True)
+    ratio = finite_array(headspace_to_liquid_ratio, "headspace_to_liquid_ratio",
+                         allow_empty=True)
     if ratio.size and np.any(ratio < 0.0):
         raise InputError("headspace_to_liquid_ratio", "must not be negative [-]")
     hcp = constants.hcp(t)

@@ -34,6 +34,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from .checks import finite_array, positive
 from .errors import InputError, UllageWarning
 
 __all__ = [
@@ -77,34 +78,13 @@ BOX_FACES = {
 }
 
 #: Below this reduced step the second exponential-integrator weight uses its series.
-_SERIES_LIMIT = 1e-3
+SERIES_LIMIT = 1e-3
 
 
 # --------------------------------------------------------------------------- checks
 
-def _number(field, value):
-    try:
-        array = np.asarray(value, dtype=float)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number, got {value!r}") from None
-    if not np.all(np.isfinite(array)):
-        raise InputError(field, "must be a finite number; got NaN or infinity")
-    return array
-
-
-def _scalar(field, value, minimum=0.0, strict=False, unit=""):
-    array = _number(field, value)
-    if array.ndim != 0:
-        raise InputError(field, "expected a single number, not an array")
-    number = float(array)
-    if number < minimum or (strict and number == minimum):
-        relation = "above" if strict else "at least"
-        raise InputError(field, f"must be {relation} {minimum:g} {unit}; got {number:g}".strip())
-    return number
-
-
 def _mixing_factor(value):
-    k = _number("mixing_factor", value)
+    k = finite_array(value, "mixing_factor", allow_empty=True)
     if k.ndim != 0:
         raise InputError("mixing_factor", "expected a single number, not an array")
     if float(k) < 1.0:
@@ -117,7 +97,7 @@ def _mixing_factor(value):
 
 
 def _time_grid(times):
-    t = np.atleast_1d(_number("times", times))
+    t = np.atleast_1d(finite_array(times, "times", allow_empty=True))
     if t.ndim != 1:
         raise InputError("times", "expected a one-dimensional sequence of times")
     if t.size == 0:
@@ -144,7 +124,7 @@ def _source(generation_rate, times):
             raise InputError("generation_rate", "the function returned a negative rate; "
                              "a source cannot remove vapour")
         return "function", generation_rate, sample
-    g = _number("generation_rate", generation_rate)
+    g = finite_array(generation_rate, "generation_rate", allow_empty=True)
     if np.any(g < 0.0):
         raise InputError("generation_rate", "cannot be negative; a source cannot remove vapour")
     if g.ndim == 0:
@@ -157,23 +137,35 @@ def _source(generation_rate, times):
 
 # --------------------------------------------------------------- exact integrator
 
-def _phi1(z):
-    """(1 - exp(-z)) / z, equal to 1 at z = 0."""
-    out = np.ones_like(z)
-    positive = z > 0.0
-    out[positive] = -np.expm1(-z[positive]) / z[positive]
-    return out
+def phi1(z):
+    """(1 - exp(-z)) / z, equal to 1 at z = 0 (and for z <= 0), elementwise.
+
+    The first weight of the exact exponential integrator (the "phi functions" of
+    Hochbruck & Ostermann, Acta Numerica 19 (2010) 209).
+
+    Examples
+    --------
+    >>> round(float(phi1(1.0)), 6)
+    0.632121
+    """
+    z = np.asarray(z, dtype=float)
+    safe = np.where(z > 0.0, z, 1.0)
+    return np.where(z > 0.0, -np.expm1(-safe) / safe, 1.0)
 
 
-def _phi2(z):
-    """(z - 1 + exp(-z)) / z**2, equal to 1/2 at z = 0."""
-    out = np.empty_like(z)
-    small = z < _SERIES_LIMIT
-    zs = z[small]
-    out[small] = 0.5 - zs / 6.0 + zs**2 / 24.0 - zs**3 / 120.0
-    zl = z[~small]
-    out[~small] = (zl + np.expm1(-zl)) / zl**2
-    return out
+def phi2(z):
+    """(z - 1 + exp(-z)) / z**2, equal to 1/2 at z = 0, elementwise (a series below
+    `SERIES_LIMIT`, where the closed form loses digits).
+
+    Examples
+    --------
+    >>> round(float(phi2(1.0)), 6), float(phi2(0.0))
+    (0.367879, 0.5)
+    """
+    z = np.asarray(z, dtype=float)
+    large = np.where(z >= SERIES_LIMIT, z, 1.0)
+    series = 0.5 - z / 6.0 + z**2 / 24.0 - z**3 / 120.0
+    return np.where(z >= SERIES_LIMIT, (large + np.expm1(-large)) / large**2, series)
 
 
 def _relaxation_steps(decay_rate, times, forcing, start_value, cap=None):
@@ -187,7 +179,7 @@ def _relaxation_steps(decay_rate, times, forcing, start_value, cap=None):
     h = np.diff(times)
     z = decay_rate * h
     decay = np.exp(-z).tolist()
-    increment = (forcing[:-1] * h * _phi1(z) + np.diff(forcing) * h * _phi2(z)).tolist()
+    increment = (forcing[:-1] * h * phi1(z) + np.diff(forcing) * h * phi2(z)).tolist()
     y = float(start_value)
     values = [y]
     if cap is None:
@@ -261,10 +253,10 @@ def air_changes_to_flow(air_changes_per_hour, volume):
     >>> air_changes_to_flow(6.0, 300.0)
     0.5
     """
-    ach = _number("air_changes_per_hour", air_changes_per_hour)
+    ach = finite_array(air_changes_per_hour, "air_changes_per_hour", allow_empty=True)
     if np.any(ach < 0.0):
         raise InputError("air_changes_per_hour", "cannot be negative; use 0 for a closed room")
-    v = _scalar("volume", volume, strict=True, unit="m3")
+    v = positive(volume, "volume", "m3")
     flow = ach * v / 3600.0
     return float(flow) if flow.ndim == 0 else flow
 
@@ -300,10 +292,10 @@ def steady_state_concentration(generation_rate, ventilation_rate, mixing_factor=
     >>> round(steady_state_concentration(1e-3 / 60, 10.0 / 60, 3.0), 6)
     0.0003
     """
-    g = _number("generation_rate", generation_rate)
+    g = finite_array(generation_rate, "generation_rate", allow_empty=True)
     if np.any(g < 0.0):
         raise InputError("generation_rate", "cannot be negative")
-    q = _number("ventilation_rate", ventilation_rate)
+    q = finite_array(ventilation_rate, "ventilation_rate", allow_empty=True)
     if np.any(q <= 0.0):
         raise InputError("ventilation_rate", "must be above 0 m3/s for a steady state; "
                          "without ventilation the concentration rises until the source "
@@ -340,10 +332,10 @@ def required_ventilation_rate(generation_rate, target_concentration, mixing_fact
     >>> round(required_ventilation_rate(1e-3 / 60, 3e-4, 3.0) * 60, 6)
     10.0
     """
-    g = _number("generation_rate", generation_rate)
+    g = finite_array(generation_rate, "generation_rate", allow_empty=True)
     if np.any(g < 0.0):
         raise InputError("generation_rate", "cannot be negative")
-    c = _number("target_concentration", target_concentration)
+    c = finite_array(target_concentration, "target_concentration", allow_empty=True)
     if np.any(c <= 0.0):
         raise InputError("target_concentration", "must be above 0 kg/m3")
     q = g * _mixing_factor(mixing_factor) / c
@@ -419,14 +411,14 @@ def well_mixed_room(generation_rate, volume, ventilation_rate, times, mixing_fac
     >>> [round(float(x) * 1e3, 4) for x in c]
     [0.0, 0.0632, 0.1]
     """
-    v = _scalar("volume", volume, strict=True, unit="m3")
-    q = _scalar("ventilation_rate", ventilation_rate, unit="m3/s; use 0 for a closed room")
+    v = positive(volume, "volume", "m3")
+    q = positive(ventilation_rate, "ventilation_rate", "m3/s", allow_zero=True, 
+                 hint="; use 0 for a closed room")
     k = _mixing_factor(mixing_factor)
-    c0 = _scalar("initial_concentration", initial_concentration, unit="kg/m3")
+    c0 = positive(initial_concentration, "initial_concentration", "kg/m3", allow_zero=True)
     cap = None
     if saturation_concentration is not None:
-        cap = _scalar("saturation_concentration", saturation_concentration, strict=True,
-                      unit="kg/m3")
+        cap = positive(saturation_concentration, "saturation_concentration", "kg/m3")
         if c0 > cap:
             raise InputError("initial_concentration", f"{c0:g} kg/m3 is above the saturation "
                              f"concentration {cap:g} kg/m3; no vapour can be held above it")
@@ -436,7 +428,7 @@ def well_mixed_room(generation_rate, volume, ventilation_rate, times, mixing_fac
 
     if kind == "constant":
         z = decay_rate * t
-        c = c0 * np.exp(-z) + source / v * t * _phi1(z)
+        c = c0 * np.exp(-z) + source / v * t * phi1(z)
         if cap is not None:
             c = np.minimum(c, cap)
     elif kind == "series":
@@ -533,12 +525,12 @@ def purge_time(volume, ventilation_rate, initial_concentration, target_concentra
     >>> round(purge_time(100.0, 1.0, 500.0, 25.0, 2.0).time, 1)
     599.1
     """
-    v = _scalar("volume", volume, strict=True, unit="m3")
-    q = _scalar("ventilation_rate", ventilation_rate, unit="m3/s")
+    v = positive(volume, "volume", "m3")
+    q = positive(ventilation_rate, "ventilation_rate", "m3/s", allow_zero=True)
     k = _mixing_factor(mixing_factor)
-    c0 = _scalar("initial_concentration", initial_concentration, unit="kg/m3")
-    target = _scalar("target_concentration", target_concentration, unit="kg/m3")
-    g = _scalar("residual_generation_rate", residual_generation_rate, unit="kg/s")
+    c0 = positive(initial_concentration, "initial_concentration", "kg/m3", allow_zero=True)
+    target = positive(target_concentration, "target_concentration", "kg/m3", allow_zero=True)
+    g = positive(residual_generation_rate, "residual_generation_rate", "kg/s", allow_zero=True)
 
     if q == 0.0:
         floor = math.inf if g > 0.0 else c0
@@ -602,7 +594,7 @@ def near_field_hemisphere(radius=NEAR_FIELD_RADIUS) -> NearFieldGeometry:
     >>> round(g.volume, 4), round(g.free_surface_area, 4)
     (2.0944, 6.2832)
     """
-    r = _scalar("radius", radius, strict=True, unit="m")
+    r = positive(radius, "radius", "m")
     return NearFieldGeometry(volume=2.0 / 3.0 * math.pi * r**3,
                              free_surface_area=2.0 * math.pi * r**2)
 
@@ -634,9 +626,9 @@ def near_field_box(length, width, height,
     >>> g.volume, g.free_surface_area
     (3.0, 8.0)
     """
-    edges = {"length": _scalar("length", length, strict=True, unit="m"),
-             "width": _scalar("width", width, strict=True, unit="m"),
-             "height": _scalar("height", height, strict=True, unit="m")}
+    edges = {"length": positive(length, "length", "m"),
+             "width": positive(width, "width", "m"),
+             "height": positive(height, "height", "m")}
     faces = tuple(open_faces)
     unknown = [f for f in faces if f not in BOX_FACES]
     if unknown:
@@ -682,10 +674,10 @@ def interzonal_airflow(free_surface_area, random_air_speed):
     >>> round(interzonal_airflow(2 * 3.141592653589793, 0.1), 4)
     0.3142
     """
-    area = _number("free_surface_area", free_surface_area)
+    area = finite_array(free_surface_area, "free_surface_area", allow_empty=True)
     if np.any(area <= 0.0):
         raise InputError("free_surface_area", "must be above 0 m2")
-    speed = _number("random_air_speed", random_air_speed)
+    speed = finite_array(random_air_speed, "random_air_speed", allow_empty=True)
     if np.any(speed <= 0.0):
         raise InputError("random_air_speed", "must be above 0 m/s; indoor air is never "
                          "perfectly still (typically 0.05-0.3 m/s)")
@@ -753,7 +745,7 @@ def two_zone_steady_state(generation_rate, ventilation_rate, interzonal_flow,
     (25.0, 5.0)
     """
     far = steady_state_concentration(generation_rate, ventilation_rate, mixing_factor)
-    beta = _scalar("interzonal_flow", interzonal_flow, strict=True, unit="m3/s")
+    beta = positive(interzonal_flow, "interzonal_flow", "m3/s")
     near = far + np.asarray(generation_rate, dtype=float) / beta
     return (float(near) if np.ndim(near) == 0 else near), far
 
@@ -837,14 +829,15 @@ def near_field_far_field(generation_rate, room_volume, ventilation_rate, times,
     >>> round(float(r.near_field[0]) * 1e6, 2), round(float(r.far_field[0]) * 1e6, 2)
     (25.0, 5.0)
     """
-    v = _scalar("room_volume", room_volume, strict=True, unit="m3")
-    q = _scalar("ventilation_rate", ventilation_rate, unit="m3/s; use 0 for a closed room")
+    v = positive(room_volume, "room_volume", "m3")
+    q = positive(ventilation_rate, "ventilation_rate", "m3/s", allow_zero=True, 
+                 hint="; use 0 for a closed room")
     k = _mixing_factor(mixing_factor)
-    v_near = _scalar("near_field_volume", near_field_volume, strict=True, unit="m3")
+    v_near = positive(near_field_volume, "near_field_volume", "m3")
     if v_near >= v:
         raise InputError("near_field_volume", f"{v_near:g} m3 must be smaller than the room "
                          f"volume {v:g} m3; the far field is the rest of the room")
-    beta = _scalar("interzonal_flow", interzonal_flow, strict=True, unit="m3/s")
+    beta = positive(interzonal_flow, "interzonal_flow", "m3/s")
     t = _time_grid(times)
     kind, source, sample = _source(generation_rate, t)
     v_far = v - v_near

@@ -28,6 +28,7 @@ from typing import NamedTuple
 import numpy as np
 
 from .constants import GAS_CONSTANT, MOLAR_MASS_AIR, STANDARD_GRAVITY
+from .checks import positive_array
 from .errors import InputError, UllageWarning
 
 __all__ = [
@@ -133,7 +134,8 @@ BRITTER_MCQUAID_CONTINUOUS = 0.15
 
 # --------------------------------------------------------------------- helpers
 
-def _terrain(terrain):
+def terrain_key(terrain):
+    """The key of `TERRAINS` a terrain text stands for (refused with the allowed ones)."""
     key = str(terrain).strip().lower()
     if key not in TERRAINS:
         raise InputError("terrain", f"unknown terrain {terrain!r}; allowed: "
@@ -141,7 +143,7 @@ def _terrain(terrain):
     return TERRAINS[key]
 
 
-def _classes(stability):
+def pasquill_classes(stability):
     """The one or two Pasquill classes a stability string stands for."""
     key = str(stability).strip().upper().replace("\u2013", "-").replace(" ", "")
     if key in STABILITY_CLASSES:
@@ -151,18 +153,6 @@ def _classes(stability):
     allowed = list(STABILITY_CLASSES) + list(INTERMEDIATE_CLASSES)
     raise InputError("stability", f"unknown stability class {stability!r}; allowed: "
                      f"{', '.join(allowed)}")
-
-
-def _positive_array(field, value, unit, advice=""):
-    try:
-        array = np.asarray(value, dtype=float)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number, got {value!r}") from None
-    if not np.all(np.isfinite(array)):
-        raise InputError(field, "must be finite; got NaN or infinity")
-    if np.any(array <= 0.0):
-        raise InputError(field, f"must be above 0 {unit}{advice}")
-    return array
 
 
 def _out_of_range_note(distance):
@@ -186,7 +176,12 @@ def _sigmas(x, classes, terrain):
     return sy / len(classes), sz / len(classes)
 
 
-def _centerline(rate, u, x, classes, terrain):
+def centerline_concentration(rate, u, x, classes, terrain):
+    """Ground-level centreline concentration of a ground source, inputs already checked.
+
+    ``classes`` from `pasquill_classes`, ``terrain`` from `terrain_key`; rate [kg/s],
+    u [m/s], x [m]; the result in kg/m3 (the body of `ground_level_centerline`).
+    """
     sy, sz = _sigmas(x, classes, terrain)
     return rate / (math.pi * u * sy * sz)
 
@@ -344,9 +339,9 @@ def briggs_sigmas(distance, stability, terrain="open") -> DispersionCoefficients
     >>> round(sy, 2), round(sz, 2)
     (76.28, 37.95)
     """
-    x = _positive_array("distance", distance, "m", " (downwind of the source)")
-    classes = _classes(stability)
-    land = _terrain(terrain)
+    x = positive_array(distance, "distance", "m", hint=" (downwind of the source)")
+    classes = pasquill_classes(stability)
+    land = terrain_key(terrain)
     note = _out_of_range_note(x)
     if note:
         warnings.warn(note, UllageWarning, stacklevel=2)
@@ -397,15 +392,15 @@ def ground_level_centerline(emission_rate, wind_speed, distance, stability, terr
     rate = np.asarray(emission_rate, dtype=float)
     if not np.all(np.isfinite(rate)) or np.any(rate < 0.0):
         raise InputError("emission_rate", "must be a finite rate of at least 0 kg/s")
-    u = _positive_array("wind_speed", wind_speed, "m/s", "; calm conditions are outside "
+    u = positive_array(wind_speed, "wind_speed", "m/s", hint="; calm conditions are outside "
                         "the Gaussian plume model")
-    x = _positive_array("distance", distance, "m", " (downwind of the source)")
-    classes = _classes(stability)
-    land = _terrain(terrain)
+    x = positive_array(distance, "distance", "m", hint=" (downwind of the source)")
+    classes = pasquill_classes(stability)
+    land = terrain_key(terrain)
     note = _out_of_range_note(x)
     if note:
         warnings.warn(note, UllageWarning, stacklevel=2)
-    c = _centerline(rate, u, x, classes, land)
+    c = centerline_concentration(rate, u, x, classes, land)
     return float(c) if c.ndim == 0 else c
 
 
@@ -476,23 +471,23 @@ def distance_to_concentration(emission_rate, wind_speed, concentration, stabilit
     rate = float(emission_rate)
     if not np.isfinite(rate) or rate < 0.0:
         raise InputError("emission_rate", "must be a finite rate of at least 0 kg/s")
-    u = float(_positive_array("wind_speed", wind_speed, "m/s"))
-    target = float(_positive_array("concentration", concentration, "kg/m3"))
-    near = float(_positive_array("min_distance", min_distance, "m"))
-    far = float(_positive_array("max_distance", max_distance, "m"))
+    u = float(positive_array(wind_speed, "wind_speed", "m/s"))
+    target = float(positive_array(concentration, "concentration", "kg/m3"))
+    near = float(positive_array(min_distance, "min_distance", "m"))
+    far = float(positive_array(max_distance, "max_distance", "m"))
     if far <= near:
         raise InputError("max_distance", f"must be beyond min_distance ({near:g} m)")
-    classes = _classes(stability)
-    land = _terrain(terrain)
+    classes = pasquill_classes(stability)
+    land = terrain_key(terrain)
 
     def log_excess(log_x):
-        return math.log(_centerline(rate, u, np.exp(log_x), classes, land) / target)
+        return math.log(centerline_concentration(rate, u, np.exp(log_x), classes, land) / target)
 
-    if rate == 0.0 or _centerline(rate, u, near, classes, land) <= target:
+    if rate == 0.0 or centerline_concentration(rate, u, near, classes, land) <= target:
         return EndpointDistance(0.0, False, f"the centreline is at or below the endpoint "
                                 f"from {near:g} m on; it is exceeded, if at all, only "
                                 "closer to the source")
-    if _centerline(rate, u, far, classes, land) > target:
+    if centerline_concentration(rate, u, far, classes, land) > target:
         return EndpointDistance(None, False, f"the centreline is still above the endpoint "
                                 f"at {far:g} m, the farthest distance searched",
                                 (f"the endpoint lies beyond {far:g} m, outside the range "
@@ -542,11 +537,11 @@ def wind_speed_at_height(speed, height, reference_height=10.0, stability="D",
     >>> round(wind_speed_at_height(3.0, 2.0, stability="F"), 3)
     1.238
     """
-    u = _positive_array("speed", speed, "m/s")
-    z = _positive_array("height", height, "m")
-    z_ref = float(_positive_array("reference_height", reference_height, "m"))
-    classes = _classes(stability)
-    land = _terrain(terrain)
+    u = positive_array(speed, "speed", "m/s")
+    z = positive_array(height, "height", "m")
+    z_ref = float(positive_array(reference_height, "reference_height", "m"))
+    classes = pasquill_classes(stability)
+    land = terrain_key(terrain)
     exponent = sum(WIND_PROFILE_EXPONENTS[land][c] for c in classes) / len(classes)
     result = u * (z / z_ref) ** exponent
     return float(result) if result.ndim == 0 else result
@@ -596,12 +591,12 @@ def britter_mcquaid_continuous(reduced_gravity, volume_rate, wind_speed,
     0.433
     """
     g = float(reduced_gravity)
-    q = float(_positive_array("volume release rate", volume_rate, "m3/s"))
-    u = float(_positive_array("wind_speed", wind_speed, "m/s"))
+    q = float(positive_array(volume_rate, "volume release rate", "m3/s"))
+    u = float(positive_array(wind_speed, "wind_speed", "m/s"))
     if not math.isfinite(g):
         raise InputError("reduced gravity", "must be a finite number in m/s2")
     d = math.sqrt(q / u) if source_dimension is None else float(
-        _positive_array("source dimension", source_dimension, "m"))
+        positive_array(source_dimension, "source dimension", "m"))
     if g <= 0.0:
         return 0.0
     return (g * q / d) ** (1.0 / 3.0) / u
@@ -687,15 +682,15 @@ def pool_source_criterion(vapour_molar_rate, vapour_fraction, vapour_molar_mass,
     y = float(vapour_fraction)
     if not (math.isfinite(y) and 0.0 < y <= 1.0):
         raise InputError("vapour fraction", "must be above 0 and at most 1")
-    n = float(_positive_array("evaporation rate", vapour_molar_rate, "mol/s"))
-    t = float(_positive_array("temperature", temperature, "K"))
-    p = float(_positive_array("pressure", pressure, "Pa"))
+    n = float(positive_array(vapour_molar_rate, "evaporation rate", "mol/s"))
+    t = float(positive_array(temperature, "temperature", "K"))
+    p = float(positive_array(pressure, "pressure", "Pa"))
     molar_volume = GAS_CONSTANT * t / p
     rho_air = MOLAR_MASS_AIR / molar_volume
     rho_mix = (y * float(vapour_molar_mass) + (1.0 - y) * MOLAR_MASS_AIR) / molar_volume
     g0 = STANDARD_GRAVITY * (rho_mix - rho_air) / rho_air
     q0 = n * molar_volume / y
-    u = float(_positive_array("wind_speed", wind_speed, "m/s"))
+    u = float(positive_array(wind_speed, "wind_speed", "m/s"))
     value = britter_mcquaid_continuous(g0, q0, u)
     return DenseGasCriterion(value, BRITTER_MCQUAID_CONTINUOUS,
                              value >= BRITTER_MCQUAID_CONTINUOUS, rho_mix, rho_air, y, g0,

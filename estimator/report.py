@@ -694,10 +694,10 @@ def monte_carlo_curves(mc, limits, names=None) -> tuple[dict, list]:
         run), ``line`` (short text for the line), ``ppm`` (its value [ppm]) and
         ``compared`` (the curve label it is compared with).
     """
-    from .uncertainty import _unique_labels
+    from .uncertainty import unique_labels
 
     limits = list(limits)
-    applied = [(lim, label) for lim, label in zip(limits, _unique_labels(limits))
+    applied = [(lim, label) for lim, label in zip(limits, unique_labels(limits))
                if f"ratio to {label}" in mc.outputs]
     curves: dict = {}
     lines = []

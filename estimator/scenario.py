@@ -36,10 +36,12 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from types import MappingProxyType
 
-from . import __version__
+from ._meta import __version__
+from .checks import check_barometric_pressure
 from .constants import STANDARD_ATMOSPHERE
 from .errors import InputError, UnknownSubstanceError
 from .substances import Substance
+from .toml_text import toml_key, toml_value
 from .units import parse_quantity, parse_temperature
 
 __all__ = [
@@ -50,6 +52,7 @@ __all__ = [
     "loads_scenario",
     "dumps_scenario",
     "save_scenario",
+    "build_liquid",
     "MAX_SCENARIO_BYTES",
 ]
 
@@ -197,6 +200,11 @@ class Scenario:
                 return sub
         return substance(name, field)
 
+    def liquid(self, name: str):
+        """The model-ready `Liquid` of the scenario's liquid called ``name`` (None
+        for water with dissolved substances)."""
+        return build_liquid(self.liquids[name])
+
 
 def _line_of(text: str, section: str, index: int | None, key: str | None) -> int | None:
     """Best-effort line number of a key in a section (tomllib keeps no positions)."""
@@ -326,30 +334,8 @@ def _positive(reader, section, index, key, value, allow_zero=False):
     return value
 
 
-def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenario:
-    """Load and check a scenario from TOML text.
-
-    `base_dir` is the folder of the scenario file, where a [[liquid]] ``sds`` file
-    is looked for (confined to it); text not read from a file has none.
-
-    Raises
-    ------
-    ScenarioError
-        With the section, key and line of the first problem, and what to do.
-    """
-    from .exposure import WorkShift
-    from .headspace import barometric_pressure
-    from .limits import FlammabilityAlarms, exposure_limit
-    from .substances import user_substance
-
-    if len(text.encode("utf-8", "replace")) > MAX_SCENARIO_BYTES:
-        raise ScenarioError("scenario file", f"is larger than {MAX_SCENARIO_BYTES} bytes; "
-                            "a scenario is a short text file")
-    try:
-        doc = tomllib.loads(text)
-    except tomllib.TOMLDecodeError as exc:
-        raise ScenarioError("scenario file", f"is not valid TOML: {exc}") from None
-    r = _Reader(text)
+def _check_sections(doc):
+    """Refuse unknown sections and sections of the wrong shape."""
     for key in doc:
         if key not in SCHEMA:
             close = difflib.get_close_matches(key, list(SCHEMA), n=1, cutoff=0.6)
@@ -364,9 +350,10 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
     if "scenario" not in doc:
         raise ScenarioError("[scenario]", "missing; start the file with [scenario] and a title")
 
-    head = doc["scenario"]
-    r.check_keys("scenario", None, head)
-    title = r.value("scenario", None, head, "title")
+
+def _read_conditions(r, doc):
+    """Site pressure [Pa] and air temperature [K] of [conditions]."""
+    from .headspace import barometric_pressure
 
     cond = doc.get("conditions", {})
     r.check_keys("conditions", None, cond)
@@ -376,9 +363,10 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
         r.fail("conditions", None, "elevation", "give the barometric pressure or the "
                "elevation, not both")
     if baro is not None:
-        if not 3e4 < baro < 1.2e5:
+        try:
+            pressure = check_barometric_pressure(baro)
+        except InputError:
             r.fail("conditions", None, "barometric_pressure", "must be between 30 and 120 kPa")
-        pressure = baro
     elif elev is not None:
         try:
             pressure = barometric_pressure(elev)
@@ -391,6 +379,12 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
         r.assumptions.append("no barometric pressure or elevation given: 101.325 kPa "
                              "(sea level) assumed")
     air_t = r.value("conditions", None, cond, "air_temperature")
+    return pressure, air_t
+
+
+def _read_alarms(r, doc):
+    """The [alarms] table as `FlammabilityAlarms`."""
+    from .limits import FlammabilityAlarms
 
     al = doc.get("alarms", {})
     r.check_keys("alarms", None, al)
@@ -411,6 +405,12 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
     if not al:
         r.assumptions.append(f"alarm levels: {alarms.percent_lfl:g} % LFL, oxygen "
                              f"{alarms.oxygen_low:g}-{alarms.oxygen_high:g} % ({alarms.source})")
+    return alarms
+
+
+def _read_shift(r, doc):
+    """The [shift] table as a `WorkShift`."""
+    from .exposure import WorkShift
 
     sh = doc.get("shift", {})
     r.check_keys("shift", None, sh)
@@ -421,6 +421,12 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
         raise ScenarioError(r.where("shift", None, exc.field), exc.reason) from None
     if not sh:
         r.assumptions.append("work shift: 8 h from the start of each spill")
+    return shift
+
+
+def _read_substances(r, doc):
+    """User-defined [[substance]] tables."""
+    from .substances import user_substance
 
     subs = []
     for i, item in enumerate(doc.get("substance", [])):
@@ -438,100 +444,107 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
         except InputError as exc:
             raise ScenarioError(r.where("substance", i, exc.field.split()[0]), exc.reason) from None
         r.assumptions.extend(subs[-1].notes)
+    return subs
 
-    partial = Scenario(MappingProxyType({}), title, pressure, air_t, tuple(subs),
-                       MappingProxyType({}), (), (), (), None, (), alarms, shift, ())
 
-    def resolve(section, i, key, name):
+def _read_liquid(r, doc, i, item, liquids, resolve, partial, base_dir):
+    """One [[liquid]] table as a liquid entry (checked by building it once)."""
+    r.check_keys("liquid", i, item)
+    v = {k: r.value("liquid", i, item, k) for k in item}
+    given = [k for k in ("substance", "components", "dissolved_in_water") if k in v]
+    from_sheet = [k for k in ("ranges", "sds", "sds_text") if k in v]
+    if len(given) + bool(from_sheet) != 1 or {"sds", "sds_text"} <= set(v):
+        r.fail("liquid", i, None, "give exactly one of 'substance', 'components', "
+               "'dissolved_in_water', or a safety data sheet ('sds' file or 'sds_text', "
+               "and/or its 'ranges')")
+    name = v["name"]
+    if name.lower() in {n.lower() for n in liquids}:
+        r.fail("liquid", i, "name", f"the name {name!r} is used twice")
+    basis = v.get("basis", "mass")
+    if "basis" not in v and "components" in v:
+        r.assumptions.append(f"liquid {name!r}: composition taken as mass fractions "
+                             "(no basis given; safety data sheets give mass %)")
+    if basis not in ("mole", "mass", "volume"):
+        r.fail("liquid", i, "basis", f"{basis!r} is not a basis; use mole, mass or volume")
+    entry = {"name": name, "basis": basis}
+    if from_sheet:
+        from .sds import scenario_liquid
+
         try:
-            return partial.resolve(name, key)
-        except UnknownSubstanceError as exc:
-            raise ScenarioError(r.where(section, i, key), exc.reason) from None
+            sheet_entry, notes = scenario_liquid(
+                v, doc, base_dir, lambda k: partial.resolve(k, "ranges"),
+                f"[[liquid]] #{i + 1}")
+        except InputError as exc:
+            key = next((k for k in ("ranges", "unlisted", "sds_text", "sds", "point",
+                                    "unidentified_as") if k in exc.field), from_sheet[0])
+            raise ScenarioError(r.where("liquid", i, key), exc.reason) from None
+        r.assumptions.extend(notes)
+        entry.update(kind="liquid", **sheet_entry)
+    elif "substance" in v:
+        entry.update(kind="liquid", spec=resolve("liquid", i, "substance", v["substance"]))
+    elif "components" in v:
+        spec = {resolve("liquid", i, "components", k): x for k, x in v["components"].items()}
+        entry.update(kind="liquid", spec=spec)
+    else:
+        spec = {resolve("liquid", i, "dissolved_in_water", k): c
+                for k, c in v["dissolved_in_water"].items()}
+        from .henry import check_dissolved_concentration
 
+        for sub, c in spec.items():
+            try:
+                check_dissolved_concentration(sub.key, c, sub.name)
+            except InputError as exc:
+                r.fail("liquid", i, "dissolved_in_water", f"{exc.field}: {exc.reason}")
+        entry.update(kind="water", spec=spec)
+    gammas = v.get("activity_coefficients")
+    if v.get("activity_estimate"):
+        if gammas:
+            r.fail("liquid", i, "activity_estimate", "give activity_coefficients or "
+                   "activity_estimate, not both")
+        if v["activity_estimate"].lower() != "unifac":
+            r.fail("liquid", i, "activity_estimate", f"{v['activity_estimate']!r} is not "
+                   "an estimation method; use \"unifac\"")
+        entry["activity_coefficients"] = "unifac"
+    if gammas:
+        entry["activity_coefficients"] = {
+            resolve("liquid", i, "activity_coefficients", k): g for k, g in gammas.items()}
+        entry["activity_source"] = v.get("activity_source", "user-entered")
+    try:
+        build_liquid(entry)
+    except InputError as exc:
+        raise ScenarioError(r.where("liquid", i, "components"), exc.reason) from None
+    return entry
+
+
+def _read_liquids(r, doc, resolve, partial, base_dir):
+    """Every [[liquid]] table by name."""
     liquids = {}
     for i, item in enumerate(doc.get("liquid", [])):
-        r.check_keys("liquid", i, item)
-        v = {k: r.value("liquid", i, item, k) for k in item}
-        given = [k for k in ("substance", "components", "dissolved_in_water") if k in v]
-        from_sheet = [k for k in ("ranges", "sds", "sds_text") if k in v]
-        if len(given) + bool(from_sheet) != 1 or {"sds", "sds_text"} <= set(v):
-            r.fail("liquid", i, None, "give exactly one of 'substance', 'components', "
-                   "'dissolved_in_water', or a safety data sheet ('sds' file or 'sds_text', "
-                   "and/or its 'ranges')")
-        name = v["name"]
-        if name.lower() in {n.lower() for n in liquids}:
-            r.fail("liquid", i, "name", f"the name {name!r} is used twice")
-        basis = v.get("basis", "mass")
-        if "basis" not in v and "components" in v:
-            r.assumptions.append(f"liquid {name!r}: composition taken as mass fractions "
-                                 "(no basis given; safety data sheets give mass %)")
-        if basis not in ("mole", "mass", "volume"):
-            r.fail("liquid", i, "basis", f"{basis!r} is not a basis; use mole, mass or volume")
-        entry = {"name": name, "basis": basis}
-        if from_sheet:
-            from .sds import scenario_liquid
+        entry = _read_liquid(r, doc, i, item, liquids, resolve, partial, base_dir)
+        liquids[entry["name"]] = entry
+    return liquids
 
-            try:
-                sheet_entry, notes = scenario_liquid(
-                    v, doc, base_dir, lambda k: partial.resolve(k, "ranges"),
-                    f"[[liquid]] #{i + 1}")
-            except InputError as exc:
-                key = next((k for k in ("ranges", "unlisted", "sds_text", "sds", "point",
-                                        "unidentified_as") if k in exc.field), from_sheet[0])
-                raise ScenarioError(r.where("liquid", i, key), exc.reason) from None
-            r.assumptions.extend(notes)
-            entry.update(kind="liquid", **sheet_entry)
-        elif "substance" in v:
-            entry.update(kind="liquid", spec=resolve("liquid", i, "substance", v["substance"]))
-        elif "components" in v:
-            spec = {resolve("liquid", i, "components", k): x for k, x in v["components"].items()}
-            entry.update(kind="liquid", spec=spec)
-        else:
-            spec = {resolve("liquid", i, "dissolved_in_water", k): c
-                    for k, c in v["dissolved_in_water"].items()}
-            from .henry import check_dissolved_concentration
 
-            for sub, c in spec.items():
-                try:
-                    check_dissolved_concentration(sub.key, c, sub.name)
-                except InputError as exc:
-                    r.fail("liquid", i, "dissolved_in_water", f"{exc.field}: {exc.reason}")
-            entry.update(kind="water", spec=spec)
-        gammas = v.get("activity_coefficients")
-        if v.get("activity_estimate"):
-            if gammas:
-                r.fail("liquid", i, "activity_estimate", "give activity_coefficients or "
-                       "activity_estimate, not both")
-            if v["activity_estimate"].lower() != "unifac":
-                r.fail("liquid", i, "activity_estimate", f"{v['activity_estimate']!r} is not "
-                       "an estimation method; use \"unifac\"")
-            entry["activity_coefficients"] = "unifac"
-        if gammas:
-            entry["activity_coefficients"] = {
-                resolve("liquid", i, "activity_coefficients", k): g for k, g in gammas.items()}
-            entry["activity_source"] = v.get("activity_source", "user-entered")
-        try:
-            _build_liquid(entry)
-        except InputError as exc:
-            raise ScenarioError(r.where("liquid", i, "components"), exc.reason) from None
-        liquids[name] = entry
+def _liquid_name(r, liquids, section, i, item):
+    """The [[liquid]] name an item refers to (matched without regard to case)."""
+    name = item.get("liquid")
+    match = {n.lower(): n for n in liquids}.get(str(name).strip().lower())
+    if match is None:
+        close = difflib.get_close_matches(str(name), list(liquids), n=1)
+        hint = f"did you mean {close[0]!r}?" if close else (
+            "define it in a [[liquid]] table" if not liquids
+            else f"liquids defined: {', '.join(liquids)}")
+        r.fail(section, i, "liquid", f"no [[liquid]] is named {name!r}; {hint}")
+    return match
 
-    def liquid_ref(section, i, item):
-        name = item.get("liquid")
-        match = {n.lower(): n for n in liquids}.get(str(name).strip().lower())
-        if match is None:
-            close = difflib.get_close_matches(str(name), list(liquids), n=1)
-            hint = f"did you mean {close[0]!r}?" if close else (
-                "define it in a [[liquid]] table" if not liquids
-                else f"liquids defined: {', '.join(liquids)}")
-            r.fail(section, i, "liquid", f"no [[liquid]] is named {name!r}; {hint}")
-        return match
 
+def _read_tanks(r, doc, liquids):
+    """Every [[tank]] table, with its defaults."""
     tanks = []
     for i, item in enumerate(doc.get("tank", [])):
         r.check_keys("tank", i, item)
         v = {k: r.value("tank", i, item, k) for k in item}
-        v["liquid"] = liquid_ref("tank", i, item)
+        v["liquid"] = _liquid_name(r, liquids, "tank", i, item)
         for key in ("volume", "pumped_volume", "purge_rate", "residual_area"):
             _positive(r, "tank", i, key, v.get(key))
         if "fill" in v and not 0 <= v["fill"] < 1:
@@ -551,7 +564,11 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
         if "gauge_pressure" not in v:
             v["gauge_pressure"] = 0.0
         tanks.append(v)
+    return tanks
 
+
+def _read_rooms(r, doc):
+    """Every [[room]] table, with its defaults."""
     rooms = []
     for i, item in enumerate(doc.get("room", [])):
         r.check_keys("room", i, item)
@@ -578,13 +595,17 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
             r.fail("room", i, "near_field_radius", "the two-zone model needs both "
                    "near_field_radius and random_air_speed")
         rooms.append(v)
-    room_names = {room["name"].lower(): room["name"] for room in rooms}
+    return rooms
 
+
+def _read_spills(r, doc, liquids, rooms, shift):
+    """Every [[spill]] table, with its defaults."""
+    room_names = {room["name"].lower(): room["name"] for room in rooms}
     spills = []
     for i, item in enumerate(doc.get("spill", [])):
         r.check_keys("spill", i, item)
         v = {k: r.value("spill", i, item, k) for k in item}
-        v["liquid"] = liquid_ref("spill", i, item)
+        v["liquid"] = _liquid_name(r, liquids, "spill", i, item)
         if liquids[v["liquid"]]["kind"] == "water":
             r.fail("spill", i, "liquid", "spills of water with dissolved volatiles are not "
                    "modelled; use a tank for its headspace")
@@ -613,7 +634,11 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
                                  "spreads to 1 cm depth (US EPA RMP guidance)")
         v.setdefault("duration", shift.duration)
         spills.append(v)
+    return spills
 
+
+def _read_outdoors(r, doc):
+    """The [outdoors] table (None when absent), with its defaults."""
     outdoors = None
     if "outdoors" in doc:
         od = doc["outdoors"]
@@ -624,10 +649,10 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
             r.fail("outdoors", None, "daytime", "give the stability class, or daytime = true/false "
                    "with the insolation (day) or cloud_cover in oktas (night)")
         if "stability" in outdoors:
-            from .outdoor import _classes
+            from .outdoor import pasquill_classes
 
             try:
-                _classes(outdoors["stability"])
+                pasquill_classes(outdoors["stability"])
             except InputError as exc:
                 r.fail("outdoors", None, "stability", exc.reason)
         else:
@@ -642,6 +667,12 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
         outdoors.setdefault("terrain", "open")
         outdoors.setdefault("wind_height", 10.0)
         outdoors.setdefault("receptors", [100.0, 300.0, 1000.0, 3000.0])
+    return outdoors
+
+
+def _read_limits(r, doc, resolve):
+    """Every [[limit]] table as `ExposureLimit` objects."""
+    from .limits import exposure_limit
 
     limits = []
     for i, item in enumerate(doc.get("limit", [])):
@@ -666,7 +697,11 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
         from .limits import LIMIT_CONVENTION
 
         r.assumptions.append(LIMIT_CONVENTION[:1].upper() + LIMIT_CONVENTION[1:])
+    return limits
 
+
+def _read_uncertain(r, doc, tanks, spills, liquids):
+    """Every [[uncertain]] table: item, kind, input and distribution."""
     uncertain = []
     items = {t["name"].lower(): ("tank", t) for t in tanks}
     items.update({sp["name"].lower(): ("spill", sp) for sp in spills})
@@ -699,6 +734,11 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
             raise ScenarioError(where, f"{part}: {exc.reason}" if part else exc.reason) from None
         uncertain.append({"item": target["name"], "kind": what, "input": key,
                           "distribution": dist})
+    return uncertain
+
+
+def _read_monte_carlo(r, doc, uncertain):
+    """The [monte_carlo] settings: samples, seed, method uncertainty."""
     mc = doc.get("monte_carlo", {})
     r.check_keys("monte_carlo", None, mc)
     samples = r.value("monte_carlo", None, mc, "samples", 10_000.0)
@@ -712,6 +752,54 @@ def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenar
     if uncertain and seed is None:
         r.assumptions.append("Monte Carlo seed not given: a new one is drawn and recorded in "
                              "the results")
+    return monte_carlo
+
+
+def loads_scenario(text: str, source_path: str = "", *, base_dir=None) -> Scenario:
+    """Load and check a scenario from TOML text.
+
+    `base_dir` is the folder of the scenario file, where a [[liquid]] ``sds`` file
+    is looked for (confined to it); text not read from a file has none.
+
+    Raises
+    ------
+    ScenarioError
+        With the section, key and line of the first problem, and what to do.
+    """
+    if len(text.encode("utf-8", "replace")) > MAX_SCENARIO_BYTES:
+        raise ScenarioError("scenario file", f"is larger than {MAX_SCENARIO_BYTES} bytes; "
+                            "a scenario is a short text file")
+    try:
+        doc = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise ScenarioError("scenario file", f"is not valid TOML: {exc}") from None
+    _check_sections(doc)
+    r = _Reader(text)
+    head = doc["scenario"]
+    r.check_keys("scenario", None, head)
+    title = r.value("scenario", None, head, "title")
+
+    pressure, air_t = _read_conditions(r, doc)
+    alarms = _read_alarms(r, doc)
+    shift = _read_shift(r, doc)
+    subs = _read_substances(r, doc)
+    partial = Scenario(MappingProxyType({}), title, pressure, air_t, tuple(subs),
+                       MappingProxyType({}), (), (), (), None, (), alarms, shift, ())
+
+    def resolve(section, i, key, name):
+        try:
+            return partial.resolve(name, key)
+        except UnknownSubstanceError as exc:
+            raise ScenarioError(r.where(section, i, key), exc.reason) from None
+
+    liquids = _read_liquids(r, doc, resolve, partial, base_dir)
+    tanks = _read_tanks(r, doc, liquids)
+    rooms = _read_rooms(r, doc)
+    spills = _read_spills(r, doc, liquids, rooms, shift)
+    outdoors = _read_outdoors(r, doc)
+    limits = _read_limits(r, doc, resolve)
+    uncertain = _read_uncertain(r, doc, tanks, spills, liquids)
+    monte_carlo = _read_monte_carlo(r, doc, uncertain)
 
     return Scenario(
         document=MappingProxyType(doc), title=title, pressure=float(pressure),
@@ -732,8 +820,9 @@ def _split_limit(raw, where):
     return float(match.group(1)), match.group(2)
 
 
-def _build_liquid(entry):
-    """The model-ready liquid of a scenario liquid entry."""
+def build_liquid(entry):
+    """The model-ready liquid of a scenario liquid entry (None for water with
+    dissolved substances, which `estimator.headspace.water_headspace` takes)."""
     from .mixtures import liquid
 
     if entry["kind"] == "water":
@@ -761,29 +850,6 @@ def load_scenario(path) -> Scenario:
     return loads_scenario(text, str(p), base_dir=p.resolve().parent)
 
 
-def _toml_value(value) -> str:
-    if isinstance(value, bool):
-        return "true" if value else "false"
-    if isinstance(value, (int, float)):
-        if isinstance(value, float) and not math.isfinite(value):
-            raise ValueError("cannot write a non-finite number to a scenario")
-        return repr(value)
-    if isinstance(value, str):
-        escaped = (value.replace("\\", "\\\\").replace('"', '\\"').replace("\n", "\\n")
-                   .replace("\t", "\\t").replace("\r", "\\r"))
-        return f'"{escaped}"'
-    if isinstance(value, list):
-        return "[" + ", ".join(_toml_value(v) for v in value) + "]"
-    if isinstance(value, dict):
-        return "{ " + ", ".join(f"{_toml_key(k)} = {_toml_value(v)}"
-                                for k, v in value.items()) + " }"
-    raise ValueError(f"cannot write {type(value).__name__} to a scenario")
-
-
-def _toml_key(key: str) -> str:
-    return key if re.fullmatch(r"[A-Za-z0-9_-]+", key) else _toml_value(key)
-
-
 def dumps_scenario(document) -> str:
     """Write a scenario document as TOML, recording the ullage version.
 
@@ -806,13 +872,13 @@ def dumps_scenario(document) -> str:
         for item in items:
             out.append(f"[{section}]" if section in _TABLES else f"[[{section}]]")
             for key, v in item.items():
-                out.append(f"{_toml_key(key)} = {_toml_value(v)}")
+                out.append(f"{toml_key(key)} = {toml_value(v)}")
             out.append("")
     return "\n".join(out)
 
 
 def save_scenario(document, path) -> None:
     """Write a scenario file atomically (temporary file, then rename)."""
-    from .report import write_text_atomic
+    from .files import write_text_atomic
 
     write_text_atomic(path, dumps_scenario(document))

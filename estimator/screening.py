@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from . import CAUTIONS, __version__
+from ._meta import CAUTIONS, __version__
 from .errors import InputError, UllageError
 from .headspace import (
     AboveAtLowestTemperature,
@@ -33,7 +33,7 @@ from .limits import (
     format_number,
     vapor_hazard_ratio,
 )
-from .scenario import Scenario, _build_liquid
+from .scenario import Scenario, build_liquid
 
 __all__ = [
     "TankResult",
@@ -310,7 +310,7 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
                 hs = water_headspace({s.key: c for s, c in entry["spec"].items()},
                                      temperature, pressure)
             else:
-                hs = headspace(_build_liquid(entry), temperature, pressure)
+                hs = headspace(build_liquid(entry), temperature, pressure)
         notes.extend(str(w.message) for w in caught)
         return hs
 
@@ -563,129 +563,139 @@ def _flammability_findings(zones, end) -> list[str]:
     return out
 
 
-def _spill(scenario: Scenario, spill: dict) -> SpillResult:
-    from .evaporation import mixture_evaporation_rates
-    from .spill import indoor_spill, outdoor_spill
+def _indoor_run(scenario: Scenario, spill: dict, liq, geometry: dict):
+    """The spill in its room: the run, the pool area, each zone's flammability and
+    exposures, and what happened to the pool."""
+    from .spill import indoor_spill
 
-    entry = scenario.liquids[spill["liquid"]]
-    liq = _build_liquid(entry)
     t = spill["temperature"]
     pressure = scenario.pressure
-    notes: list[str] = []
-    geometry = dict(area=spill.get("area"), dike_area=spill.get("dike_area"))
-    if spill.get("depth") is not None:
-        geometry["depth"] = spill["depth"]
     findings: list[str] = []
     exposures = []
+    room = next(r for r in scenario.rooms if r["name"] == spill["room"])
+    air_speed = room["air_speed"]
+    two_zone = {}
+    if room.get("near_field_radius"):
+        from .indoor import interzonal_airflow, near_field_hemisphere
+
+        geo = near_field_hemisphere(room["near_field_radius"])
+        two_zone = dict(near_field_volume=geo.volume,
+                        interzonal_flow=interzonal_airflow(geo.free_surface_area,
+                                                           room["random_air_speed"]))
+    amount = ({"spilled_volume": spill["volume"]} if spill.get("volume")
+              else {"spilled_mass": spill["mass"]})
+    indoor = indoor_spill(
+        liq, t, room_volume=room["volume"], ventilation_rate=room["ventilation_rate"],
+        mixing_factor=room["mixing_factor"], air_speed=air_speed,
+        duration=spill["duration"], source_removed_at=spill.get("cleanup_after"),
+        model=spill["model"], pressure=pressure, **amount, **two_zone, **geometry)
+    area = indoor.pool_area
+    zones = [("room", "far field" if two_zone else "room")]
+    if two_zone:
+        zones.insert(0, ("near_field", "near field"))
+    flammability = [_zone_flammability(indoor, zone, label, liq, scenario.alarms)
+                    for zone, label in zones]
+    findings.extend(_flammability_findings(flammability, indoor.times[-1]))
+    for zone, label in zones:
+        ppm = indoor.ppm(zone)
+        for j, c in enumerate(liq.components):
+            exposures.append(_zone_exposure(label, c.key, indoor.times, ppm[:, j],
+                                            scenario.limits, scenario.shift, t,
+                                            pressure))
+    gone = indoor.pool_gone_time
+    removed = indoor.source_removed_time
+    left = float(indoor.mass_remaining[-1].sum())
+    if math.isfinite(gone):
+        text = f"The pool ({format_number(area)} m²) has evaporated after {gone / 60:.0f} min."
+    elif removed is not None and removed < indoor.times[-1]:
+        at = int(np.searchsorted(indoor.times, removed))
+        text = (f"The pool ({format_number(area)} m²) is cleaned up at {removed / 60:.0f} min "
+                f"with {format_number(float(indoor.mass_remaining[at].sum()))} kg still in it.")
+    else:
+        text = (f"The pool ({format_number(area)} m²) still holds {format_number(left)} kg at the end "
+                "of the run.")
+    findings.append(text)
+    return indoor, area, flammability, exposures, findings
+
+
+def _outdoor_run(scenario: Scenario, spill: dict, liq, geometry: dict, notes: list):
+    """The spill outdoors: stability class, wind at 10 m, the run, and the distances
+    to each limit."""
+    from .spill import outdoor_spill
+
+    t = spill["temperature"]
+    pressure = scenario.pressure
+    findings: list[str] = []
     distances = []
-    flammability = []
-    indoor = outdoor = None
-    with warnings.catch_warnings(record=True) as caught:
-        warnings.simplefilter("always")
-        if spill.get("room"):
-            room = next(r for r in scenario.rooms if r["name"] == spill["room"])
-            air_speed = room["air_speed"]
-            two_zone = {}
-            if room.get("near_field_radius"):
-                from .indoor import interzonal_airflow, near_field_hemisphere
+    od = scenario.outdoors
+    stability = od.get("stability")
+    if stability is None:
+        from .outdoor import stability_class
 
-                geo = near_field_hemisphere(room["near_field_radius"])
-                two_zone = dict(near_field_volume=geo.volume,
-                                interzonal_flow=interzonal_airflow(geo.free_surface_area,
-                                                                   room["random_air_speed"]))
-            amount = ({"spilled_volume": spill["volume"]} if spill.get("volume")
-                      else {"spilled_mass": spill["mass"]})
-            indoor = indoor_spill(
-                liq, t, room_volume=room["volume"], ventilation_rate=room["ventilation_rate"],
-                mixing_factor=room["mixing_factor"], air_speed=air_speed,
-                duration=spill["duration"], source_removed_at=spill.get("cleanup_after"),
-                model=spill["model"], pressure=pressure, **amount, **two_zone, **geometry)
-            area = indoor.pool_area
-            zones = [("room", "far field" if two_zone else "room")]
-            if two_zone:
-                zones.insert(0, ("near_field", "near field"))
-            flammability = [_zone_flammability(indoor, zone, label, liq, scenario.alarms)
-                            for zone, label in zones]
-            findings.extend(_flammability_findings(flammability, indoor.times[-1]))
-            for zone, label in zones:
-                ppm = indoor.ppm(zone)
-                for j, c in enumerate(liq.components):
-                    exposures.append(_zone_exposure(label, c.key, indoor.times, ppm[:, j],
-                                                    scenario.limits, scenario.shift, t,
-                                                    pressure))
-            gone = indoor.pool_gone_time
-            removed = indoor.source_removed_time
-            left = float(indoor.mass_remaining[-1].sum())
-            if math.isfinite(gone):
-                text = f"The pool ({format_number(area)} m²) has evaporated after {gone / 60:.0f} min."
-            elif removed is not None and removed < indoor.times[-1]:
-                at = int(np.searchsorted(indoor.times, removed))
-                text = (f"The pool ({format_number(area)} m²) is cleaned up at {removed / 60:.0f} min "
-                        f"with {format_number(float(indoor.mass_remaining[at].sum()))} kg still in it.")
-            else:
-                text = (f"The pool ({format_number(area)} m²) still holds {format_number(left)} kg at the end "
-                        "of the run.")
-            findings.append(text)
-        else:
-            od = scenario.outdoors
-            stability = od.get("stability")
-            if stability is None:
-                from .outdoor import stability_class
+        stability = stability_class(od["wind_speed"], od.get("daytime", True),
+                                    od.get("insolation"), od.get("cloud_cover"))
+        notes.append(f"stability class {stability} from the wind speed and "
+                     f"{'insolation' if od.get('daytime', True) else 'cloud cover'}")
+    wind = od["wind_speed"]
+    if od.get("wind_height", 10.0) != 10.0:
+        from .outdoor import wind_speed_at_height
 
-                stability = stability_class(od["wind_speed"], od.get("daytime", True),
-                                            od.get("insolation"), od.get("cloud_cover"))
-                notes.append(f"stability class {stability} from the wind speed and "
-                             f"{'insolation' if od.get('daytime', True) else 'cloud cover'}")
-            wind = od["wind_speed"]
-            if od.get("wind_height", 10.0) != 10.0:
-                from .outdoor import wind_speed_at_height
+        wind = wind_speed_at_height(od["wind_speed"], 10.0, od["wind_height"],
+                                    stability.split("-")[-1], od["terrain"])
+        notes.append(f"wind speed {format_number(od['wind_speed'], 2)} m/s at "
+                     f"{od['wind_height']:g} m taken to {format_number(wind, 2)} m/s at 10 m "
+                     "(power law)")
+    volume = spill.get("volume") or spill["mass"] / _density(liq)
+    outdoor = outdoor_spill(liq, t, od["receptors"], wind_speed=wind,
+                            stability=stability, terrain=od["terrain"],
+                            spilled_volume=volume, model=spill["model"],
+                            pressure=pressure, **geometry,
+                            lfl_alarm_percent=scenario.alarms.percent_lfl)
+    for lim in scenario.limits:
+        keys = [c.key for c in liq.components]
+        if lim.substance not in keys:
+            continue
+        d, note = outdoor.distance_above(
+            lim.volume_fraction_at(t, pressure), keys.index(lim.substance))
+        from .spill import MAX_OUTDOOR_DISTANCE
 
-                wind = wind_speed_at_height(od["wind_speed"], 10.0, od["wind_height"],
-                                            stability.split("-")[-1], od["terrain"])
-                notes.append(f"wind speed {format_number(od['wind_speed'], 2)} m/s at "
-                             f"{od['wind_height']:g} m taken to {format_number(wind, 2)} m/s at 10 m "
-                             "(power law)")
-            volume = spill.get("volume") or spill["mass"] / _density(liq)
-            outdoor = outdoor_spill(liq, t, od["receptors"], wind_speed=wind,
-                                    stability=stability, terrain=od["terrain"],
-                                    spilled_volume=volume, model=spill["model"],
-                                    pressure=pressure, **geometry,
-                                    lfl_alarm_percent=scenario.alarms.percent_lfl)
-            area = None
-            for lim in scenario.limits:
-                keys = [c.key for c in liq.components]
-                if lim.substance not in keys:
-                    continue
-                d, note = outdoor.distance_above(
-                    lim.volume_fraction_at(t, pressure), keys.index(lim.substance))
-                from .spill import MAX_OUTDOOR_DISTANCE
+        d = 0.0 if d is None else (None if d >= MAX_OUTDOOR_DISTANCE else d)
+        distances.append((lim.label, d, note))
+    findings.append(f"Release rate to air {format_number(1000 * outdoor.emission_rate.sum())} g/s "
+                    f"(initial evaporation rate), stability class {stability}.")
+    findings += _outdoor_lfl_findings(outdoor)
+    return outdoor, wind, distances, findings
 
-                d = 0.0 if d is None else (None if d >= MAX_OUTDOOR_DISTANCE else d)
-                distances.append((lim.label, d, note))
-            findings.append(f"Release rate to air {format_number(1000 * outdoor.emission_rate.sum())} g/s "
-                            f"(initial evaporation rate), stability class {stability}.")
-            findings += _outdoor_lfl_findings(outdoor)
-        rates = {}
-        area_for_rates = area if area is not None else None
-        if area_for_rates is None:
-            from .evaporation import spill_pool_area
 
-            area_for_rates = spill.get("area") or spill_pool_area(
-                spill.get("volume") or spill["mass"] / _density(liq), spill.get("dike_area"),
-                spill.get("depth", 0.01))
-        speed = (next(r for r in scenario.rooms if r["name"] == spill["room"])["air_speed"]
-                 if spill.get("room") else wind)
-        for model in ("mackay-matsugu", "epa-rmp"):
-            try:
-                rates[model] = float(np.sum(mixture_evaporation_rates(
-                    liq.components, liq.mole_fractions, t, area_for_rates, speed,
-                    liq.activity_coefficients, model, pressure)))
-            except UllageError as exc:
-                notes.append(f"{model}: {exc}")
-    notes.extend(str(w.message) for w in caught)
-    notes.extend(n for c in liq.components for n in c.notes)
-    run = indoor or outdoor
-    notes.extend(run.warnings)
+def _initial_rates(scenario: Scenario, spill: dict, liq, area, wind, notes: list) -> dict:
+    """Initial evaporation rate of the spill by each model [kg/s], for comparison."""
+    from .evaporation import mixture_evaporation_rates
+
+    t = spill["temperature"]
+    pressure = scenario.pressure
+    rates = {}
+    area_for_rates = area if area is not None else None
+    if area_for_rates is None:
+        from .evaporation import spill_pool_area
+
+        area_for_rates = spill.get("area") or spill_pool_area(
+            spill.get("volume") or spill["mass"] / _density(liq), spill.get("dike_area"),
+            spill.get("depth", 0.01))
+    speed = (next(r for r in scenario.rooms if r["name"] == spill["room"])["air_speed"]
+             if spill.get("room") else wind)
+    for model in ("mackay-matsugu", "epa-rmp"):
+        try:
+            rates[model] = float(np.sum(mixture_evaporation_rates(
+                liq.components, liq.mole_fractions, t, area_for_rates, speed,
+                liq.activity_coefficients, model, pressure)))
+        except UllageError as exc:
+            notes.append(f"{model}: {exc}")
+    return rates
+
+
+def _exposure_findings(exposures) -> list[str]:
+    """One sentence per exposure comparison of every zone and substance."""
+    findings = []
     for e in exposures:
         for label, limit_ppm, ratio, first, back in e.comparisons:
             verb = "exceeds" if ratio > 1 else "reaches" if ratio == 1 else "stays below"
@@ -699,6 +709,12 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
                 text += (f", back below at {back / 60:.0f} min" if back is not None
                          else ", not back below within the run")
             findings.append(text + ".")
+    return findings
+
+
+def _distance_findings(distances) -> list[str]:
+    """One sentence per limit on how far downwind the centreline stays above it."""
+    findings = []
     for label, d, note in distances:
         if d is None:
             text = f"Downwind, the {label} is exceeded beyond the farthest distance computed"
@@ -710,6 +726,36 @@ def _spill(scenario: Scenario, spill: dict) -> SpillResult:
             if d < 100:
                 text += " (under 100 m, outside the range of the dispersion coefficients)"
         findings.append(text + ".")
+    return findings
+
+
+def _spill(scenario: Scenario, spill: dict) -> SpillResult:
+    entry = scenario.liquids[spill["liquid"]]
+    liq = build_liquid(entry)
+    notes: list[str] = []
+    geometry = dict(area=spill.get("area"), dike_area=spill.get("dike_area"))
+    if spill.get("depth") is not None:
+        geometry["depth"] = spill["depth"]
+    distances = []
+    flammability = []
+    exposures = []
+    indoor = outdoor = None
+    area = wind = None
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always")
+        if spill.get("room"):
+            indoor, area, flammability, exposures, findings = _indoor_run(
+                scenario, spill, liq, geometry)
+        else:
+            outdoor, wind, distances, findings = _outdoor_run(scenario, spill, liq, geometry,
+                                                              notes)
+        rates = _initial_rates(scenario, spill, liq, area, wind, notes)
+    notes.extend(str(w.message) for w in caught)
+    notes.extend(n for c in liq.components for n in c.notes)
+    run = indoor or outdoor
+    notes.extend(run.warnings)
+    findings += _exposure_findings(exposures)
+    findings += _distance_findings(distances)
     return SpillResult(
         name=spill["name"], liquid=spill["liquid"], where=spill.get("room") or "outdoors",
         indoor=indoor, outdoor=outdoor, initial_rates=rates, exposures=tuple(exposures),

@@ -413,27 +413,27 @@ class SdsReading:
     def to_toml(self, name: str | None = None, *, point: str = "mid",
                 unidentified="inert") -> str:
         """The ``[[liquid]]`` block of a scenario file, with the ranges."""
-        from .scenario import _toml_key, _toml_value
+        from .toml_text import toml_key, toml_value
 
         label = name or self.product or "liquid from safety data sheet"
         lines = [f"# Read from {self.source} by ullage: check every line against the sheet.",
-                 "[[liquid]]", f"name = {_toml_value(label)}",
-                 f"basis = {_toml_value(self.basis)}", f"point = {_toml_value(point)}"]
+                 "[[liquid]]", f"name = {toml_value(label)}",
+                 f"basis = {toml_value(self.basis)}", f"point = {toml_value(point)}"]
         ranges = {}
         for item in self.components:
             ranges[item.cas] = [f"{100 * item.low:.6g} %", f"{100 * item.high:.6g} %"]
         if ranges:
-            lines.append("ranges = " + _toml_value(ranges))
+            lines.append("ranges = " + toml_value(ranges))
         unlisted = {}
         for item in self.unidentified:
             label_u = item.name if item.name not in unlisted else f"{item.name} ({item.cas})"
             unlisted[label_u] = [f"{100 * item.low:.6g} %", f"{100 * item.high:.6g} %"]
         if unlisted:
-            lines.append("unlisted = " + _toml_value(unlisted))
+            lines.append("unlisted = " + toml_value(unlisted))
         treat = unidentified if isinstance(unidentified, str) else unidentified.name
-        lines.append(f"unidentified_as = {_toml_value(treat)}")
+        lines.append(f"unidentified_as = {toml_value(treat)}")
         for item in self.components:
-            lines.append(f"# {_toml_key(item.cas)}: {item.name}")
+            lines.append(f"# {toml_key(item.cas)}: {item.name}")
         return "\n".join(lines) + "\n"
 
     def summary(self) -> str:
@@ -879,9 +879,94 @@ def _value_part(line: str, label: re.Pattern) -> str:
     return rest
 
 
-def _properties(lines: list[str], notes: list[str]) -> dict:
+def _vapor_pressure_line(line: str, next_line: str, notes: list[str]):
+    """(temperature [K], vapour pressure [Pa]) read from a property line (or the
+    next line of a two-line layout), or None."""
     from .units import parse_quantity
 
+    part = _value_part(line, _LABELS["vapor_pressure"])
+    m = _PRESSURE.search(part) or _PRESSURE.search(next_line)
+    if m:
+        unit = _PRESSURE_UNITS[re.sub(r"\s", "", m.group("u").lower())]
+        p = parse_quantity(f"{_number(m.group('a'))} {unit}", "pressure",
+                           "vapour pressure")
+        source_text = part if _PRESSURE.search(part) else next_line
+        temps = _temperatures(source_text[source_text.find(m.group(0)):]) or \
+            _temperatures(source_text)
+        if temps:
+            t = temps[0]
+        else:
+            t = 293.15
+            notes.append("the vapour pressure is given without a temperature: "
+                         "20 °C assumed (the usual reference on sheets)")
+        if p > 0:
+            return (t, p)
+    elif not _NO_VALUE.search(part):
+        notes.append(f"could not read the vapour pressure from {line!r}")
+    return None
+
+
+def _flammability_line(line: str, notes: list[str]):
+    """(lower, upper) flammability limits [% by volume] read from a line; None for
+    a limit it does not give."""
+    part = _value_part(line, _LABELS["flammability"])
+    label_text = line[:len(line) - len(part)].lower()
+    lower = re.search(rf"(?:lower|\blel\b|\blfl\b)\D{{0,20}}?({_NUM})", part, re.I)
+    upper = re.search(rf"(?:upper|\buel\b|\bufl\b)\D{{0,20}}?({_NUM})", part, re.I)
+    values = [_number(v) for v in re.findall(rf"(?<![\d.])({_NUM})(?=\s*%|\s*-|\s*vol"
+                                             rf"|\s*$|\s*\()", part)]
+    lfl = ufl = None
+    if lower or upper:
+        lfl = _number(lower.group(1)) if lower else None
+        ufl = _number(upper.group(1)) if upper else None
+    elif len(values) >= 2:
+        lfl, ufl = min(values[:2]), max(values[:2])
+    elif len(values) == 1:
+        has_low = re.search(r"lower|\blel\b|\blfl\b", label_text)
+        has_up = re.search(r"upper|\buel\b|\bufl\b", label_text)
+        if has_low and not has_up:
+            lfl = values[0]
+        elif has_up and not has_low:
+            ufl = values[0]
+    if lfl is None and ufl is None and not _NO_VALUE.search(part) and re.search(r"\d", part):
+        notes.append(f"could not read a flammability limit from {line!r}")
+    return lfl, ufl
+
+
+def _density_line(line: str, notes: list[str]):
+    """Liquid density [kg/m3] read from a property line (a value with a unit, or a
+    relative density times water at 20 degC), or None."""
+    from .units import parse_quantity
+
+    part = _value_part(line, _LABELS["density"])
+    part = re.sub(r"\(\s*(?:water|h2o|air)\s*=\s*1\s*\)|(?:water|h2o)\s*=\s*1",
+                  " ", part, flags=re.I)
+    m = re.search(rf"({_NUM})\s*(kg\s*/\s*m3|g\s*/\s*cm3|g\s*/\s*ml|g\s*/\s*cc|"
+                  rf"kg\s*/\s*l|g\s*/\s*l|lbs?\s*/\s*gal)\b", part, re.I)
+    relative = re.search(r"relative|specific\s+gravity", line, re.I)
+    if m:
+        unit = re.sub(r"\s", "", m.group(2).lower()).replace("lbs", "lb")
+        unit = {"g/cc": "g/cm3", "g/ml": "g/mL", "kg/l": "kg/L", "g/l": "g/L"}.get(
+            unit, unit)
+        return parse_quantity(f"{_number(m.group(1))} {unit}", "density", "density")
+    else:
+        n = re.search(rf"(?<![\d.])({_NUM})", part)
+        if n and not _NO_VALUE.search(part):
+            value = _number(n.group(1))
+            if relative or value < 3.0:
+                density = value * WATER_DENSITY_20C
+                what = "relative density" if relative else "unitless value"
+                notes.append(f"density from the {what} {value:g} × water at 20 "
+                             f"°C ({WATER_DENSITY_20C:g} kg/m3)")
+                return density
+            else:
+                notes.append(f"could not read the density from {line!r} (no unit)")
+        elif not _NO_VALUE.search(part):
+            notes.append(f"could not read the density from {line!r}")
+    return None
+
+
+def _properties(lines: list[str], notes: list[str]) -> dict:
     props = dict(flash_point=None, vapor_pressure=None, boiling_point=None,
                  lower_flammability_limit=None, upper_flammability_limit=None, density=None)
 
@@ -908,25 +993,9 @@ def _properties(lines: list[str], notes: list[str]) -> dict:
             elif not _NO_VALUE.search(part):
                 notes.append(f"could not read the flash point from {line!r}")
         elif _LABELS["vapor_pressure"].search(line) and props["vapor_pressure"] is None:
-            part = _value_part(line, _LABELS["vapor_pressure"])
-            m = _PRESSURE.search(part) or _PRESSURE.search(following(i))
-            if m:
-                unit = _PRESSURE_UNITS[re.sub(r"\s", "", m.group("u").lower())]
-                p = parse_quantity(f"{_number(m.group('a'))} {unit}", "pressure",
-                                   "vapour pressure")
-                source_text = part if _PRESSURE.search(part) else following(i)
-                temps = _temperatures(source_text[source_text.find(m.group(0)):]) or \
-                    _temperatures(source_text)
-                if temps:
-                    t = temps[0]
-                else:
-                    t = 293.15
-                    notes.append("the vapour pressure is given without a temperature: "
-                                 "20 °C assumed (the usual reference on sheets)")
-                if p > 0:
-                    props["vapor_pressure"] = (t, p)
-            elif not _NO_VALUE.search(part):
-                notes.append(f"could not read the vapour pressure from {line!r}")
+            read = _vapor_pressure_line(line, following(i), notes)
+            if read is not None:
+                props["vapor_pressure"] = read
         elif _LABELS["boiling_point"].search(line) and props["boiling_point"] is None:
             part = _value_part(line, _LABELS["boiling_point"])
             temps = _temperatures(part) or _temperatures(following(i))
@@ -936,29 +1005,7 @@ def _properties(lines: list[str], notes: list[str]) -> dict:
                 notes.append(f"could not read the boiling point from {line!r}")
         elif _LABELS["flammability"].search(line) and "flammability (solid" not in low \
                 and not re.match(r"^\W*flammability\s*(?:\(|:|$)", low):
-            part = _value_part(line, _LABELS["flammability"])
-            label_text = line[:len(line) - len(part)].lower()
-            lower = re.search(rf"(?:lower|\blel\b|\blfl\b)\D{{0,20}}?({_NUM})", part, re.I)
-            upper = re.search(rf"(?:upper|\buel\b|\bufl\b)\D{{0,20}}?({_NUM})", part, re.I)
-            values = [_number(v) for v in re.findall(rf"(?<![\d.])({_NUM})(?=\s*%|\s*-|\s*vol"
-                                                     rf"|\s*$|\s*\()", part)]
-            lfl = ufl = None
-            if lower or upper:
-                lfl = _number(lower.group(1)) if lower else None
-                ufl = _number(upper.group(1)) if upper else None
-            elif len(values) >= 2:
-                lfl, ufl = min(values[:2]), max(values[:2])
-            elif len(values) == 1:
-                has_low = re.search(r"lower|\blel\b|\blfl\b", label_text)
-                has_up = re.search(r"upper|\buel\b|\bufl\b", label_text)
-                if has_low and not has_up:
-                    lfl = values[0]
-                elif has_up and not has_low:
-                    ufl = values[0]
-            if lfl is None and ufl is None:
-                if not _NO_VALUE.search(part) and re.search(r"\d", part):
-                    notes.append(f"could not read a flammability limit from {line!r}")
-                continue
+            lfl, ufl = _flammability_line(line, notes)
             if lfl is not None and props["lower_flammability_limit"] is None:
                 props["lower_flammability_limit"] = lfl / 100.0
             if ufl is not None and props["upper_flammability_limit"] is None:
@@ -966,31 +1013,7 @@ def _properties(lines: list[str], notes: list[str]) -> dict:
         elif _LABELS["density"].search(line) and props["density"] is None \
                 and not re.search(r"vapou?r\s+density|bulk\s+density|relative\s+vapou?r",
                                   low):
-            part = _value_part(line, _LABELS["density"])
-            part = re.sub(r"\(\s*(?:water|h2o|air)\s*=\s*1\s*\)|(?:water|h2o)\s*=\s*1",
-                          " ", part, flags=re.I)
-            m = re.search(rf"({_NUM})\s*(kg\s*/\s*m3|g\s*/\s*cm3|g\s*/\s*ml|g\s*/\s*cc|"
-                          rf"kg\s*/\s*l|g\s*/\s*l|lbs?\s*/\s*gal)\b", part, re.I)
-            relative = re.search(r"relative|specific\s+gravity", line, re.I)
-            if m:
-                unit = re.sub(r"\s", "", m.group(2).lower()).replace("lbs", "lb")
-                unit = {"g/cc": "g/cm3", "g/ml": "g/mL", "kg/l": "kg/L", "g/l": "g/L"}.get(
-                    unit, unit)
-                props["density"] = parse_quantity(f"{_number(m.group(1))} {unit}",
-                                                  "density", "density")
-            else:
-                n = re.search(rf"(?<![\d.])({_NUM})", part)
-                if n and not _NO_VALUE.search(part):
-                    value = _number(n.group(1))
-                    if relative or value < 3.0:
-                        props["density"] = value * WATER_DENSITY_20C
-                        what = "relative density" if relative else "unitless value"
-                        notes.append(f"density from the {what} {value:g} × water at 20 "
-                                     f"°C ({WATER_DENSITY_20C:g} kg/m3)")
-                    else:
-                        notes.append(f"could not read the density from {line!r} (no unit)")
-                elif not _NO_VALUE.search(part):
-                    notes.append(f"could not read the density from {line!r}")
+            props["density"] = _density_line(line, notes)
     return props
 
 
@@ -1311,10 +1334,10 @@ class _Model:
         return w / w.sum()
 
     def _coefficients(self, temperature, pressure, limits, limit_kind):
-        from .headspace import _check_pressure
+        from .checks import check_pressure
         from .vapor import vapor_pressure_estimate
 
-        p_total = _check_pressure(pressure)
+        p_total = check_pressure(pressure)
         p_sat = np.array([float(vapor_pressure_estimate(s, temperature).pressure)
                           for s in self.substances])
         keyed = {}

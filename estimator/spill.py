@@ -17,13 +17,14 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from .constants import EIGHT_HOUR_SHIFT, GAS_CONSTANT, STANDARD_ATMOSPHERE, UNDIKED_SPILL_DEPTH
+from .checks import positive
 from .errors import InputError
 from .evaporation import (
     DEPLETED_FRACTION,
     EvaporationSolverError,
-    _bubble_check,
-    _Budget,
-    _mixture_inputs,
+    bubble_check,
+    StepBudget,
+    mixture_inputs,
     spill_pool_area,
 )
 from .mixtures import liquid as make_liquid
@@ -41,17 +42,6 @@ def liquid_mixture_density(liq) -> float:
         raise InputError("liquid", f"no liquid density for {', '.join(missing)}; give the "
                          "spilled mass instead of the volume")
     return float(1.0 / np.sum(liq.mass_fractions / np.asarray(densities)))
-
-
-def _positive(value, field, unit, allow_zero=False) -> float:
-    try:
-        v = float(value)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number in {unit}, got {value!r}") from None
-    if not math.isfinite(v) or v < 0 or (v == 0 and not allow_zero):
-        raise InputError(field, f"{value!r} must be a {'non-negative' if allow_zero else 'positive'}"
-                         f" number in {unit}")
-    return v
 
 
 @dataclass(frozen=True)
@@ -122,6 +112,77 @@ class IndoorSpill:
         return self.volume_fraction(zone) * 1e6
 
 
+def _spilled_mass(liq, spilled_volume, spilled_mass, v_room, area, dike_area, depth):
+    """Spilled mass [kg] and pool area [m2] from the volume or the mass given, and the
+    area given, the dike or the undiked spreading depth."""
+    if (spilled_volume is None) == (spilled_mass is None):
+        raise InputError("spilled volume", "give either the spilled volume or the spilled "
+                         "mass (one of the two)")
+    if spilled_mass is None:
+        vol = positive(spilled_volume, "spilled volume", "m3")
+        if vol >= v_room:
+            raise InputError("spilled volume", f"{vol:g} m3 is not smaller than the room "
+                             f"({v_room:g} m3); check the units")
+        mass = vol * liquid_mixture_density(liq)
+    else:
+        mass = positive(spilled_mass, "spilled mass", "kg")
+        vol = None
+    if area is None:
+        if vol is None:
+            vol = mass / liquid_mixture_density(liq)
+        area = spill_pool_area(vol, dike_area, depth)
+    return mass, positive(area, "pool area", "m2")
+
+
+def _output_times(times, duration):
+    """Output times [s] (every 10 s over the duration, or those given) and the end."""
+    if times is None:
+        end = positive(duration, "duration", "s")
+        t_out = np.linspace(0.0, end, int(round(end / 10.0)) + 1)
+    else:
+        t_out = np.asarray(times, dtype=float)
+        if t_out.ndim != 1 or t_out.size < 2 or not np.all(np.isfinite(t_out)):
+            raise InputError("times", "give at least two finite output times")
+        if t_out[0] < 0 or np.any(np.diff(t_out) <= 0):
+            raise InputError("times", "times must start at or after 0 and increase")
+        end = float(t_out[-1])
+    return t_out, end
+
+
+def _integrate_segments(rhs, y0, t_out, segments, atol):
+    """Integrate ``rhs`` over each (start, end, source active) segment, reporting the
+    state at `t_out` (LSODA through ``scipy.integrate.odeint``)."""
+    from scipy.integrate import odeint
+
+    y_out = np.empty((t_out.size, y0.size))
+    y_start = y0
+    for index, (t0, t1, active) in enumerate(segments):
+        mask = (t_out >= t0) & (t_out <= t1) if index else (t_out <= t1)
+        if t1 <= t0:
+            y_out[mask] = y_start
+            continue
+        grid = np.concatenate(([t0], t_out[mask & (t_out > t0)], [t1]))
+        try:
+            values, info = odeint(rhs, y_start, grid, args=(active,), tfirst=True,
+                                  rtol=1e-8, atol=atol, full_output=True,
+                                  hmax=max((t1 - t0) / 50.0, 1e-3), mxstep=20_000)
+        except EvaporationSolverError:
+            raise
+        except Exception as exc:
+            raise EvaporationSolverError(f"the spill integration failed: {exc}") from None
+        if info["message"] != "Integration successful.":
+            raise EvaporationSolverError(f"the spill integration failed: {info['message']}")
+        inside = values[1:-1]
+        if t_out[mask][0] == t0:
+            inside = np.vstack((values[:1], inside))
+        y_out[mask] = inside
+        y_start = values[-1]
+    if not np.all(np.isfinite(y_out)):
+        raise EvaporationSolverError("the spill integration produced no finite result; "
+                                     "check the inputs for extreme values")
+    return y_out
+
+
 def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_volume=None,
                  spilled_mass=None, area=None, dike_area=None, depth=UNDIKED_SPILL_DEPTH,
                  mixing_factor=1.0, air_speed=0.1, times=None, duration=EIGHT_HOUR_SHIFT,
@@ -185,66 +246,40 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     -------
     IndoorSpill
     """
-    from scipy.integrate import odeint
-
     liq = make_liquid(liquid, basis, activity_coefficients)
-    t_k = _positive(temperature, "temperature", "K")
-    v_room = _positive(room_volume, "room volume", "m3")
-    q = _positive(ventilation_rate, "ventilation rate", "m3/s", allow_zero=True)
+    t_k = positive(temperature, "temperature", "K")
+    v_room = positive(room_volume, "room volume", "m3")
+    q = positive(ventilation_rate, "ventilation rate", "m3/s", allow_zero=True)
     k_mix = float(mixing_factor)
     if not math.isfinite(k_mix) or k_mix < 1.0:
         raise InputError("mixing factor", f"{mixing_factor!r} must be 1 or more: ullage "
                          "divides the ventilation rate by K >= 1 (effective ventilation Q/K)")
-    if (spilled_volume is None) == (spilled_mass is None):
-        raise InputError("spilled volume", "give either the spilled volume or the spilled "
-                         "mass (one of the two)")
-    if spilled_mass is None:
-        vol = _positive(spilled_volume, "spilled volume", "m3")
-        if vol >= v_room:
-            raise InputError("spilled volume", f"{vol:g} m3 is not smaller than the room "
-                             f"({v_room:g} m3); check the units")
-        mass = vol * liquid_mixture_density(liq)
-    else:
-        mass = _positive(spilled_mass, "spilled mass", "kg")
-        vol = None
-    if area is None:
-        if vol is None:
-            vol = mass / liquid_mixture_density(liq)
-        area = spill_pool_area(vol, dike_area, depth)
-    pool_area = _positive(area, "pool area", "m2")
+    mass, pool_area = _spilled_mass(liq, spilled_volume, spilled_mass, v_room, area,
+                                    dike_area, depth)
     two_zone = near_field_volume is not None or interzonal_flow is not None
     if two_zone:
         if near_field_volume is None or interzonal_flow is None:
             raise InputError("near field", "the two-zone model needs both the near-field "
                              "volume and the interzonal airflow")
-        v_nf = _positive(near_field_volume, "near-field volume", "m3")
-        beta = _positive(interzonal_flow, "interzonal airflow", "m3/s")
+        v_nf = positive(near_field_volume, "near-field volume", "m3")
+        beta = positive(interzonal_flow, "interzonal airflow", "m3/s")
         if v_nf >= v_room:
             raise InputError("near-field volume", "must be smaller than the room volume")
-    if times is None:
-        end = _positive(duration, "duration", "s")
-        t_out = np.linspace(0.0, end, int(round(end / 10.0)) + 1)
-    else:
-        t_out = np.asarray(times, dtype=float)
-        if t_out.ndim != 1 or t_out.size < 2 or not np.all(np.isfinite(t_out)):
-            raise InputError("times", "give at least two finite output times")
-        if t_out[0] < 0 or np.any(np.diff(t_out) <= 0):
-            raise InputError("times", "times must start at or after 0 and increase")
-        end = float(t_out[-1])
+    t_out, end = _output_times(times, duration)
     t_remove = None
     if source_removed_at is not None:
-        t_remove = _positive(source_removed_at, "source removed at", "s", allow_zero=True)
+        t_remove = positive(source_removed_at, "source removed at", "s", allow_zero=True)
 
     subs = liq.components
     names = tuple(c.name for c in subs)
-    _, _, _, _, p, _, p_sat, per_pascal, notes = _mixture_inputs(
+    _, _, _, _, p, _, p_sat, per_pascal, notes = mixture_inputs(
         subs, t_k, pool_area, air_speed, model, pressure, None)
     notes = list(liq.warnings) + notes
     n_comp = len(subs)
     molar = liq.molar_masses
     x0 = liq.mole_fractions
     gamma = liq.activity_coefficients
-    _bubble_check(x0, gamma, p_sat, p, notes)
+    bubble_check(x0, gamma, p_sat, p, notes)
     n0 = mass * liq.mass_fractions / molar
     to_pressure = GAS_CONSTANT * t_k / molar
     surface = gamma * p_sat
@@ -253,7 +288,7 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
         q_eff = 0.0
         notes.append("the ventilation rate changes less than a billionth of the room air "
                      "over the run: treated as a closed room")
-    budget = _Budget(400_000, float(time_limit))
+    budget = StepBudget(400_000, float(time_limit))
     v_ff = v_room - v_nf if two_zone else v_room
 
     floor = DEPLETED_FRACTION * n0.sum()
@@ -300,36 +335,10 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     segments = [(0.0, end, True)]
     if t_remove is not None and t_remove < end:
         segments = [(0.0, t_remove, True), (t_remove, end, False)]
-    n_state = y0.size
-    y_out = np.empty((t_out.size, n_state))
     scale = np.concatenate((n0, np.full(zones * n_comp, mass / v_room),
                             np.full(n_comp, mass)))
     atol = np.maximum(scale, 1e-30) * 1e-12
-    y_start = y0
-    for index, (t0, t1, active) in enumerate(segments):
-        mask = (t_out >= t0) & (t_out <= t1) if index else (t_out <= t1)
-        if t1 <= t0:
-            y_out[mask] = y_start
-            continue
-        grid = np.concatenate(([t0], t_out[mask & (t_out > t0)], [t1]))
-        try:
-            values, info = odeint(rhs, y_start, grid, args=(active,), tfirst=True,
-                                  rtol=1e-8, atol=atol, full_output=True,
-                                  hmax=max((t1 - t0) / 50.0, 1e-3), mxstep=20_000)
-        except EvaporationSolverError:
-            raise
-        except Exception as exc:
-            raise EvaporationSolverError(f"the spill integration failed: {exc}") from None
-        if info["message"] != "Integration successful.":
-            raise EvaporationSolverError(f"the spill integration failed: {info['message']}")
-        inside = values[1:-1]
-        if t_out[mask][0] == t0:
-            inside = np.vstack((values[:1], inside))
-        y_out[mask] = inside
-        y_start = values[-1]
-    if not np.all(np.isfinite(y_out)):
-        raise EvaporationSolverError("the spill integration produced no finite result; "
-                                     "check the inputs for extreme values")
+    y_out = _integrate_segments(rhs, y0, t_out, segments, atol)
     n_t = np.clip(y_out[:, :n_comp], 0.0, None)
     air = y_out[:, n_comp:(1 + zones) * n_comp]
     ventilated = y_out[:, (1 + zones) * n_comp:]
@@ -439,11 +448,11 @@ class OutdoorSpill:
 
     def centreline(self, distances) -> np.ndarray:
         """Capped centreline volume fractions, shape (distances, components). [-]"""
-        from .outdoor import _centerline, _classes, _terrain
+        from .outdoor import centerline_concentration, pasquill_classes, terrain_key
 
         x = np.atleast_1d(np.asarray(distances, dtype=float))
-        shape = _centerline(1.0, self.wind_speed, x, _classes(self.stability),
-                            _terrain(self.terrain))
+        shape = centerline_concentration(1.0, self.wind_speed, x, pasquill_classes(self.stability),
+                            terrain_key(self.terrain))
         plume = shape[:, None] * self.volume_rates[None, :]
         return np.minimum(plume, self.saturation_volume_fraction[None, :])
 
@@ -567,27 +576,27 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     OutdoorSpill
     """
     from .evaporation import mixture_evaporation_rates
-    from .outdoor import _centerline, _classes, _terrain, pool_source_criterion
+    from .outdoor import centerline_concentration, pasquill_classes, terrain_key, pool_source_criterion
     from .outdoor import screening_validity
     from .vapor import component_vapor_pressure_estimates
 
     liq = make_liquid(liquid, basis, activity_coefficients)
-    alarm = _positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
+    alarm = positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
     if alarm > 100.0:
         raise InputError("LFL alarm", f"{alarm:g} % is above 100 % of the LFL; give the "
                          "alarm as a percentage of the LFL, such as 10")
     if area is None:
         if spilled_volume is None:
             raise InputError("pool area", "give the pool area or the spilled volume")
-        area = spill_pool_area(_positive(spilled_volume, "spilled volume", "m3"),
+        area = spill_pool_area(positive(spilled_volume, "spilled volume", "m3"),
                                dike_area, depth)
-    area = _positive(area, "pool area", "m2")
+    area = positive(area, "pool area", "m2")
     t = float(temperature)
     rates = mixture_evaporation_rates(liq.components, liq.mole_fractions, temperature, area,
                                       wind_speed, liq.activity_coefficients, model, pressure)
     g = np.asarray(getattr(rates, "rates", rates), dtype=float)
     x = np.atleast_1d(np.asarray(distances, dtype=float))
-    classes, land = _classes(stability), _terrain(terrain)
+    classes, land = pasquill_classes(stability), terrain_key(terrain)
     for gi in g:  # checks the inputs and warns outside the fitted range, as before
         ground_level_centerline(gi, wind_speed, x, stability, terrain)
     u = float(wind_speed)
@@ -608,11 +617,11 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
                                       float(pressure), u)
     # where the cap applies
     capped_until = None
-    shape_edge = float(_centerline(1.0, u, edge, classes, land))
+    shape_edge = float(centerline_concentration(1.0, u, edge, classes, land))
     for j in range(len(g)):
         if volume_rates[j] * shape_edge > y_sat[j] > 0:
             def over(log_x, j=j):
-                return math.log(float(_centerline(1.0, u, math.exp(log_x), classes, land))
+                return math.log(float(centerline_concentration(1.0, u, math.exp(log_x), classes, land))
                                 * volume_rates[j] / y_sat[j])
             from scipy.optimize import brentq
 

@@ -16,8 +16,9 @@ from pathlib import Path
 from types import MappingProxyType
 
 from .constants import STANDARD_ATMOSPHERE
+from .checks import in_range
 from .errors import InputError, UllageError, UnknownSubstanceError, suggest
-from .vapor import (
+from .correlations import (
     AntoineCorrelation,
     ClausiusClapeyronCorrelation,
     Dippr101Correlation,
@@ -439,19 +440,6 @@ def search_substances(text: str, limit: int = 10) -> list[Substance]:
     return found[:limit]
 
 
-def _positive(value, field: str, unit: str, lo: float = 0.0, hi: float = math.inf,
-              hint: str = "") -> float:
-    try:
-        number = float(value)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number in {unit}, got {value!r}") from None
-    if not math.isfinite(number):
-        raise InputError(field, f"must be a finite number in {unit}")
-    if not lo < number < hi:
-        raise InputError(field, f"{number:g} {unit} is outside {lo:g}-{hi:g} {unit}{hint}")
-    return number
-
-
 def user_substance(name: str, molar_mass: float, boiling_point: float,
                    vapor_pressure_points=(), *, lower_flammability_limit=None,
                    upper_flammability_limit=None, flash_point=None, liquid_density=None,
@@ -503,30 +491,30 @@ def user_substance(name: str, molar_mass: float, boiling_point: float,
     """
     if not isinstance(name, str) or not name.strip():
         raise InputError("name", "give the substance a name")
-    molar_mass = _positive(molar_mass, "molar_mass", "kg/mol", 0.002, 2.0,
+    molar_mass = in_range(molar_mass, "molar_mass", "kg/mol", 0.002, 2.0,
                            " (molar mass is in kg/mol: 0.092 for 92 g/mol)")
-    boiling_point = _positive(boiling_point, "boiling_point", "K", 20.0, 1500.0)
-    tc = None if critical_temperature is None else _positive(
+    boiling_point = in_range(boiling_point, "boiling_point", "K", 20.0, 1500.0)
+    tc = None if critical_temperature is None else in_range(
         critical_temperature, "critical_temperature", "K", boiling_point, 3000.0,
         " (it must lie above the boiling point)")
-    tm = None if melting_point is None else _positive(
+    tm = None if melting_point is None else in_range(
         melting_point, "melting_point", "K", 0.0, boiling_point,
         " (it must lie below the boiling point)")
-    lfl = None if lower_flammability_limit is None else _positive(
+    lfl = None if lower_flammability_limit is None else in_range(
         lower_flammability_limit, "lower_flammability_limit", "volume fraction", 0.0, 1.0,
         " (a fraction: 0.012 for 1.2 %)")
-    ufl = None if upper_flammability_limit is None else _positive(
+    ufl = None if upper_flammability_limit is None else in_range(
         upper_flammability_limit, "upper_flammability_limit", "volume fraction", 0.0, 1.0001,
         " (a fraction: 0.07 for 7 %)")
     if lfl is not None and ufl is not None and ufl <= lfl:
         raise InputError("upper_flammability_limit",
                          f"{ufl:g} is not above the lower limit {lfl:g}")
-    tf = None if flash_point is None else _positive(flash_point, "flash_point", "K", 0.0,
+    tf = None if flash_point is None else in_range(flash_point, "flash_point", "K", 0.0,
                                                     boiling_point,
                                                     " (it must lie below the boiling point)")
-    rho = None if liquid_density is None else _positive(liquid_density, "liquid_density",
+    rho = None if liquid_density is None else in_range(liquid_density, "liquid_density",
                                                         "kg/m3", 100.0, 25000.0)
-    dh = None if enthalpy_of_vaporization is None else _positive(
+    dh = None if enthalpy_of_vaporization is None else in_range(
         enthalpy_of_vaporization, "enthalpy_of_vaporization", "J/mol", 1000.0, 2e5,
         " (J/mol: 35000 for 35 kJ/mol)")
     points = [tuple(p) for p in vapor_pressure_points]
@@ -534,9 +522,9 @@ def user_substance(name: str, molar_mass: float, boiling_point: float,
         if len(point) != 2:
             raise InputError(f"vapor_pressure_points[{i}]",
                              "each point is (temperature in K, pressure in Pa)")
-        _positive(point[0], f"vapor_pressure_points[{i}] temperature", "K", 0.0,
+        in_range(point[0], f"vapor_pressure_points[{i}] temperature", "K", 0.0,
                   tc if tc is not None else math.inf)
-        _positive(point[1], f"vapor_pressure_points[{i}] pressure", "Pa")
+        in_range(point[1], f"vapor_pressure_points[{i}] pressure", "Pa")
     tmin = tm if tm is not None else 0.0
     notes = []
     ordered = sorted([(boiling_point, STANDARD_ATMOSPHERE)] + [(float(t), float(p))

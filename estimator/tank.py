@@ -2,8 +2,17 @@
 
 First-principles screening: ideal gas, a saturated vapour space at the liquid
 temperature, a free vent at constant pressure. US EPA AP-42 Chapter 7.1 gives
-the regulatory emission-estimating method for fixed-roof tanks; these functions
-reduce to its equations when its factors are set to 1.
+the regulatory emission-estimating method for fixed-roof tanks, and the two
+relate differently for the two losses:
+
+- filling (`filling_displacement`) is AP-42's working loss with its turnover,
+  product and vent factors set to 1: the displaced volume leaves saturated;
+- thermal breathing (`thermal_breathing`) is not AP-42's standing loss with
+  factors of 1: it integrates the mole balance of the venting vapour space
+  exactly over the temperature swing, where AP-42 uses the linearised
+  vapour-space expansion factor K_E = ΔT_V/T_LA + ΔP_V/(P_A - P_VA) and a
+  vented-vapour saturation factor K_S. For a small swing the two agree to first
+  order in ΔT (with K_S = 1); for a wide swing they differ.
 """
 
 from __future__ import annotations
@@ -15,6 +24,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from .constants import GAS_CONSTANT, STANDARD_ATMOSPHERE
+from .checks import positive
 from .errors import InputError, OutOfRangeError
 from .headspace import headspace
 from .mixtures import liquid as make_liquid
@@ -29,16 +39,6 @@ __all__ = [
     "EntryPurge",
     "entry_purge",
 ]
-
-
-def _positive(value, field, unit):
-    try:
-        v = float(value)
-    except (TypeError, ValueError):
-        raise InputError(field, f"expected a number in {unit}, got {value!r}") from None
-    if not math.isfinite(v) or v <= 0:
-        raise InputError(field, f"must be a positive number in {unit}")
-    return v
 
 
 def vapor_space_volume(tank_volume, fill_fraction) -> float:
@@ -56,7 +56,7 @@ def vapor_space_volume(tank_volume, fill_fraction) -> float:
     float
         [m3]
     """
-    v = _positive(tank_volume, "tank volume", "m3")
+    v = positive(tank_volume, "tank volume", "m3")
     f = float(fill_fraction)
     if not math.isfinite(f) or not 0.0 <= f < 1.0:
         raise InputError("fill level", f"{fill_fraction!r} must be from 0 to below 1 "
@@ -103,7 +103,7 @@ def vapor_inventory(liquid, temperature, volume, pressure=STANDARD_ATMOSPHERE,
     -------
     VaporInventory
     """
-    v = _positive(volume, "vapour-space volume", "m3")
+    v = positive(volume, "vapour-space volume", "m3")
     hs = headspace(liquid, float(temperature), pressure, **liquid_options)
     masses = np.asarray(hs.mass_concentrations, dtype=float) * v
     return VaporInventory(hs.liquid.names, masses, float(masses.sum()), v)
@@ -132,7 +132,7 @@ def filling_displacement(liquid, temperature, volume_pumped, pressure=STANDARD_A
     VaporInventory
         Mass expelled per component, for the displaced volume.
     """
-    return vapor_inventory(liquid, temperature, _positive(volume_pumped, "volume pumped",
+    return vapor_inventory(liquid, temperature, positive(volume_pumped, "volume pumped",
                                                           "m3"), pressure, **liquid_options)
 
 
@@ -189,9 +189,9 @@ def thermal_breathing(liquid, temperature_low, temperature_high, volume,
     Compare US EPA AP-42, 5th ed., Chapter 7.1 (2020), standing loss with the
     vapour-space expansion factor K_E = ΔT_V/T_LA + ΔP_V/(P_A - P_VA).
     """
-    v = _positive(volume, "vapour-space volume", "m3")
-    lo = _positive(temperature_low, "lowest temperature", "K")
-    hi = _positive(temperature_high, "highest temperature", "K")
+    v = positive(volume, "vapour-space volume", "m3")
+    lo = positive(temperature_low, "lowest temperature", "K")
+    hi = positive(temperature_high, "highest temperature", "K")
     if hi <= lo:
         raise InputError("highest temperature", "must be above the lowest temperature")
     liq = make_liquid(liquid, **liquid_options)
@@ -299,8 +299,8 @@ def entry_purge(liquid, temperature, vapor_space, purge_rate, target_volume_frac
     from .evaporation import mixture_evaporation_rates
     from .indoor import purge_time
 
-    v = _positive(vapor_space, "vapour-space volume", "m3")
-    q = _positive(purge_rate, "purge rate", "m3/s")
+    v = positive(vapor_space, "vapour-space volume", "m3")
+    q = positive(purge_rate, "purge rate", "m3/s")
     target = float(target_volume_fraction)
     if not math.isfinite(target) or not 0 < target < 1:
         raise InputError("purge target", "must be a volume fraction above 0 and below 1")

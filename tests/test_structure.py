@@ -1,0 +1,120 @@
+"""The package's shape: every module imports on its own, no import cycle, no
+module reaches into another's private names, and the wheel lists every package.
+
+These are checks of the code's structure, read from the source with ``ast``
+(common practice for layered packages: a cycle or a private import is a fact of
+the source, not a judgement).
+"""
+
+import ast
+import subprocess
+import sys
+import tomllib
+from pathlib import Path
+
+import pytest
+
+ROOT = Path(__file__).resolve().parents[1]
+PACKAGE = ROOT / "estimator"
+
+
+def _module_name(path: Path) -> str:
+    parts = list(path.relative_to(ROOT).with_suffix("").parts)
+    if parts[-1] == "__init__":
+        parts = parts[:-1]
+    return ".".join(parts)
+
+
+def _sources() -> dict[str, Path]:
+    return {_module_name(p): p for p in sorted(PACKAGE.rglob("*.py"))
+            if p.name != "__main__.py"}
+
+
+def _is_module(name: str) -> bool:
+    path = ROOT.joinpath(*name.split("."))
+    return path.with_suffix(".py").exists() or (path / "__init__.py").exists()
+
+
+def _imports(name: str, path: Path):
+    """(module imported, names taken from it) for every import in the file,
+    at the top and inside functions alike."""
+    package = name.split(".") if path.name == "__init__.py" else name.split(".")[:-1]
+    for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
+        if isinstance(node, ast.ImportFrom):
+            if node.level:
+                base = package[:len(package) - (node.level - 1)]
+                target = ".".join(base + ([node.module] if node.module else []))
+            else:
+                target = node.module or ""
+            for alias in node.names:
+                sub = f"{target}.{alias.name}"
+                if _is_module(sub):
+                    yield sub, None
+                else:
+                    yield target, alias.name
+        elif isinstance(node, ast.Import):
+            for alias in node.names:
+                yield alias.name, None
+
+
+def _graph() -> dict[str, set[str]]:
+    sources = _sources()
+    return {name: {target for target, _ in _imports(name, path)
+                   if target in sources and target != name}
+            for name, path in sources.items()}
+
+
+@pytest.mark.parametrize("module", sorted(_sources()))
+def test_each_module_imports_in_a_fresh_interpreter(module):
+    """A module imported first, alone, loads (no order-dependent cycle)."""
+    run = subprocess.run([sys.executable, "-c", f"import {module}"], capture_output=True,
+                         text=True, timeout=300, cwd=ROOT)
+    assert run.returncode == 0, run.stderr[-2000:]
+
+
+def test_no_import_cycle():
+    """No chain of imports, top-level or inside functions, leads back to its start."""
+    graph = _graph()
+    state: dict[str, int] = {}
+    cycles = []
+
+    def visit(node, trail):
+        state[node] = 1
+        for nxt in sorted(graph[node]):
+            if state.get(nxt) == 1:
+                cycles.append(trail[trail.index(nxt):] + [nxt])
+            elif nxt not in state:
+                visit(nxt, trail + [nxt])
+        state[node] = 2
+
+    for start in sorted(graph):
+        if start not in state:
+            visit(start, [start])
+    assert not cycles, "\n".join(" -> ".join(c) for c in cycles)
+
+
+def test_no_module_imports_another_modules_private_names():
+    """``from .x import _name`` across modules is refused: what is shared is public."""
+    sources = _sources()
+    found = []
+    for name, path in sources.items():
+        for target, taken in _imports(name, path):
+            if target in sources and taken and taken.startswith("_") \
+                    and not taken.startswith("__"):
+                found.append(f"{name} takes {target}.{taken}")
+    assert not found, found
+
+
+def test_the_wheel_lists_every_package_and_the_version_has_one_home():
+    """pyproject lists each folder of modules; the version comes from estimator._meta."""
+    config = tomllib.loads((ROOT / "pyproject.toml").read_text(encoding="utf-8"))
+    listed = set(config["tool"]["setuptools"]["packages"])
+    folders = {_module_name(p) for p in PACKAGE.rglob("__init__.py")}
+    assert folders <= listed, sorted(folders - listed)
+    assert config["tool"]["setuptools"]["dynamic"]["version"] == {
+        "attr": "estimator._meta.__version__"}
+    import estimator
+    from estimator import _meta
+
+    assert estimator.__version__ == _meta.__version__
+    assert estimator.CAUTIONS is _meta.CAUTIONS
