@@ -129,10 +129,12 @@ def test_diffusivity_fallback_warns_and_missing_data_raises():
 
 # ---------------------------------------------------------------------- air
 
+@pytest.mark.requires_coolprop
 def test_air_kinematic_viscosity_against_coolprop():
     """Sutherland over ideal-gas density within 1 % of CoolProp's air (Lemmon et al.
     2000 equation of state, Lemmon & Jacobsen 2004 viscosity), 250-350 K, 0.8-1.1 bar."""
-    cp = pytest.importorskip("CoolProp.CoolProp")
+    import CoolProp.CoolProp as cp
+
     for t in (250.0, 273.15, 298.15, 320.0, 350.0):
         for p in (80000.0, 101325.0, 110000.0):
             reference = cp.PropsSI("V", "T", t, "P", p, "Air") / cp.PropsSI(
@@ -148,9 +150,11 @@ def test_air_kinematic_viscosity_handbook_value():
     assert out.shape == (1, 2) and out[0, 1] > out[0, 0]
 
 
+@pytest.mark.requires_coolprop
 def test_air_density_against_coolprop():
     """Ideal-gas dry air within 0.1 % of CoolProp's air at 1 atm, 260-320 K."""
-    cp = pytest.importorskip("CoolProp.CoolProp")
+    import CoolProp.CoolProp as cp
+
     for t in (260.0, 293.15, 320.0):
         assert ev.air_density(t) == pytest.approx(
             cp.PropsSI("D", "T", t, "P", STANDARD_ATMOSPHERE, "Air"), rel=1e-3)

@@ -15,9 +15,12 @@ from estimator.headspace import (
     temperature_for_percent_lfl,
 )
 
-CP = pytest.importorskip("CoolProp.CoolProp")
+from outside_references import optional_module
+
+CP = optional_module("CoolProp.CoolProp")
 
 
+@pytest.mark.requires_coolprop
 def test_pure_toluene_against_coolprop():
     """Pure toluene at 25 degC: y = p_sat/P with p_sat within 1 % of CoolProp's EOS."""
     hs = headspace("toluene", 298.15)
@@ -35,6 +38,7 @@ def test_mg_per_m3_at_actual_conditions():
     assert hs.total_mg_per_m3 == pytest.approx(expected, rel=1e-12)
 
 
+@pytest.mark.requires_coolprop
 def test_benzene_toluene_bubble_pressure_against_coolprop_mixture():
     """Equimolar benzene-toluene at 25-60 degC: Raoult's total pressure within 3 % of
     CoolProp's multi-fluid mixture model (GERG-type departure functions), a near-ideal pair."""

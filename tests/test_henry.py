@@ -293,9 +293,11 @@ def test_mole_fraction_constant_matches_sanders_converter():
     assert hxp_per_atm == pytest.approx(1.83089, rel=5e-4)
 
 
+@pytest.mark.requires_iapws
 def test_water_density_is_iapws95():
     """The 25 degC water density behind mol/(kg bar) and kx matches IAPWS-95 (iapws package)."""
-    iapws = pytest.importorskip("iapws")
+    import iapws
+
     rho = iapws.IAPWS95(T=298.15, P=0.101325).rho
     assert WATER_DENSITY_298 == pytest.approx(rho, rel=1e-5)
     assert WATER_MOLAR_CONCENTRATION_298 == pytest.approx(rho / 18.015268e-3, rel=1e-5)

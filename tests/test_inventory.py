@@ -138,9 +138,11 @@ def test_vectorised_rows_equal_single_row_headspace():
         assert all(m in row["vapor_pressure_method"] for m in methods)
 
 
+@pytest.mark.requires_coolprop
 def test_pure_liquid_ppm_against_coolprop():
     """Pure-liquid ppm within 3 % of CoolProp p_sat/P (Bell et al. 2014, Ind. Eng. Chem. Res. 53)"""
-    cp = pytest.importorskip("CoolProp.CoolProp")
+    import CoolProp.CoolProp as cp
+
     fluids = {"toluene": "Toluene", "acetone": "Acetone", "n-hexane": "n-Hexane",
               "methanol": "Methanol"}
     frame = pd.DataFrame({"container": list(fluids), "liquid": list(fluids),
@@ -359,9 +361,11 @@ def test_basis_column():
 
 # ------------------------------------------------------------------------ files
 
+@pytest.mark.requires_openpyxl
 def test_excel_formula_cell_reported_not_evaluated(tmp_path):
     """An .xlsx formula cell is reported, never evaluated; in a passed-through column, a caution."""
-    openpyxl = pytest.importorskip("openpyxl")
+    import openpyxl
+
     book = openpyxl.Workbook()
     sheet = book.active
     sheet.append(["container", "liquid", "temperature_C", "remarks"])

@@ -3,12 +3,11 @@ changed on the tank page, the headspace result changing, and the HTML report dow
 with the cautions in it.
 
 Needs Debian's chromium at /usr/bin/chromium and the Playwright Python package. Without
-them the test is skipped, except in CI (CI=true), where a missing browser is a failure.
+them the test is skipped (marker ``requires_chromium``, tests/conftest.py), except in CI
+(CI=true), where a missing browser is a failure.
 """
 
 import html
-import os
-import shutil
 import socket
 import subprocess
 import sys
@@ -29,22 +28,6 @@ BROWSER_ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-backgr
 #: Longest wait for the server to answer, and for the page to update. [s]
 START_TIMEOUT = 40.0
 STEP_TIMEOUT_MS = 20_000
-
-
-def _browser_or_skip():
-    reason = None
-    try:
-        from playwright.sync_api import sync_playwright
-    except ImportError:
-        reason = "the Playwright Python package is not installed"
-        sync_playwright = None
-    if reason is None and not (os.path.exists(CHROMIUM) or shutil.which("chromium")):
-        reason = f"no chromium browser at {CHROMIUM} (apt-get install chromium)"
-    if reason is not None:
-        if os.environ.get("CI") == "true":
-            pytest.fail(f"browser test cannot run in CI: {reason}")
-        pytest.skip(reason)
-    return sync_playwright
 
 
 def _free_port() -> int:
@@ -74,9 +57,11 @@ def _metric_text(page) -> str:
     return tile.first.locator('[data-testid="stMetricValue"]').inner_text().strip()
 
 
+@pytest.mark.requires_chromium
 def test_temperature_change_and_report_download():
     """Raise the tank temperature, see the headspace change, download the report."""
-    sync_playwright = _browser_or_skip()
+    from playwright.sync_api import sync_playwright
+
     port = _free_port()
     with tempfile.TemporaryDirectory() as folder:
         log_path = Path(folder) / "server.log"

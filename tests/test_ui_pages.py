@@ -11,7 +11,6 @@ from pathlib import Path
 
 import pytest
 
-pytest.importorskip("streamlit")
 
 ROOT = Path(__file__).resolve().parents[1]
 
