@@ -18,6 +18,7 @@ import shutil
 from pathlib import Path
 
 import pytest
+from scenario_texts import MINIMAL_TANK_TOML
 
 ROOT = Path(__file__).resolve().parents[1]
 DEMO_FOLDER = ROOT / "scenarios"
@@ -83,21 +84,6 @@ def pytest_runtest_setup(item):
 
 # ------------------------------------------------------------------ shared scenarios
 
-#: The smallest valid scenario: one pure liquid in one tank.
-MINIMAL_TANK_TOML = '''
-[scenario]
-title = "t"
-
-[[liquid]]
-name = "solvent"
-substance = "toluene"
-
-[[tank]]
-name = "A"
-liquid = "solvent"
-temperature = "25 degC"
-'''
-
 #: The bundled demo scenarios by name (invented sites).
 DEMO_NAMES = ("warehouse-drum-spill", "coatings-day-tank", "sump-dissolved-solvent")
 
@@ -128,3 +114,10 @@ def demo_results():
 
     return {name: run_scenario(load_scenario(DEMO_FOLDER / f"{name}.toml"))
             for name in DEMO_NAMES}
+
+
+def pytest_generate_tests(metafunc):
+    """A test that takes ``demo_path`` runs once per demo scenario file."""
+    if "demo_path" in metafunc.fixturenames:
+        paths = sorted(DEMO_FOLDER.glob("*.toml"))
+        metafunc.parametrize("demo_path", paths, ids=[p.stem for p in paths])

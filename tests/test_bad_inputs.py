@@ -30,6 +30,7 @@ from estimator.scenario import ScenarioError, loads_scenario
 from estimator.spill import indoor_spill, outdoor_spill
 from estimator.tank import vapor_space_volume
 from estimator.units import parse_quantity, parse_temperature
+from scenario_texts import MINIMAL_TANK_TOML
 
 ROOT = Path(__file__).resolve().parents[1]
 NAN = math.nan
@@ -144,19 +145,7 @@ API = [
      lambda: estimator.user_substance("X", 92.0, 383.0), InputError, "molar_mass", "kg/mol"),
 ]
 
-SCENARIO_BASE = '''
-[scenario]
-title = "t"
-
-[[liquid]]
-name = "solvent"
-substance = "toluene"
-
-[[tank]]
-name = "A"
-liquid = "solvent"
-temperature = "25 degC"
-'''
+SCENARIO_BASE = MINIMAL_TANK_TOML
 
 SCENARIO = [
     ("toml syntax error", SCENARIO_BASE.replace('title = "t"', 'title = "t'), "scenario file",
