@@ -197,22 +197,37 @@ def test_unreachable_targets_are_explained():
 # transcription does not record the cup type).
 # The estimate is the temperature at which the saturated vapour reaches the LFL
 # (ASTM E1232 lower temperature limit), usually a few kelvin below the closed-cup
-# flash point. Observed for the bundled table: within 7 K for most compounds; the
-# compounds below are known to be poorer with this method and these data, and are
-# held to the bound given (observed difference in brackets).
-KNOWN_POOR_FLASH_POINTS = {
-    "carbon-disulfide": 27.0,  # (-25.7 K) its IEC LFL (0.6 %) is far below older values
-    "n-n-dimethylformamide": 13.5,  # (-12.6 K)
-    "n-pentane": 13.5,  # (-12.5 K)
-    "tetrahydrofuran": 11.0,  # (-10.0 K)
-    "methyl-formate": 10.5,  # (-9.3 K)
-    "formic-acid": 10.5,  # (+9.3 K) vapour dimerises; ideal-gas Raoult is poor
-    "aniline": 9.0,  # (-8.1 K)
-    "isobutyl-acetate": 8.5,  # (+7.3 K)
+# flash point. One tolerance for every compound, from a published figure: 6.9 K,
+# the reproducibility (95 %: two laboratories differ by more in one case in 20) of
+# the Pensky-Martens closed cup, ASTM D93 Procedure A, in the 2001 interlaboratory
+# programme quoted in ASTM D7094, Sec. 14.3, Note 6. It is the widest of the closed-
+# cup methods (Tag, ASTM D56, 4.1-5.8 K in the 1991 interlaboratory study of
+# Montemayor et al.), as the cup behind each published value is not recorded: an
+# estimate further off than that is further off than the measurement itself.
+FLASH_POINT_TOLERANCE = 6.9
+#: Compounds that miss the tolerance, and why (published values compared as carried
+#: by the chemicals package: IEC 60079-20-1, NFPA 497, DIPPR via Serat et al. 2017).
+FLASH_POINT_MISSES = {
+    "carbon-disulfide": "26 K low with its IEC LFL (0.6 %), still 15 K low with NFPA "
+                        "497's 1.3 %; the rest not established",
+    "n-n-dimethylformamide": "13 K low: the published flash points disagree by 15 K "
+                             "(IEC/NFPA 58 degC, DIPPR 43 degC), and IEC's LFL (1.8 %) is "
+                             "below NFPA's 2.2 %",
+    "n-pentane": "12 K low: the published flash points disagree by 9 K (IEC/NFPA -40 degC, "
+                 "DIPPR -49 degC), and IEC's LFL (1.1 %) is below NFPA's 1.5 %",
+    "tetrahydrofuran": "10 K low: the published flash points disagree by 10 K (IEC/NFPA "
+                       "-14 degC, DIPPR -24 degC), and IEC's LFL (1.5 %) is below NFPA's 2.0 %",
+    "formic-acid": "9 K high against IEC's 42 degC; NFPA gives 50 degC, within the "
+                   "tolerance; its vapour dimerises, which ideal-gas Raoult's law ignores",
+    "methyl-formate": "9 K low: cause not established; the published flash points agree "
+                      "(IEC -20 degC, NFPA -19 degC)",
+    "aniline": "8 K low against IEC's 75 degC; the published flash points disagree by 8 K "
+               "(NFPA 70 degC, DIPPR 67 degC), within the tolerance of both",
+    "isobutyl-acetate": "7.3 K high: its only LFL on record (NFPA 497, 2.4 %) is high for an "
+                        "acetate of its size (another compilation carries 1.3 %)",
 }
 #: Their LFL temperature lies below their melting point: no liquid there.
 FREEZES_ABOVE_LFL_TEMPERATURE = ("benzene", "cyclohexane", "1-4-dioxane")
-GENERAL_FLASH_POINT_TOLERANCE = 7.0
 
 FLASH_POINT_CASES = sorted(
     s.key for s in estimator.all_substances()
@@ -221,17 +236,52 @@ FLASH_POINT_CASES = sorted(
 
 
 def test_flash_point_cases_cover_the_table():
-    """At least 60 compounds have a flash-point check."""
+    """At least 60 compounds have a flash-point check, and every listed miss is one."""
     assert len(FLASH_POINT_CASES) >= 60
+    assert set(FLASH_POINT_MISSES) <= set(FLASH_POINT_CASES)
 
 
-@pytest.mark.parametrize("key", FLASH_POINT_CASES)
+@pytest.mark.parametrize("key", [
+    pytest.param(k, marks=pytest.mark.xfail(strict=True, reason=FLASH_POINT_MISSES[k]))
+    if k in FLASH_POINT_MISSES else k
+    for k in FLASH_POINT_CASES])
 def test_flash_point_estimates_against_published(key):
-    """Estimated flash point within 7 K of IEC 60079-20-1 / NFPA 497, or the stated bound."""
+    """Estimated flash point within 6.9 K (closed-cup reproducibility, ASTM D93 A) of
+    IEC 60079-20-1 / NFPA 497; the listed misses are expected failures, each with its
+    reason (strict: one that comes inside the tolerance must leave the list)."""
     est = estimated_flash_point(key)
-    bound = KNOWN_POOR_FLASH_POINTS.get(key, GENERAL_FLASH_POINT_TOLERANCE)
-    assert abs(est.difference) <= bound, (key, est.difference)
     assert "IEC 60079-20-1" in est.published_source or "NFPA 497" in est.published_source
+    assert abs(est.difference) <= FLASH_POINT_TOLERANCE, (key, est.difference)
+
+
+#: For the misses whose published data disagree: the second published value (as
+#: carried by the chemicals package), which the estimate must meet within the same
+#: tolerance. (key, what, value, source)
+SECOND_PUBLISHED_VALUES = [
+    ("n-n-dimethylformamide", "flash point", 273.15 + 43.3, "DIPPR 801 (Serat et al. 2017)"),
+    ("n-pentane", "flash point", 273.15 - 49.0, "DIPPR 801 (Serat et al. 2017)"),
+    ("tetrahydrofuran", "flash point", 273.15 - 23.8, "DIPPR 801 (Serat et al. 2017)"),
+    ("formic-acid", "flash point", 273.15 + 50.0, "NFPA 497 (2008)"),
+    ("aniline", "flash point", 273.15 + 70.0, "NFPA 497 (2008)"),
+    ("isobutyl-acetate", "LFL", 0.013, "Wikidata, as carried by chemicals"),
+]
+
+
+@pytest.mark.parametrize("key, what, value, source", SECOND_PUBLISHED_VALUES,
+                         ids=[c[0] for c in SECOND_PUBLISHED_VALUES])
+def test_flash_point_misses_meet_a_second_published_value(key, what, value, source):
+    """A miss explained by disagreeing published data meets the other published value
+    within the same 6.9 K: its flash point, or the flash point estimated with its LFL."""
+    import dataclasses
+
+    sub = estimator.substance(key)
+    if what == "LFL":
+        est = estimated_flash_point(dataclasses.replace(sub, lower_flammability_limit=value))
+        target = est.published
+    else:
+        est = estimated_flash_point(sub)
+        target = value
+    assert abs(est.estimate - target) <= FLASH_POINT_TOLERANCE, (key, source)
 
 
 def test_flash_point_median_is_a_few_kelvin_below():
