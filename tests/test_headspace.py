@@ -223,8 +223,8 @@ FLASH_POINT_MISSES = {
                       "(IEC -20 degC, NFPA -19 degC)",
     "aniline": "8 K low against IEC's 75 degC; the published flash points disagree by 8 K "
                "(NFPA 70 degC, DIPPR 67 degC), within the tolerance of both",
-    "isobutyl-acetate": "7.3 K high: its only LFL on record (NFPA 497, 2.4 %) is high for an "
-                        "acetate of its size (another compilation carries 1.3 %)",
+    "isobutyl-acetate": "7.3 K high: its NFPA 497 LFL (2.4 %; IEC has none) is high for an "
+                        "acetate of its size, and Wikidata carries 1.3 %",
 }
 #: Their LFL temperature lies below their melting point: no liquid there.
 FREEZES_ABOVE_LFL_TEMPERATURE = ("benzene", "cyclohexane", "1-4-dioxane")
