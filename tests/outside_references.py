@@ -10,10 +10,25 @@
 from __future__ import annotations
 
 import functools
+import importlib
 
 import numpy as np
 
 WATER_CAS = "7732-18-5"
+
+
+def optional_module(name: str):
+    """The module, or None when it is not installed.
+
+    Test files bind the reference libraries with it at import time, so a file
+    collects without them; each test that uses one carries the matching marker of
+    tests/conftest.py (``requires_coolprop``, ``requires_iapws``, ``requires_thermo``),
+    which skips it, or fails it in CI.
+    """
+    try:
+        return importlib.import_module(name)
+    except ImportError:
+        return None
 
 
 @functools.cache

@@ -6,10 +6,12 @@ import pytest
 import estimator
 from estimator.errors import InputError
 
-pytest.importorskip("thermo")
-CP = pytest.importorskip("CoolProp.CoolProp")
+from outside_references import optional_module
+
+CP = optional_module("CoolProp.CoolProp")
 
 
+@pytest.mark.requires_thermo
 def test_ethanol_water_azeotrope():
     """Raoult's law with UNIFAC reproduces the ethanol-water azeotrope at 1 atm: 78.17 degC,
     89.4 mol % ethanol, vapour of the same composition (CRC Handbook azeotrope table,
@@ -21,6 +23,8 @@ def test_ethanol_water_azeotrope():
     assert p[0] / p.sum() == pytest.approx(0.894, abs=0.01)
 
 
+@pytest.mark.requires_thermo
+@pytest.mark.requires_coolprop
 def test_ideal_pair_stays_ideal():
     """Benzene-toluene (near-ideal): UNIFAC bubble pressure within 2 % of CoolProp's
     mixture model, and activity coefficients within 2 % of 1."""
@@ -31,6 +35,7 @@ def test_ideal_pair_stays_ideal():
     np.testing.assert_allclose(hs.liquid.activity_coefficients, 1.0, atol=0.02)
 
 
+@pytest.mark.requires_thermo
 def test_temperature_sweep_recomputes_and_labels_the_estimate():
     """A sweep gets coefficients at each temperature; the liquid says it is an estimate."""
     hs = estimator.headspace({"methanol": 0.2, "toluene": 0.8}, [288.15, 308.15], basis="mole",

@@ -11,7 +11,6 @@ import urllib.request
 
 import pytest
 
-pytest.importorskip("streamlit")
 pytestmark = pytest.mark.skipif(os.name != "posix", reason="POSIX signals")
 
 

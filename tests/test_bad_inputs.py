@@ -30,6 +30,7 @@ from estimator.scenario import ScenarioError, loads_scenario
 from estimator.spill import indoor_spill, outdoor_spill
 from estimator.tank import vapor_space_volume
 from estimator.units import parse_quantity, parse_temperature
+from scenario_texts import MINIMAL_TANK_TOML
 
 ROOT = Path(__file__).resolve().parents[1]
 NAN = math.nan
@@ -144,19 +145,7 @@ API = [
      lambda: estimator.user_substance("X", 92.0, 383.0), InputError, "molar_mass", "kg/mol"),
 ]
 
-SCENARIO_BASE = '''
-[scenario]
-title = "t"
-
-[[liquid]]
-name = "solvent"
-substance = "toluene"
-
-[[tank]]
-name = "A"
-liquid = "solvent"
-temperature = "25 degC"
-'''
+SCENARIO_BASE = MINIMAL_TANK_TOML
 
 SCENARIO = [
     ("toml syntax error", SCENARIO_BASE.replace('title = "t"', 'title = "t'), "scenario file",
@@ -289,7 +278,8 @@ def _huge(path):
 
 
 def _xlsx_formula(path):
-    openpyxl = pytest.importorskip("openpyxl")
+    import openpyxl
+
     book = openpyxl.Workbook()
     sheet = book.active
     sheet.append(["container", "liquid", "temperature_C"])
@@ -308,9 +298,14 @@ INVENTORY_FILES = [
     ("excel formula cell", "inv.xlsx", _xlsx_formula, "row", "formula"),
     ("misspelt extra column", "inv.csv", _misspelt_column, "warning", "twa_ppm"),
 ]
+#: Cases that write an .xlsx file need openpyxl (marker of tests/conftest.py).
+NEEDS_OPENPYXL = {"excel formula cell"}
 
 
-@pytest.mark.parametrize("case", INVENTORY_FILES, ids=[c[0] for c in INVENTORY_FILES])
+@pytest.mark.parametrize("case", [
+    pytest.param(c, id=c[0],
+                 marks=[pytest.mark.requires_openpyxl] if c[0] in NEEDS_OPENPYXL else [])
+    for c in INVENTORY_FILES])
 def test_inventory_file_faults(case, tmp_path):
     """Encodings, size, formulas and misspelt columns: refused, flagged or warned."""
     _, name, make, outcome, fragment = case
@@ -409,7 +404,6 @@ BROWSER = [
 @pytest.mark.parametrize("case", BROWSER, ids=[c[0] for c in BROWSER])
 def test_browser_front_end(case):
     """Browser pages: an error message next to the input, never an exception."""
-    pytest.importorskip("streamlit")
     _, name, act, fragment = case
     at = _page(name)
     act(at)
@@ -482,7 +476,6 @@ def test_safety_data_sheet_files(tmp_path, capsys):
 ])
 def test_browser_safety_data_sheet_uploads(name, data, fragment):
     """Browser: a bad sheet upload is explained next to the liquid input, never raised."""
-    pytest.importorskip("streamlit")
     from sds_pdf import image_only_pdf
 
     at = _page("tank.py")

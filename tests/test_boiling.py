@@ -9,10 +9,13 @@ import estimator
 from estimator.errors import InputError
 from estimator.vapor import AntoineCorrelation, antoine_to_si
 
-iapws = pytest.importorskip("iapws")
-CP = pytest.importorskip("CoolProp.CoolProp")
+from outside_references import optional_module
+
+iapws = optional_module("iapws")
+CP = optional_module("CoolProp.CoolProp")
 
 
+@pytest.mark.requires_iapws
 @pytest.mark.parametrize("pressure", [50e3, 83431.0, 101325.0, 120e3, 200e3, 500e3])
 def test_water_boiling_temperature_against_iapws95(pressure):
     """Water from 50 kPa to 500 kPa: within 0.2 K of IAPWS-95 (iapws package) and
@@ -24,6 +27,7 @@ def test_water_boiling_temperature_against_iapws95(pressure):
     assert float(result) == result.temperature
 
 
+@pytest.mark.requires_coolprop
 @pytest.mark.parametrize("key, fluid", [("toluene", "Toluene"), ("n-hexane", "Hexane"),
                                         ("acetone", "Acetone"), ("ethanol", "Ethanol"),
                                         ("cyclohexane", "CycloHexane"),
@@ -67,6 +71,7 @@ def test_bubble_point_with_table_data_near_textbook_example():
     assert result.celsius == pytest.approx(76.42, abs=0.5)
 
 
+@pytest.mark.requires_coolprop
 def test_bubble_point_equimolar_benzene_toluene_against_coolprop():
     """Equimolar benzene-toluene at 101.325 kPa: within 0.5 K of CoolProp's mixture
     model (a near-ideal pair)."""
@@ -118,6 +123,7 @@ def _tank(stated, worst, gauge="0 kPa"):
     return result.tanks[0], result_to_dict(result)["tanks"][0]
 
 
+@pytest.mark.requires_coolprop
 def test_screening_states_boiling_temperature_at_tank_pressure():
     """A tank padded to 120 kPa absolute: the finding gives the boiling temperature at
     that pressure, which matches CoolProp's acetone within 0.3 K; no flag at 20 degC."""

@@ -6,8 +6,6 @@ from pathlib import Path
 
 import pytest
 
-pytest.importorskip("chemicals")
-
 from estimator import _chemicals_lookup as lk  # noqa: E402
 
 TABLE = Path(__file__).resolve().parents[1] / "estimator" / "data" / "substances.csv"

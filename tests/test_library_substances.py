@@ -106,6 +106,7 @@ def test_missing_flammability_is_not_on_record_never_non_flammable():
     assert not any("non-flammable" in w.lower() for w in hs.warnings)
 
 
+@pytest.mark.requires_coolprop
 @pytest.mark.parametrize("cas", sorted(COOLPROP_LIQUIDS))
 def test_library_vapour_pressure_against_coolprop(cas):
     """Library-only liquids against CoolProp's equations of state (Bell et al. 2014,
@@ -282,7 +283,6 @@ def test_inventory_rows_resolve_library_liquids(tmp_path):
 def test_browser_search_box_finds_library_liquid():
     """The tank page's search box selects a library liquid, marks it, and the headspace
     on screen is the core's."""
-    pytest.importorskip("streamlit")
     from streamlit.testing.v1 import AppTest
 
     from estimator.headspace import barometric_pressure

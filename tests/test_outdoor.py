@@ -185,15 +185,27 @@ def test_distance_outside_fitted_range_is_flagged():
     assert "100 m - 10 km" in result.warnings[0]
 
 
-@pytest.mark.parametrize("terrain, exponents", [
-    ("open", {"A": 0.07, "B": 0.07, "C": 0.10, "D": 0.15, "E": 0.35, "F": 0.55}),
-    ("urban", {"A": 0.15, "B": 0.15, "C": 0.20, "D": 0.25, "E": 0.30, "F": 0.30}),
-])
-def test_wind_profile_exponents(terrain, exponents):
-    """Power-law exponents of US EPA (1995) ISC3 User's Guide Vol. II, EPA-454/B-95-003b
-    (from memory): u(100 m) / u(10 m) = 10^p."""
-    for letter, p in exponents.items():
-        assert wind_speed_at_height(1.0, 100.0, 10.0, letter, terrain) == pytest.approx(10**p)
+#: Wind-profile power-law exponents by stability class A-F (Irwin 1979, Atmos. Environ.
+#: 13, 191; the values of the US EPA ISC3 User's Guide, EPA-454/B-95-003b, Vol. II).
+#: Read, typed here, from US EPA (2000) Meteorological Monitoring Guidance for
+#: Regulatory Modeling Applications, EPA-454/R-99-005, Sec. 6.2.5, as carried (with
+#: that citation) in the public source of Liljegren's WBGT program; the rural row is
+#: also CALPUFF's default PLX0. Not taken from estimator.outdoor.
+IRWIN_EXPONENTS = {
+    "open": (0.07, 0.07, 0.10, 0.15, 0.35, 0.55),
+    "urban": (0.15, 0.15, 0.20, 0.25, 0.30, 0.30),
+}
+
+
+@pytest.mark.parametrize("terrain", sorted(IRWIN_EXPONENTS))
+@pytest.mark.parametrize("index, letter", list(enumerate("ABCDEF")))
+def test_wind_profile_exponents(terrain, index, letter):
+    """u(z) = u(10 m) (z / 10 m)^p with the published p (IRWIN_EXPONENTS): checked at
+    100 m and at 2 m, the height of a person downwind."""
+    p = IRWIN_EXPONENTS[terrain][index]
+    assert wind_speed_at_height(1.0, 100.0, 10.0, letter, terrain) == pytest.approx(10**p)
+    assert wind_speed_at_height(3.0, 2.0, 10.0, letter, terrain) == pytest.approx(
+        3.0 * 0.2**p)
 
 
 def test_wind_speed_at_height_vectorised():

@@ -15,7 +15,9 @@ from estimator.outdoor import (
 )
 from estimator.spill import outdoor_spill
 
-CP = pytest.importorskip("CoolProp.CoolProp")
+from outside_references import optional_module
+
+CP = optional_module("CoolProp.CoolProp")
 
 
 def test_britter_mcquaid_burro_inputs():
@@ -61,6 +63,7 @@ def test_passive_pool_gets_no_dense_gas_warning():
     assert any(f"= {run.dense_gas.value:.2g}" in w for w in run.warnings)
 
 
+@pytest.mark.requires_coolprop
 def test_large_pool_at_night_never_above_saturation():
     """A large acetone pool under stable night air (class F, 1.5 m/s): the centreline at
     the pool edge and a few metres downwind is at most acetone's saturated vapour

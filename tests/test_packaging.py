@@ -94,7 +94,6 @@ def test_demo_command_runs_every_demo(capsys, monkeypatch, tmp_path):
 
 def test_browser_demo_list_is_the_package_data():
     """The browser's "load a demo" lists the same files `ullage demo` runs."""
-    pytest.importorskip("streamlit")
     from ullage_ui import case
 
     assert case.demo_files() == demo_scenarios()

@@ -37,11 +37,10 @@ from estimator.report import (
     results_json,
     write_report,
 )
-from estimator.scenario import load_scenario, loads_scenario
+from estimator.scenario import loads_scenario
 from estimator.screening import run_scenario
 
 SCENARIOS = Path(__file__).resolve().parent.parent / "scenarios"
-DEMOS = ("warehouse-drum-spill", "coatings-day-tank", "sump-dissolved-solvent")
 STAMP = "2026-03-01T12:00:00Z"
 
 # A scenario written to try to break the outputs: markup and a spreadsheet formula
@@ -84,8 +83,9 @@ def _hostile_text() -> str:
 
 
 @pytest.fixture(scope="module")
-def demos():
-    return {name: run_scenario(load_scenario(SCENARIOS / f"{name}.toml")) for name in DEMOS}
+def demos(demo_results):
+    """The demo results of tests/conftest.py (run once per session)."""
+    return demo_results
 
 
 @pytest.fixture(scope="module")

@@ -30,6 +30,7 @@ purge_target = "10 ppm"
 """
 
 
+@pytest.mark.requires_coolprop
 def test_drained_tank_purges_the_whole_tank_volume():
     """Dilution purge t = K V / Q ln(C0 / C) (ACGIH Industrial Ventilation, dilution
     chapter; common practice) with V the whole 10 m3 of a drained tank, not the 6 m3
@@ -44,6 +45,7 @@ def test_drained_tank_purges_the_whole_tank_volume():
     assert any("drained and cleaned tank" in f for f in tank.findings)
 
 
+@pytest.mark.requires_coolprop
 def test_tank_holding_liquid_purges_its_vapour_space_with_a_floor():
     """With liquid left in the tank the vapour space (6 m3) is purged while the liquid
     evaporates, so the time is at least K V_space / Q ln(C0 / C) and the case says so."""

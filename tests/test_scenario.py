@@ -1,7 +1,5 @@
 """Scenario files: validation messages, lossless round trips, and runs of the demos."""
 
-from pathlib import Path
-
 import pytest
 
 from estimator.scenario import (
@@ -13,32 +11,15 @@ from estimator.scenario import (
 )
 from estimator.screening import run_scenario
 
-DEMOS = sorted((Path(__file__).resolve().parents[1] / "scenarios").glob("*.toml"))
 
-MINIMAL = '''
-[scenario]
-title = "t"
-
-[[liquid]]
-name = "solvent"
-substance = "toluene"
-
-[[tank]]
-name = "A"
-liquid = "solvent"
-temperature = "25 degC"
-'''
-
-
-def test_there_are_three_demo_scenarios():
+def test_there_are_three_demo_scenarios(demo_paths):
     """At least three demo scenarios ship with the project."""
-    assert len(DEMOS) >= 3
+    assert len(demo_paths) >= 3
 
 
-@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
-def test_demo_runs_end_to_end(path):
+def test_demo_runs_end_to_end(demo_path):
     """Each demo loads, runs without item errors, and labels its limits illustrative."""
-    scenario = load_scenario(path)
+    scenario = load_scenario(demo_path)
     result = run_scenario(scenario)
     assert not result.errors
     assert result.tanks or result.spills
@@ -46,10 +27,9 @@ def test_demo_runs_end_to_end(path):
     assert result.cautions
 
 
-@pytest.mark.parametrize("path", DEMOS, ids=lambda p: p.stem)
-def test_round_trip_is_lossless(path, tmp_path):
+def test_round_trip_is_lossless(demo_path, tmp_path):
     """load -> save -> load gives the same scenario, and records the version."""
-    first = load_scenario(path)
+    first = load_scenario(demo_path)
     target = tmp_path / "copy.toml"
     save_scenario(first, target)
     second = load_scenario(target)
@@ -62,10 +42,10 @@ def test_round_trip_is_lossless(path, tmp_path):
     assert dumps_scenario(second) == dumps_scenario(load_scenario(target))
 
 
-def test_units_us_customary_equal_si():
+def test_units_us_customary_equal_si(minimal_tank_toml):
     """A tank in gallons and degF equals the same tank in m3 and degC (NIST SP 811)."""
-    si = loads_scenario(MINIMAL.replace('"25 degC"', '"35 degC"') + 'volume = "3.785411784 m3"\n')
-    us = loads_scenario(MINIMAL.replace('"25 degC"', '"95 degF"') + 'volume = "1000 gal"\n')
+    si = loads_scenario(minimal_tank_toml.replace('"25 degC"', '"35 degC"') + 'volume = "3.785411784 m3"\n')
+    us = loads_scenario(minimal_tank_toml.replace('"25 degC"', '"95 degF"') + 'volume = "1000 gal"\n')
     assert si.tanks[0]["temperature"] == pytest.approx(us.tanks[0]["temperature"])
     assert si.tanks[0]["volume"] == pytest.approx(us.tanks[0]["volume"])
 
@@ -89,34 +69,34 @@ def test_units_us_customary_equal_si():
         (("title = \"t\"", "title = \"t"), "scenario file", "not valid TOML"),
     ],
 )
-def test_errors_name_the_key_and_line(change, where, fragment):
+def test_errors_name_the_key_and_line(change, where, fragment, minimal_tank_toml):
     """Bad keys and values raise ScenarioError naming the key (and line) and what to do."""
-    text = MINIMAL.replace(*change)
+    text = minimal_tank_toml.replace(*change)
     with pytest.raises(ScenarioError) as info:
         loads_scenario(text)
     assert where in info.value.field
     assert fragment in str(info.value)
 
 
-def test_error_gives_line_number():
+def test_error_gives_line_number(minimal_tank_toml):
     """The line of the offending key is reported."""
-    text = MINIMAL.replace("temperature = \"25 degC\"", "temperature = \"hot\"")
+    text = minimal_tank_toml.replace("temperature = \"25 degC\"", "temperature = \"hot\"")
     with pytest.raises(ScenarioError) as info:
         loads_scenario(text)
     line = next(i + 1 for i, t in enumerate(text.splitlines()) if t.startswith("temperature"))
     assert f"line {line}" in info.value.field
 
 
-def test_defaults_show_in_assumptions():
+def test_defaults_show_in_assumptions(minimal_tank_toml):
     """Nothing is defaulted silently: sea-level pressure and the OSHA alarms are listed."""
-    sc = loads_scenario(MINIMAL)
+    sc = loads_scenario(minimal_tank_toml)
     text = " ".join(sc.assumptions)
     assert "101.325 kPa" in text and "1910.146" in text and "no exposure limits" in text
 
 
-def test_user_substance_from_sds_in_a_scenario():
+def test_user_substance_from_sds_in_a_scenario(minimal_tank_toml):
     """A [[substance]] from SDS values can be used in a liquid and a limit."""
-    text = MINIMAL.replace('substance = "toluene"', 'substance = "Thinner Q"') + '''
+    text = minimal_tank_toml.replace('substance = "toluene"', 'substance = "Thinner Q"') + '''
 [[substance]]
 name = "Thinner Q"
 molar_mass = "100 g/mol"
@@ -136,30 +116,30 @@ source = "supplier SDS"
     assert float(result.tanks[0].headspace.total_volume_fraction) > 0
 
 
-def test_limit_without_source_or_unit_is_refused():
+def test_limit_without_source_or_unit_is_refused(minimal_tank_toml):
     """A limit needs a source label and a ppm or mg/m3 unit."""
-    base = MINIMAL + '[[limit]]\nsubstance = "toluene"\nTWA = "20 ppm"\n'
+    base = minimal_tank_toml + '[[limit]]\nsubstance = "toluene"\nTWA = "20 ppm"\n'
     with pytest.raises(ScenarioError, match="missing required key 'source'"):
         loads_scenario(base)
     with pytest.raises(ScenarioError, match="ppm or mg/m3"):
         loads_scenario(base.replace('"20 ppm"', '"20 kg"') + 'source = "x"\n')
 
 
-def test_oversized_and_non_utf8_files(tmp_path):
+def test_oversized_and_non_utf8_files(tmp_path, minimal_tank_toml):
     """Huge or non-UTF-8 scenario files are refused with a clear reason."""
     big = tmp_path / "big.toml"
     big.write_bytes(b"#" * 1_100_000)
     with pytest.raises(ScenarioError, match="short text file"):
         load_scenario(big)
     latin = tmp_path / "latin.toml"
-    latin.write_bytes(MINIMAL.replace('"t"', '"caf\xe9"').encode("latin-1"))
+    latin.write_bytes(minimal_tank_toml.replace('"t"', '"caf\xe9"').encode("latin-1"))
     with pytest.raises(ScenarioError, match="UTF-8"):
         load_scenario(latin)
 
 
-def test_item_failure_keeps_the_rest():
+def test_item_failure_keeps_the_rest(minimal_tank_toml):
     """A tank that cannot be computed is reported; the others still run."""
-    text = MINIMAL + '''
+    text = minimal_tank_toml + '''
 [[tank]]
 name = "B"
 liquid = "solvent"
@@ -170,9 +150,9 @@ temperature = "700 degC"
     assert result.errors[0][0] == "tank B" and "critical" in result.errors[0][1]
 
 
-def test_uncertain_inputs_run_monte_carlo():
+def test_uncertain_inputs_run_monte_carlo(minimal_tank_toml):
     """A distribution in the file gives percentiles and exceedance probabilities, seeded."""
-    text = MINIMAL + '''
+    text = minimal_tank_toml + '''
 [[limit]]
 substance = "toluene"
 TWA = "20 ppm"
@@ -207,17 +187,17 @@ seed = 11
          "distribution", "uniform"),
     ],
 )
-def test_bad_uncertain_inputs(block, field, fragment):
+def test_bad_uncertain_inputs(block, field, fragment, minimal_tank_toml):
     """Bad uncertain-input tables name the key and what to do."""
     with pytest.raises(ScenarioError) as info:
-        loads_scenario(MINIMAL + "\n[[uncertain]]\n" + block + "\n")
+        loads_scenario(minimal_tank_toml + "\n[[uncertain]]\n" + block + "\n")
     assert field in info.value.field
     assert fragment in str(info.value)
 
 
-def test_short_run_twa_is_flagged_as_a_lower_bound():
+def test_short_run_twa_is_flagged_as_a_lower_bound(minimal_tank_toml):
     """A spill run shorter than the shift says its TWA is a lower bound."""
-    text = MINIMAL + '''
+    text = minimal_tank_toml + '''
 [[room]]
 name = "r"
 volume = "200 m3"
@@ -241,17 +221,17 @@ source = "x"
     assert any("a lower bound" in f for f in result.spills[0].findings)
 
 
-def test_no_lfl_is_not_reported_below_the_alarm():
+def test_no_lfl_is_not_reported_below_the_alarm(minimal_tank_toml):
     """A liquid with no LFL on record is not said to be below the LFL alarm."""
-    result = run_scenario(loads_scenario(MINIMAL.replace('"toluene"', '"water"')))
+    result = run_scenario(loads_scenario(minimal_tank_toml.replace('"toluene"', '"water"')))
     text = " ".join(result.tanks[0].findings)
     assert "Not compared with the LFL alarm" in text
     assert "below the 10 % LFL" not in text
 
 
-def test_purge_finding_states_its_assumption():
+def test_purge_finding_states_its_assumption(minimal_tank_toml):
     """The purge time says it assumes a drained tank and that measurement follows."""
-    text = MINIMAL + 'volume = "10 m3"\nfill = "40 %"\npurge_rate = "0.2 m3/s"\n' \
+    text = minimal_tank_toml + 'volume = "10 m3"\nfill = "40 %"\npurge_rate = "0.2 m3/s"\n' \
         'purge_target = "10 ppm"\n'
     tank = run_scenario(loads_scenario(text)).tanks[0]
     assert any("measure before entry" in f and "drained" in f for f in tank.findings)

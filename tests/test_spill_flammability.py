@@ -85,6 +85,7 @@ def test_zone_verdicts_on_a_piecewise_linear_series():
     assert z.below_oxygen_alarm_from == pytest.approx(60 + 60 * 0.5 / 1.0)
 
 
+@pytest.mark.requires_coolprop
 def test_store_room_spill_passes_the_lfl_and_says_so():
     """A 20 L toluene spill in a 30 m3 store with one air change an hour: the room
     passes the LFL (the saturated vapour at 22 degC, 3.3 kPa by CoolProp, is three
@@ -106,6 +107,7 @@ def test_store_room_spill_passes_the_lfl_and_says_so():
     assert zone.peak_percent_lfl <= 100 * p_sat / 101325.0 / lfl * 1.02
 
 
+@pytest.mark.requires_coolprop
 def test_closed_room_oxygen_falls_to_the_saturated_value():
     """Acetone in a closed 30 m3 room saturates it: the oxygen falls towards
     20.9 x (1 - p_sat/P), with p_sat at 22 degC from CoolProp's reference equation of

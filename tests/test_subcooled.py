@@ -14,7 +14,7 @@ from estimator.vapor import (
     vapor_pressure_estimate,
 )
 
-wagner = pytest.importorskip("chemicals.vapor_pressure")
+import chemicals.vapor_pressure as wagner  # the property library, a core dependency
 
 
 def poling_wagner(cas, temperature):

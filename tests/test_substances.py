@@ -186,7 +186,6 @@ def test_lookup_cas_through_chemicals():
     """A compound outside the table is found by CAS in the chemicals package, with a
     warning to check it (cyclohexanol, CAS 108-93-0, Tb 434.3 K per the CRC Handbook,
     from memory)."""
-    pytest.importorskip("chemicals")
     s = estimator.lookup_cas("108-93-0")
     assert s.origin == "lookup"
     assert s.boiling_point == pytest.approx(434.3, abs=1.5)

@@ -6,12 +6,18 @@ own test files; here the check is that a page shows what the core computes for t
 same inputs, and behaves on bad input.
 """
 
-import sys
 from pathlib import Path
 
 import pytest
+from streamlit import config
+from streamlit.testing.v1 import AppTest
 
-pytest.importorskip("streamlit")
+from estimator import CAUTIONS
+from estimator.headspace import barometric_pressure, headspace
+from estimator.inventory import screen_inventory
+from estimator.limits import format_ppm
+from estimator.scenario import dumps_scenario, load_scenario, loads_scenario
+from estimator.screening import run_scenario
 
 ROOT = Path(__file__).resolve().parents[1]
 
@@ -274,12 +280,12 @@ def test_scenario_upload_is_loaded():
     assert at.text_input(key="w:indoor.name").value == "punctured drum"
 
 
-def test_indoor_spill_shown_equals_core():
+def test_indoor_spill_shown_equals_core(demo_results):
     """The indoor page shows the peak and 8-h TWA the core computes for the demo spill."""
     at = page("spill_indoors.py")
     load_demo(at, WAREHOUSE)
     assert not at.exception
-    spill = next(s for s in run_scenario(load_scenario(WAREHOUSE)).spills if s.indoor)
+    spill = next(s for s in demo_results["warehouse-drum-spill"].spills if s.indoor)
     near = next(e for e in spill.exposures if e.zone == "near field")
     assert metric(at, "Peak, near field") == f"{format_ppm(near.peak)} ppm"
     assert metric(at, "8-h TWA") == f"{format_ppm(near.twa)} ppm"
@@ -297,12 +303,12 @@ def test_fan_failure_changes_the_indoor_result():
     assert float(after.split()[0].replace(",", "")) > float(before.split()[0].replace(",", ""))
 
 
-def test_outdoor_spill_shown_equals_core():
+def test_outdoor_spill_shown_equals_core(demo_results):
     """The outdoor page shows the release rate to air and stability the core computes."""
     at = page("spill_outdoors.py")
     load_demo(at, WAREHOUSE)
     assert not at.exception
-    spill = next(s for s in run_scenario(load_scenario(WAREHOUSE)).spills if s.outdoor)
+    spill = next(s for s in demo_results["warehouse-drum-spill"].spills if s.outdoor)
     rate = 1000.0 * float(spill.outdoor.emission_rate.sum())
     assert metric(at, "Release rate to air") == f"{format_number(rate)} g/s"
     assert metric(at, "Stability class") == spill.outdoor.stability
@@ -750,14 +756,14 @@ def test_report_from_the_page_carries_the_probabilistic_results():
         assert f"<td>{label}</td><td class=\"num\">{100 * p:.3g} %</td>" in report
 
 
-def test_outdoor_page_shows_lfl_distances_of_the_core():
+def test_outdoor_page_shows_lfl_distances_of_the_core(demo_results):
     """The outdoor page shows the distances to the LFL and the alarm the core computes."""
     from estimator.report import result_to_dict
 
     at = page("spill_outdoors.py")
     load_demo(at, WAREHOUSE)
     assert not at.exception
-    result = run_scenario(load_scenario(WAREHOUSE))
+    result = demo_results["warehouse-drum-spill"]
     i = next(i for i, s in enumerate(result.spills) if s.outdoor)
     od = result_to_dict(result)["spills"][i]["outdoor"]
     shown = metric(at, "Distance to the LFL")

@@ -3,16 +3,13 @@ number shown is the core's for the liquid the sheet gives."""
 
 from pathlib import Path
 
-import pytest
+from streamlit.testing.v1 import AppTest
+
+from estimator.headspace import barometric_pressure, headspace
+from estimator.limits import format_ppm
+from estimator.sds import read_sds
 
 ROOT = Path(__file__).resolve().parents[1]
-pytest.importorskip("streamlit")
-
-from streamlit.testing.v1 import AppTest  # noqa: E402
-
-from estimator.headspace import barometric_pressure, headspace  # noqa: E402
-from estimator.limits import format_ppm  # noqa: E402
-from estimator.sds import read_sds  # noqa: E402
 
 SHEETS = ROOT / "tests" / "data" / "sds"
 #: The first demo's site elevation, which the tank page starts with. [m]

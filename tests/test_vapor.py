@@ -18,7 +18,9 @@ from estimator.vapor import (
     watson_enthalpy,
 )
 
-iapws = pytest.importorskip("iapws")
+from outside_references import optional_module
+
+iapws = optional_module("iapws")
 
 WATER_MOLAR_MASS = 18.015268e-3  # kg/mol, IAPWS-95
 WATER_TC = 647.096  # K, IAPWS-95
@@ -39,6 +41,7 @@ def iapws_hvap(t):
 T_WATER = np.arange(274.15, 373.2, 5.0)
 
 
+@pytest.mark.requires_iapws
 def test_antoine_water_against_iapws95():
     """Antoine water coefficients (8.07131, 1730.63, 233.426; mmHg, degC, 1-100 degC;
     from memory) converted to Pa/K agree with IAPWS-95 within 1 %."""
@@ -69,12 +72,14 @@ def test_antoine_conversion_rejects_unknown_units():
         antoine_to_si(1, 2, 3, "Pa", "K", base=2)
 
 
+@pytest.mark.requires_iapws
 def test_dippr101_water_against_iapws95():
     """Perry's 8th ed. Table 2-8 water coefficients (from memory) match IAPWS-95 to 0.3 %."""
     p = dippr101(T_WATER, 73.649, -7258.2, -7.3037, 4.1653e-6, 2.0)
     np.testing.assert_allclose(p, iapws_psat(T_WATER), rtol=0.003)
 
 
+@pytest.mark.requires_iapws
 def test_watson_water_25c_against_iapws95():
     """Watson from ΔHvap(Tb) (IAPWS-95) gives ΔHvap at 25 degC within 1.5 % of IAPWS-95."""
     h_tb = iapws_hvap(WATER_TB)
@@ -94,6 +99,7 @@ def test_clausius_clapeyron_reproduces_reference_point():
     assert clausius_clapeyron(350.0, 350.0, 12345.0, 30000.0) == pytest.approx(12345.0)
 
 
+@pytest.mark.requires_iapws
 def test_clausius_clapeyron_water_error_is_as_documented():
     """Constant ΔHvap(Tb) from water's boiling point over-predicts at 25 degC by about 18 %
     against IAPWS-95; with Watson's ΔHvap(T) the error falls below 3 % over 1-100 degC."""
@@ -126,6 +132,7 @@ def test_fit_recovers_slope_of_exact_line():
     assert fit.n_points == 4
 
 
+@pytest.mark.requires_iapws
 def test_fit_water_gives_mean_enthalpy_and_residual():
     """A fit to IAPWS-95 water points 1-96 degC gives ΔHvap between the end values
     (IAPWS-95: 45.0 kJ/mol at 1 degC, 41.1 kJ/mol at 96 degC) and a ~2 % residual."""
@@ -177,6 +184,7 @@ def test_trouton_for_non_associating_liquids(boiling_point, crc_enthalpy, tolera
     assert trouton_enthalpy(boiling_point) == pytest.approx(crc_enthalpy, rel=tolerance)
 
 
+@pytest.mark.requires_iapws
 def test_trouton_fails_for_water_as_documented():
     """Trouton's rule is ~19 % low for hydrogen-bonded water (IAPWS-95 ΔHvap at Tb)."""
     error = trouton_enthalpy(WATER_TB) / iapws_hvap(WATER_TB) - 1

@@ -16,9 +16,6 @@ import pytest
 import estimator
 from estimator.vapor import _UNCERTAINTY_FILE, vapor_pressure_estimate
 
-pytest.importorskip("CoolProp")
-pytest.importorskip("iapws")
-
 from outside_references import (  # noqa: E402
     WATER_CAS,
     coolprop_range,
@@ -51,6 +48,7 @@ def compared():
     return out
 
 
+@pytest.mark.requires_coolprop
 def test_reference_screen_leaves_out_only_inconsistent_points():
     """The Clapeyron screen drops propylene glycol's low-temperature points (CoolProp's
     saturation curve there is 50 % off its own ΔHvap) and keeps toluene's."""
@@ -58,11 +56,15 @@ def test_reference_screen_leaves_out_only_inconsistent_points():
     assert reference_is_consistent("108-88-3", GRID).all()
 
 
+@pytest.mark.requires_coolprop
+@pytest.mark.requires_iapws
 def test_enough_compounds_have_a_reference(compared):
     """At least 20 table compounds are checked against an outside reference."""
     assert len(compared) >= 20
 
 
+@pytest.mark.requires_coolprop
+@pytest.mark.requires_iapws
 def test_best_method_within_3_percent_everywhere(compared):
     """The built-in data agree with CoolProp / IAPWS-95 within 3 % at every point."""
     worst = {k: float(np.max(np.abs(e))) for k, e in compared}
@@ -70,6 +72,8 @@ def test_best_method_within_3_percent_everywhere(compared):
     assert not bad, bad
 
 
+@pytest.mark.requires_coolprop
+@pytest.mark.requires_iapws
 def test_best_method_median_within_1_percent(compared):
     """The median absolute deviation over all points is within 1 %."""
     flat = np.abs(np.concatenate([e for _, e in compared]))
@@ -81,6 +85,8 @@ def _stated():
         return {row["method"]: row for row in csv.DictReader(handle)}
 
 
+@pytest.mark.requires_coolprop
+@pytest.mark.requires_iapws
 @pytest.mark.parametrize(
     "method", ["dippr101", "antoine", "clausius-clapeyron-watson", "clausius-clapeyron",
                "trouton"])
