@@ -34,6 +34,7 @@ from .correlations import (  # re-exported: the equations' public home is here t
     watson_enthalpy,
 )
 from .correlations import as_float_array as _as_float_array
+from .correlations import same_shape as _same_shape
 from .errors import ExtrapolationWarning, InputError, OutOfRangeError
 
 __all__ = [
@@ -53,6 +54,7 @@ __all__ = [
     "vapor_pressure_estimate",
     "VaporPressureEstimate",
     "METHODS",
+    "vapor_pressure_per_value",
     "SUBCOOLED_LIMIT",
     "SUBCOOLED_UNCERTAINTY_PER_KELVIN",
     "component_vapor_pressure_estimates",
@@ -204,14 +206,20 @@ def _choose(substance, lo: float, hi: float, method: str | None):
     def reach(c):
         return max(0.0, c.tmin - lo) + max(0.0, hi - c.tmax)
 
-    # The first correlation that covers the range. A fitted set a few kelvin short
-    # of it (one ending just below the critical point, say) extrapolates better
-    # than a Clausius-Clapeyron estimate from the boiling point: it is preferred
-    # within `EXTRAPOLATION_MARGIN`. With nothing near, the least extrapolation.
+    # The first fitted set that covers the range. Outside every fitted range the
+    # DIPPR-101 form, which is built to extrapolate (it follows ln p ~ A + B/T +
+    # C ln T towards the critical and the triple point), is taken even when it
+    # must extrapolate: a switch to a Clausius-Clapeyron estimate from the boiling
+    # point at some distance would make the vapour pressure jump (by 25 % or more)
+    # where it changes. Another fitted set within `EXTRAPOLATION_MARGIN`, then a
+    # boiling-point estimate that covers the range, then the least extrapolation.
     fitted = [c for c in substance.correlations if c.method in _FITTED]
     for correlation in fitted:
         if reach(correlation) == 0.0:
             return correlation
+    wide = [c for c in fitted if c.method == "dippr101"]
+    if wide:
+        return wide[0]
     for correlation in fitted:
         if reach(correlation) <= EXTRAPOLATION_MARGIN:
             return correlation
@@ -219,6 +227,93 @@ def _choose(substance, lo: float, hi: float, method: str | None):
         if reach(correlation) == 0.0:
             return correlation
     return min(substance.correlations, key=reach)
+
+
+def _blend_at_edges(substance, correlation, temperature):
+    """Vapour pressure of a narrow-range set blended into the wide-range one near its edges.
+
+    An Antoine set is more accurate inside its range than the DIPPR-101 set, but the
+    two differ by up to about a percent at its edges, where the choice changes
+    from one to the other. Within `BLEND_BAND` of an edge, ln p is the linear blend
+    of the two (all Antoine at the band's inner side, all DIPPR-101 at the edge),
+    so the vapour pressure stays continuous and rising across the change.
+    """
+    wide = next((c for c in substance.correlations if c.method == "dippr101"), None)
+    p = correlation(temperature)
+    if correlation.method != "antoine" or wide is None:
+        return p
+    t = np.asarray(temperature, dtype=float)
+    inside = np.minimum(t - correlation.tmin, correlation.tmax - t)
+    weight = np.clip(inside / BLEND_BAND, 0.0, 1.0)
+    if np.all(weight >= 1.0):
+        return p
+    blended = np.exp(weight * np.log(p) + (1.0 - weight) * np.log(wide(temperature)))
+    return _same_shape(blended, temperature)
+
+
+def vapor_pressure_per_value(substance, temperature):
+    """Best-method vapour pressure of one substance, chosen for each temperature alone.
+
+    Each value gets what `vapor_pressure_estimate` gives that temperature on its own
+    (the same choice and the same blend at the edges of an Antoine set), in one pass
+    of array operations: for inventories, where the temperatures of many rows differ.
+
+    Parameters
+    ----------
+    substance : Substance
+    temperature : numpy.ndarray
+        Temperatures, already checked (below the melting point only for subcooled
+        components: the choice is then made as at 0.5 K above it). [K]
+
+    Returns
+    -------
+    (numpy.ndarray, numpy.ndarray, numpy.ndarray)
+        Pressures [Pa], the index of the correlation chosen in
+        ``substance.correlations``, and whether the value is an extrapolation.
+    """
+    t = np.asarray(temperature, dtype=float)
+    correlations = substance.correlations
+    tm = substance.melting_point
+    below = np.zeros(t.shape, dtype=bool) if tm is None else t < tm
+    t_pick = np.where(below, (tm or 0.0) + 0.5, t)
+    which = np.full(t.shape, -1, dtype=np.int16)
+
+    def claim(mask, index):
+        free = mask & (which < 0)
+        which[free] = index
+
+    ranked = list(enumerate(correlations))
+    covers = [(t_pick >= c.tmin) & (t_pick <= c.tmax) for _, c in ranked]
+    reach = [np.maximum(c.tmin - t_pick, 0.0) + np.maximum(t_pick - c.tmax, 0.0)
+             for _, c in ranked]
+    for (i, c), cov in zip(ranked, covers):
+        if c.method in _FITTED:
+            claim(cov, i)
+    for i, c in ranked:
+        if c.method == "dippr101":
+            claim(np.ones(t.shape, dtype=bool), i)
+            break
+    for (i, c), r in zip(ranked, reach):
+        if c.method in _FITTED:
+            claim(r <= EXTRAPOLATION_MARGIN, i)
+    for (i, _), cov in zip(ranked, covers):
+        claim(cov, i)
+    if np.any(which < 0):
+        nearest = np.argmin(np.stack(reach), axis=0)
+        which = np.where(which < 0, nearest, which)
+    pressure = np.empty(t.shape)
+    for i, c in ranked:
+        chosen = which == i
+        if chosen.any():
+            pressure[chosen] = _blend_at_edges(substance, c, t[chosen])
+    chosen_reach = np.choose(which, np.stack(reach)) if len(ranked) > 1 else reach[0]
+    return pressure, which, (chosen_reach > 0) | below
+
+
+#: Width of the band inside an Antoine range where it is blended into DIPPR-101. [K]
+#: Chosen here: 5 K, wide enough that the blend's slope stays that of a vapour
+#: pressure for the differences of about 1 % seen at the edges of the table's sets.
+BLEND_BAND = 5.0
 
 
 #: Methods fitted to measured vapour pressures (the others estimate from the boiling
@@ -309,7 +404,8 @@ def vapor_pressure_estimate(substance, temperature, method: str | None = None,
                   "the melting point (1 % per kelvin, from comparison with the Wagner "
                   "extrapolation of Poling et al. and, for water, Murphy & Koop 2005)")
     return VaporPressureEstimate(
-        pressure=correlation(temperature),
+        pressure=correlation(temperature) if method is not None
+        else _blend_at_edges(sub, correlation, temperature),
         method=correlation.method,
         description=METHODS[correlation.method],
         relative_uncertainty=relative,

@@ -4,7 +4,6 @@ set (`headspace_arrays`).
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -45,42 +44,14 @@ def rows_by_code(codes: np.ndarray, count: int) -> list[np.ndarray]:
 
 
 def _saturation_pressure(sub, t: np.ndarray):
-    """Vapour pressure of one substance at many temperatures, best method per value.
-
-    The first correlation is used directly when it covers every temperature (one
-    numpy call); otherwise each temperature gets the first correlation whose range
-    covers it, as `estimator.vapor.vapor_pressure_estimate` chooses for a single
-    temperature, and temperatures no correlation covers get the first one, flagged
-    as extrapolated. Below the melting point (a subcooled component of a mixture)
-    the correlation is chosen as at 0.5 K above the melting point and extrapolated,
-    as `vapor_pressure_estimate` does, and flagged as extrapolated.
+    """Vapour pressure of one substance at many temperatures, best method per value
+    (`estimator.vapor.vapor_pressure_per_value`: what `vapor_pressure_estimate` gives
+    each temperature on its own), with the method index and the extrapolation flag.
     """
-    correlations = sub.correlations
-    first = correlations[0]
-    tm = sub.melting_point
-    subcooled = np.zeros(t.shape, dtype=bool) if tm is None else t < tm
-    t_pick = np.where(subcooled, (tm or 0.0) + 0.5, t)
-    lo = -math.inf if first.tmin is None else first.tmin
-    hi = math.inf if first.tmax is None else first.tmax
-    if t.size and lo <= t_pick.min() and t_pick.max() <= hi:
-        return (np.asarray(first(t), dtype=float), np.zeros(t.shape, dtype=np.int8),
-                subcooled)
-    pressure = np.empty(t.shape)
-    which = np.zeros(t.shape, dtype=np.int8)
-    remaining = np.ones(t.shape, dtype=bool)
-    for index, correlation in enumerate(correlations):
-        lo = -math.inf if correlation.tmin is None else correlation.tmin
-        hi = math.inf if correlation.tmax is None else correlation.tmax
-        chosen = remaining & (t_pick >= lo) & (t_pick <= hi)
-        if chosen.any():
-            pressure[chosen] = correlation(t[chosen])
-            which[chosen] = index
-            remaining &= ~chosen
-        if not remaining.any():
-            break
-    if remaining.any():
-        pressure[remaining] = first(t[remaining])
-    return pressure, which, remaining | subcooled
+    from ..vapor import vapor_pressure_per_value
+
+    pressure, which, extrapolated = vapor_pressure_per_value(sub, t)
+    return pressure, which.astype(np.int8), extrapolated
 
 
 @dataclass(frozen=True)
