@@ -907,3 +907,18 @@ def test_inventory_tables_read_without_scientific_notation():
         text = frame.value.to_csv(index=False)
         assert not re.findall(SCIENTIFIC, text)
         assert not re.findall(r"\d\.\d{5,}", text)  # no long tails of digits
+
+
+def test_indoor_page_shows_peak_percent_lfl_of_the_core(demo_results):
+    """The indoor-spill page shows the peak % LFL tile (the highest of its zones, as
+    the core's `spills[i].flammability` gives it)."""
+    from estimator.report import result_to_dict
+
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    assert not at.exception
+    result = demo_results["warehouse-drum-spill"]
+    i = next(i for i, s in enumerate(result.spills) if s.indoor)
+    zones = result_to_dict(result)["spills"][i]["flammability"]
+    top = max(z["peak_percent_lfl"] for z in zones)
+    assert metric(at, "Peak % of the LFL") == f"{format_number(top)} %"

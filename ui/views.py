@@ -524,6 +524,15 @@ def indoor_view(toml_text: str, units: str) -> dict:
                                         "ppm": ppm[keep, j], "series": f"{label}: {name}"}))
     metrics, comparisons = _exposure_tables(spill)
     first = spill.exposures[0] if spill.exposures else None
+    judged = [z for z in spill.flammability if z.judged]
+    top = max(judged, key=lambda z: z.peak_percent_lfl) if judged else None
+    alarm = scenario.alarms.percent_lfl
+    lfl_log = bool(top and top.peak_percent_lfl > 5 * alarm)
+    # on a log axis the clean air at the start is drawn at 0.01 % of the LFL
+    lfl_frames = [pd.DataFrame({"minutes": z.times[keep] / 60.0,
+                                "percent": np.maximum(z.percent_lfl[keep], 0.01) if lfl_log
+                                else z.percent_lfl[keep], "series": z.zone})
+                  for z in judged]
     gone = run.pool_gone_time
     if math.isfinite(gone):
         pool = f"evaporated after {_minutes(gone)}"
@@ -536,6 +545,22 @@ def indoor_view(toml_text: str, units: str) -> dict:
         "peak_text": _ppm(first.peak) if first else "-",
         "peak_zone": first.zone if first else "",
         "peak_time_text": _minutes(first.peak_time) if first else "-",
+        "lfl_peak_text": (f"{format_number(top.peak_percent_lfl)} %" if top
+                          else "not judged"),
+        "lfl_peak_help": (f"highest in the {top.zone}, at {_minutes(top.peak_time)}"
+                          if top else "no component has a flammability limit on record: "
+                          "enter the LFL from the safety data sheet"),
+        "lfl_series": pd.concat(lfl_frames, ignore_index=True) if lfl_frames else None,
+        "oxygen_text": (f"{format_number(min(z.lowest_oxygen for z in spill.flammability))} %"
+                        if spill.flammability else "-"),
+        "oxygen_help": "; ".join(
+            f"{z.zone}: below the {format_number(z.oxygen_alarm)} % alarm from "
+            f"{_minutes(z.below_oxygen_alarm_from)}" if z.below_oxygen_alarm_from is not None
+            else f"{z.zone}: stays above the {format_number(z.oxygen_alarm)} % alarm"
+            for z in spill.flammability) or None,
+        "lfl_lines": [{"percent": alarm, "limit": f"LFL alarm {format_number(alarm)} %"},
+                      {"percent": 100.0, "limit": "LFL 100 %"}],
+        "lfl_log": lfl_log,
         "twa_text": _ppm(first.twa) if first else "-",
         "short_text": _ppm(first.short_term) if first else "-",
         "pool_text": pool,

@@ -66,8 +66,11 @@ def show(view: dict) -> None:
     a, b, c = st.columns(3)
     a.metric(f"Peak, {view['peak_zone']}", view["peak_text"],
              help=f"at {view['peak_time_text']}")
-    b.metric("8-h TWA", view["twa_text"])
-    c.metric("Highest 15-min average", view["short_text"])
+    b.metric("Peak % of the LFL", view["lfl_peak_text"], help=view["lfl_peak_help"])
+    c.metric("Lowest oxygen", view["oxygen_text"], help=view["oxygen_help"])
+    a, b, _ = st.columns(3)
+    a.metric("8-h TWA", view["twa_text"])
+    b.metric("Highest 15-min average", view["short_text"])
     st.markdown(f"**Pool:** {view['pool_area_text']}, {view['pool_text']}.")
     if len(view["comparisons"]):
         st.markdown("**Against the exposure limits**")
@@ -77,6 +80,10 @@ def show(view: dict) -> None:
                 "without comparison.")
     shared.chart(view["series"], x="minutes", x_title="time after the spill [min]", y="ppm",
                  y_title="concentration [ppm]", lines=view["limit_lines"])
+    if view["lfl_series"] is not None:
+        shared.chart(view["lfl_series"], x="minutes", x_title="time after the spill [min]",
+                     y="percent", y_title="% of the LFL", lines=view["lfl_lines"],
+                     line_field="percent", log_y=view["lfl_log"])
     shared.table(view["metrics"])
     st.markdown(f"**Method.** {view['model']}; pool temperature held fixed. Initial "
                 f"evaporation rate by both models: {view['rates_text']} (their spread is a "
