@@ -197,10 +197,8 @@ def _spill_plots(result, index, spill) -> list:
     return out
 
 
-def document_blocks(result, generated) -> tuple[list, bool]:
-    """The report as blocks, and whether it holds plots."""
-    from ..evaporation import MODELS
-
+def _head_blocks(result, generated) -> list:
+    """The report's head table, the cautions and the summary."""
     scenario = result.scenario
     doc = scenario.document
     head = dict(doc.get("scenario", {}))
@@ -225,8 +223,13 @@ def document_blocks(result, generated) -> tuple[list, bool]:
     b.append(Para(f"{verdict} {len(result.tanks)} tank(s) and {len(result.spills)} "
                    f"spill(s) were screened; {len(result.errors)} item(s) could not be "
                    "computed."))
+    return b
 
-    # inputs
+
+def _input_blocks(scenario) -> list:
+    """The inputs as written, the limits entered and the alarm levels."""
+    doc = scenario.document
+    b: list = []
     b.append(Heading(2, "Inputs as written"))
     b.append(Para("The scenario's values exactly as entered, with their units."))
     for section, content in doc.items():
@@ -250,71 +253,87 @@ def document_blocks(result, generated) -> tuple[list, bool]:
     b.append(Para(f"Alarm levels: {al.percent_lfl:g} % of the LFL; oxygen below "
                    f"{al.oxygen_low:g} % or above {al.oxygen_high:g} % ({al.source}). "
                    f"Barometric pressure {scenario.pressure / 1000:.2f} kPa."))
+    return b
 
-    # methods
-    b.append(Heading(2, "Methods used and why"))
-    if result.tanks:
-        b.append(Heading(3, "Headspace"))
-        b.append(Para("Equilibrium vapour space over the liquid: each component's partial "
-                       "pressure by Raoult's law from its saturated vapour pressure (Henry's "
-                       "law for compounds dissolved in water), concentrations from the "
-                       "partial pressures, the mixture's flammability limits by Le "
-                       "Chatelier's rule (Mashuga & Crowl 2000), oxygen by displacement of "
-                       "air. Why: a closed vapour space left to settle reaches equilibrium, "
-                       "the highest concentration it can hold at that temperature."))
-        grouped = {}
-        for tank in result.tanks:
-            for case, t, hs, _, _ in tank_cases(tank):
-                for comp, method, desc, unc, basis, source, why in method_rows(hs, t):
-                    key = (tank.name, comp.name, desc, unc, basis or NOT_SHOWN, source, why)
-                    grouped.setdefault(key, []).append(case)
-        rows = [[key[0], ", ".join(cases), *key[1:]] for key, cases in grouped.items()]
-        b.append(Para("Vapour pressure, per component:"))
-        b.append(Table(["tank", "case", "substance", "method", "stated uncertainty (95 %)",
-                         "uncertainty basis", "source", "why"], rows))
-        activity = sorted({t.headspace.liquid.activity_source for t in result.tanks})
-        b.append(Para("Liquid-phase activity: " + "; ".join(activity) + "."))
-    if result.spills:
-        b.append(Heading(3, "Spills"))
-        rows = []
-        for spill in result.spills:
-            spec = spill_input(result, spill)
-            model = spec.get("model", "mackay-matsugu")
-            rows.append([spill.name, "evaporation", MODELS.get(model, model),
-                         "chosen in the scenario (Mackay-Matsugu unless another is named: it "
-                         "accounts for pool size and each vapour's diffusivity); the other "
-                         "model's initial rate is shown beside it for comparison"])
-            if spill.indoor is not None:
-                room = next((r for r in scenario.rooms if r.get("name") == spill.where), {})
-                mixing = room.get("mixing_factor", 1.0)
-                if spill.indoor.near_field is not None:
-                    rows.append([spill.name, "air", "two-zone near-field/far-field model "
-                                 "(Nicas 1996), pool and air integrated together, effective "
-                                 f"ventilation Q/K with mixing factor K = {mixing:g}",
-                                 "a near field was given: a worker at the pool breathes air "
-                                 "richer than the room average"])
-                else:
-                    rows.append([spill.name, "air", "well-mixed room (Keil, Simmons & "
-                                 "Anthony 2009), pool and air integrated together, effective "
-                                 f"ventilation Q/K with mixing factor K = {mixing:g}",
-                                 "no near field was given; close to the pool the air is "
-                                 "richer than this room average"])
-            if spill.outdoor is not None:
-                od = spill.outdoor
-                rows.append([spill.name, "dispersion", "Gaussian plume from a continuous "
-                             "ground-level source, ground-level centreline (Turner 1970, "
-                             "AP-26, Eq. 3.4), Briggs (1973) dispersion coefficients, "
-                             f"{od.terrain} terrain, stability class {od.stability}, wind "
-                             f"{format_number(od.wind_speed, 2)} m/s at 10 m",
-                             "a screening plume: the pool's initial (highest) evaporation "
-                             "rate is taken as a continuous source, which errs high"])
-        b.append(Table(["spill", "step", "method", "why"], rows))
-        shift = scenario.shift
-        b.append(Para(f"Exposure metrics: the 8-h TWA over a work shift of "
-                       f"{shift.duration / 3600:g} h from {shift.start / 3600:g} h; the "
-                       "highest 15-min rolling average (compared with STEL values; over the "
-                       "whole run when it is shorter than 15 min); the peak (compared with "
-                       "ceiling and emergency values). Computed on the full series."))
+
+def _tank_method_blocks(result) -> list:
+    """The headspace methods, per tank, case and component."""
+    b: list = []
+    b.append(Heading(3, "Headspace"))
+    b.append(Para("Equilibrium vapour space over the liquid: each component's partial "
+                   "pressure by Raoult's law from its saturated vapour pressure (Henry's "
+                   "law for compounds dissolved in water), concentrations from the "
+                   "partial pressures, the mixture's flammability limits by Le "
+                   "Chatelier's rule (Mashuga & Crowl 2000), oxygen by displacement of "
+                   "air. Why: a closed vapour space left to settle reaches equilibrium, "
+                   "the highest concentration it can hold at that temperature."))
+    grouped = {}
+    for tank in result.tanks:
+        for case, t, hs, _, _ in tank_cases(tank):
+            for comp, method, desc, unc, basis, source, why in method_rows(hs, t):
+                key = (tank.name, comp.name, desc, unc, basis or NOT_SHOWN, source, why)
+                grouped.setdefault(key, []).append(case)
+    rows = [[key[0], ", ".join(cases), *key[1:]] for key, cases in grouped.items()]
+    b.append(Para("Vapour pressure, per component:"))
+    b.append(Table(["tank", "case", "substance", "method", "stated uncertainty (95 %)",
+                     "uncertainty basis", "source", "why"], rows))
+    activity = sorted({t.headspace.liquid.activity_source for t in result.tanks})
+    b.append(Para("Liquid-phase activity: " + "; ".join(activity) + "."))
+    return b
+
+
+def _spill_method_blocks(result) -> list:
+    """The evaporation, air and dispersion methods of each spill."""
+    from ..evaporation import MODELS
+
+    scenario = result.scenario
+    b: list = []
+    b.append(Heading(3, "Spills"))
+    rows = []
+    for spill in result.spills:
+        spec = spill_input(result, spill)
+        model = spec.get("model", "mackay-matsugu")
+        rows.append([spill.name, "evaporation", MODELS.get(model, model),
+                     "chosen in the scenario (Mackay-Matsugu unless another is named: it "
+                     "accounts for pool size and each vapour's diffusivity); the other "
+                     "model's initial rate is shown beside it for comparison"])
+        if spill.indoor is not None:
+            room = next((r for r in scenario.rooms if r.get("name") == spill.where), {})
+            mixing = room.get("mixing_factor", 1.0)
+            if spill.indoor.near_field is not None:
+                rows.append([spill.name, "air", "two-zone near-field/far-field model "
+                             "(Nicas 1996), pool and air integrated together, effective "
+                             f"ventilation Q/K with mixing factor K = {mixing:g}",
+                             "a near field was given: a worker at the pool breathes air "
+                             "richer than the room average"])
+            else:
+                rows.append([spill.name, "air", "well-mixed room (Keil, Simmons & "
+                             "Anthony 2009), pool and air integrated together, effective "
+                             f"ventilation Q/K with mixing factor K = {mixing:g}",
+                             "no near field was given; close to the pool the air is "
+                             "richer than this room average"])
+        if spill.outdoor is not None:
+            od = spill.outdoor
+            rows.append([spill.name, "dispersion", "Gaussian plume from a continuous "
+                         "ground-level source, ground-level centreline (Turner 1970, "
+                         "AP-26, Eq. 3.4), Briggs (1973) dispersion coefficients, "
+                         f"{od.terrain} terrain, stability class {od.stability}, wind "
+                         f"{format_number(od.wind_speed, 2)} m/s at 10 m",
+                         "a screening plume: the pool's initial (highest) evaporation "
+                         "rate is taken as a continuous source, which errs high"])
+    b.append(Table(["spill", "step", "method", "why"], rows))
+    shift = scenario.shift
+    b.append(Para(f"Exposure metrics: the 8-h TWA over a work shift of "
+                   f"{shift.duration / 3600:g} h from {shift.start / 3600:g} h; the "
+                   "highest 15-min rolling average (compared with STEL values; over the "
+                   "whole run when it is shorter than 15 min); the peak (compared with "
+                   "ceiling and emergency values). Computed on the full series."))
+    return b
+
+
+def _substance_blocks(result) -> list:
+    """The sources of the substance data used."""
+    b: list = []
     subs = {}
     for tank in result.tanks:
         for comp in tank.headspace.liquid.components:
@@ -343,12 +362,12 @@ def document_blocks(result, generated) -> tuple[list, bool]:
                            "sheet; a flammability limit or flash point not on record "
                            "must be entered from the safety data sheet."))
 
-    b.append(Heading(2, "Assumptions"))
-    b.append(Bullets(list(result.assumptions)) if result.assumptions
-             else Para("None beyond the methods above."))
+    return b
 
-    # results
-    b.append(Heading(2, "Results"))
+
+def _result_blocks(result) -> tuple[list, bool]:
+    """The results of each tank and spill, and whether they hold plots."""
+    b: list = []
     has_plots = False
     for i, tank in enumerate(result.tanks):
         b += _tank_blocks(result, i, tank)
@@ -373,6 +392,12 @@ def document_blocks(result, generated) -> tuple[list, bool]:
     if not result.tanks and not result.spills:
         b.append(Para("No tank or spill was computed."))
 
+    return b, has_plots
+
+
+def _closing_blocks(result) -> list:
+    """Findings, warnings, what was not computed, and the cautions again."""
+    b: list = []
     b.append(Heading(2, "Findings"))
     any_findings = False
     for label, item in result_items(result):
@@ -400,7 +425,30 @@ def document_blocks(result, generated) -> tuple[list, bool]:
         b.append(Para("Everything the scenario asks for was computed."))
 
     b.append(Cautions("Cautions (again)", list(result.cautions)))
+    return b
+
+
+def document_blocks(result, generated) -> tuple[list, bool]:
+    """The report as blocks, and whether it holds plots."""
+    b = _head_blocks(result, generated)
+    b += _input_blocks(result.scenario)
+    b.append(Heading(2, "Methods used and why"))
+    if result.tanks:
+        b += _tank_method_blocks(result)
+    if result.spills:
+        b += _spill_method_blocks(result)
+    b += _substance_blocks(result)
+    b.append(Heading(2, "Assumptions"))
+    b.append(Bullets(list(result.assumptions)) if result.assumptions
+             else Para("None beyond the methods above."))
+
+    # results
+    b.append(Heading(2, "Results"))
+    results, has_plots = _result_blocks(result)
+    b += results
+    b += _closing_blocks(result)
     return b, has_plots
+
 
 
 def _monte_carlo_blocks(mc) -> list:
