@@ -20,6 +20,7 @@ import os  # noqa: F401  (the atomic writer uses it through estimator.files)
 
 from ..files import neutralise_cell, write_text_atomic
 from .blocks import monte_carlo_curves
+from .blocks import spill_plots as _spill_plots  # noqa: F401
 from .common import CSV_COLUMNS, MAX_SERIES_POINTS, REPORT_FORMATS
 from .common import file_slug as _slug  # noqa: F401
 from .csv_export import results_csv

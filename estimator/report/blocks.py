@@ -110,7 +110,7 @@ def _tank_plots(result, index, tank) -> list:
     return out
 
 
-def _spill_plots(result, index, spill) -> list:
+def spill_plots(result, index, spill) -> list:
     out = []
     stem = f"spill{index + 1}-{file_slug(spill.name)}"
     if spill.indoor is not None:
@@ -381,7 +381,7 @@ def _result_blocks(result) -> tuple[list, bool]:
         b += mc_plots
     for i, spill in enumerate(result.spills):
         b += _spill_blocks(result, spill)
-        plots = _spill_plots(result, i, spill)
+        plots = spill_plots(result, i, spill)
         mc = getattr(spill, "monte_carlo", None)
         mc_plots = _monte_carlo_plots(result, f"spill{i + 1}-{file_slug(spill.name)}",
                                       f"Spill {spill.name}", mc, None)
