@@ -116,5 +116,5 @@ def test_uploaded_pdf_is_read():
     state = at.session_state["ullage"]
     from ullage_ui import case
 
-    rows = case._rows(state[case.table_key("tank.sds_ingredients")])
+    rows = case.filled_rows(state[case.table_key("tank.sds_ingredients")])
     assert [r["CAS"] for r in rows] == ["75-09-2", "67-56-1", "108-88-3"]

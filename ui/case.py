@@ -234,7 +234,7 @@ def to_display(value_si, kind: str, units: str):
     if value_si is None:
         return None
     out = convert(float(value_si), UNITS[kind]["core"], UNITS[kind][units][2])
-    return _round(out)
+    return round_shown(out)
 
 
 #: Significant figures kept in an input box after a unit conversion: enough to go
@@ -243,7 +243,7 @@ def to_display(value_si, kind: str, units: str):
 SHOWN_DIGITS = 4
 
 
-def _round(value: float, digits: int = SHOWN_DIGITS) -> float:
+def round_shown(value: float, digits: int = SHOWN_DIGITS) -> float:
     """A converted value rounded to sensible steps (4 significant figures, and never
     finer than 0.01 for numbers of 10 or more)."""
     if value == 0 or not math.isfinite(value):
@@ -271,7 +271,7 @@ def switch_units(state, old: str, new: str) -> None:
         value = state.get(key(name))
         if value is None:
             continue
-        state[key(name)] = _round(convert(float(value), UNITS[kind][old][2],
+        state[key(name)] = round_shown(convert(float(value), UNITS[kind][old][2],
                                           UNITS[kind][new][2]))
     # the downwind distances are text with their own units: nothing to convert
 
@@ -381,13 +381,13 @@ def _set_liquid(state, prefix: str, entry: dict, scenario) -> None:
     if kind == "water":
         state[key(f"{prefix}.kind")] = "water"
         state[table_key(f"{prefix}.dissolved")] = dissolved_frame(
-            [(s.name, _round(convert(c, "kg/m**3", "mg/L"))) for s, c in spec.items()])
+            [(s.name, round_shown(convert(c, "kg/m**3", "mg/L"))) for s, c in spec.items()])
         return
     if isinstance(spec, dict):
         state[key(f"{prefix}.kind")] = "mixture"
         state[key(f"{prefix}.basis")] = entry.get("basis", "mass")
         state[table_key(f"{prefix}.mixture")] = mixture_frame(
-            [(s.name, _round(100.0 * x)) for s, x in spec.items()])
+            [(s.name, round_shown(100.0 * x)) for s, x in spec.items()])
         for s in spec:
             remember_library_substance(state, s)
             if s.origin == "user":
@@ -406,12 +406,12 @@ def _set_own(state, sub, scenario) -> None:
     from estimator.units import parse_quantity, parse_temperature
 
     state[key("sds.name")] = sub.name
-    state[key("sds.molar_mass")] = _round(sub.molar_mass * 1000.0)
+    state[key("sds.molar_mass")] = round_shown(sub.molar_mass * 1000.0)
     _set(state, "sds.boiling", sub.boiling_point)
     state[key("sds.lfl")] = (None if sub.lower_flammability_limit is None
-                             else _round(100.0 * sub.lower_flammability_limit))
+                             else round_shown(100.0 * sub.lower_flammability_limit))
     state[key("sds.ufl")] = (None if sub.upper_flammability_limit is None
-                             else _round(100.0 * sub.upper_flammability_limit))
+                             else round_shown(100.0 * sub.upper_flammability_limit))
     _set(state, "sds.density", sub.liquid_density)
     _set(state, "sds.flash", sub.flash_point)
     state[key("sds.vp")] = state[key("sds.vp_temperature")] = None
@@ -589,7 +589,7 @@ def _set_distribution(state, study: str, field: str, dist, written) -> None:
     def put(part, value_si):
         name = uncertain_name(study, field, part)
         if kind is None:
-            state[key(name)] = _round(float(value_si))
+            state[key(name)] = round_shown(float(value_si))
         else:
             _set(state, name, value_si)
 
@@ -606,7 +606,7 @@ def _set_distribution(state, study: str, field: str, dist, written) -> None:
     elif isinstance(dist, LogNormal) and "lognormal" in options:
         choice = "lognormal"
         put("gm", dist.geometric_mean)
-        state[key(uncertain_name(study, field, "gsd"))] = _round(dist.geometric_sd)
+        state[key(uncertain_name(study, field, "gsd"))] = round_shown(dist.geometric_sd)
     state[key(uncertain_name(study, field, "kind"))] = choice
     state[key(uncertain_name(study, field, "file"))] = (_plain(written) if choice == "file"
                                                         else None)
@@ -712,7 +712,7 @@ def _carry(item: dict, state, which: str) -> dict:
     return item
 
 
-def _rows(frame) -> list[dict]:
+def filled_rows(frame) -> list[dict]:
     """The non-empty rows of a table as dicts, blanks as None."""
     if frame is None or len(frame) == 0:
         return []
@@ -770,7 +770,7 @@ def liquid_item(state, prefix: str) -> tuple[dict, list[str]]:
         return {"name": named or name, "substance": name}, problems
     if kind == "mixture":
         components = {}
-        for i, row in enumerate(_rows(state.get(table_key(f"{prefix}.mixture"))), 1):
+        for i, row in enumerate(filled_rows(state.get(table_key(f"{prefix}.mixture"))), 1):
             if row.get("component") is None:
                 problems.append(f"row {i}: choose the component")
                 continue
@@ -785,7 +785,7 @@ def liquid_item(state, prefix: str) -> tuple[dict, list[str]]:
         return item, problems
     if kind == "water":
         dissolved = {}
-        for i, row in enumerate(_rows(state.get(table_key(f"{prefix}.dissolved"))), 1):
+        for i, row in enumerate(filled_rows(state.get(table_key(f"{prefix}.dissolved"))), 1):
             if row.get("compound") is None or row.get("mg/L") is None:
                 problems.append(f"row {i}: give the compound and its concentration in mg/L")
                 continue
@@ -820,10 +820,10 @@ def uses_own_substance(state, prefixes) -> bool:
         if kind == "own":
             return True
         if kind == "mixture" and any(str(r.get("component", "")).lower() == name
-                                     for r in _rows(state.get(table_key(f"{p}.mixture")))):
+                                     for r in filled_rows(state.get(table_key(f"{p}.mixture")))):
             return True
     return any(str(r.get("substance", "")).lower() == name
-               for r in _rows(state.get(table_key("limits"))))
+               for r in filled_rows(state.get(table_key("limits"))))
 
 
 def conditions(state) -> dict:
@@ -871,7 +871,7 @@ def alarms(state) -> dict:
 def limit_rows(state) -> list[tuple[int, dict]]:
     """(row number, [[limit]] table) for every non-empty row of the limits table."""
     out = []
-    for i, row in enumerate(_rows(state.get(table_key("limits"))), 1):
+    for i, row in enumerate(filled_rows(state.get(table_key("limits"))), 1):
         item = {"substance": "" if row.get("substance") is None else str(row["substance"])}
         kind = row.get("kind") or "TWA"
         value = row.get("value")
@@ -1162,7 +1162,7 @@ def _unchanged_part(state, study: str, field: str, part: str, value_si) -> bool:
     if shown is None or value_si is None:
         return False
     if kind is None or part == "gsd":
-        return _round(float(value_si)) == float(shown)
+        return round_shown(float(value_si)) == float(shown)
     return unchanged(state, name, value_si)
 
 

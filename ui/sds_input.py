@@ -128,7 +128,7 @@ def _read_upload(prefix: str) -> None:
 def _ranges(state, prefix: str):
     """Ranges and unlisted shares from the tables, and problems found in their rows."""
     problems, ranges, unlisted = [], {}, {}
-    for i, row in enumerate(case._rows(state.get(table_key(f"{prefix}.sds_ingredients"))), 1):
+    for i, row in enumerate(case.filled_rows(state.get(table_key(f"{prefix}.sds_ingredients"))), 1):
         label = str(row.get("CAS") or row.get("ingredient") or "").strip()
         if not label:
             problems.append(f"ingredient row {i}: give the CAS number or the name")
@@ -139,7 +139,7 @@ def _ranges(state, prefix: str):
                             "0 <= low <= high <= 100")
             continue
         ranges[label] = [f"{float(lo)!r} %", f"{float(hi)!r} %"]
-    for i, row in enumerate(case._rows(state.get(table_key(f"{prefix}.sds_unlisted"))), 1):
+    for i, row in enumerate(case.filled_rows(state.get(table_key(f"{prefix}.sds_unlisted"))), 1):
         label = str(row.get("share") or f"unidentified share {i}").strip()
         lo, hi = row.get("low %"), row.get("high %")
         if lo is None or hi is None or not 0 <= float(lo) <= float(hi) <= 100:
@@ -249,7 +249,7 @@ def _edited_reading(state, prefix: str):
         return None, problems
     values = {}
     rows = {r.get("property"): r.get("value")
-            for r in case._rows(state.get(table_key(f"{prefix}.sds_properties")))}
+            for r in case.filled_rows(state.get(table_key(f"{prefix}.sds_properties")))}
     for name, (field, _) in PROPERTIES.items():
         value = rows.get(name)
         if value is None:

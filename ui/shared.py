@@ -263,7 +263,7 @@ def _units_changed() -> None:
     _sync_widgets()
 
 
-def _slug(title: str) -> str:
+def file_stem(title: str) -> str:
     return re.sub(r"[^a-z0-9]+", "-", title.lower()).strip("-")[:60] or "case"
 
 
@@ -310,7 +310,7 @@ def sidebar(study: str | None) -> None:
         title = str(inputs.get(key("title")) or "case")
         st.download_button("Save the inputs as a scenario file",
                            data=lambda: dumps_scenario(case.full_document(inputs)),
-                           file_name=f"{_slug(title)}.toml", mime="application/toml",
+                           file_name=f"{file_stem(title)}.toml", mime="application/toml",
                            on_click="ignore")
         st.caption("The file holds what is loaded and what you entered, nothing more.")
 
@@ -370,7 +370,7 @@ def substance_table() -> pd.DataFrame:
 
 
 @st.cache_data(show_spinner=False)
-def _labels() -> dict:
+def substance_labels() -> dict:
     table = substance_table()
     return {k: (f"{n} ({c})" if c else n) for k, n, c in table[["key", "name", "cas"]].values}
 
@@ -409,7 +409,7 @@ def _library_found() -> dict:
 
 def _choices() -> dict:
     """Substance key -> label: the curated table, then liquids found in the library."""
-    return {**_labels(), **{k: v["label"] for k, v in _library_found().items()}}
+    return {**substance_labels(), **{k: v["label"] for k, v in _library_found().items()}}
 
 
 def substance_names() -> list[str]:
@@ -418,7 +418,7 @@ def substance_names() -> list[str]:
     return ([own] if own else []) + names
 
 
-def _set_input(name: str, value) -> None:
+def set_input(name: str, value) -> None:
     store()[key(name)] = value
     if "w:" + name in st.session_state:
         st.session_state["w:" + name] = value
@@ -431,13 +431,13 @@ def _found(prefix: str) -> None:
         hit = find_substance(text)
         _library_found().update(hit["library"])
         if hit["key"]:
-            _set_input(f"{prefix}.substance", hit["key"])
+            set_input(f"{prefix}.substance", hit["key"])
 
 
 def _pick(prefix: str, substance_key: str) -> None:
     entered()
-    _set_input(f"{prefix}.substance", substance_key)
-    _set_input(f"{prefix}.find", "")
+    set_input(f"{prefix}.substance", substance_key)
+    set_input(f"{prefix}.find", "")
 
 
 def substance_chooser(prefix: str, slots: Slots) -> None:
@@ -448,11 +448,11 @@ def substance_chooser(prefix: str, slots: Slots) -> None:
         hit = find_substance(str(current))
         _library_found().update(hit["library"])
         if hit["key"]:
-            _set_input(f"{prefix}.substance", hit["key"])
+            set_input(f"{prefix}.substance", hit["key"])
     labels = _choices()
     options = list(labels)
     if inputs.get(key(f"{prefix}.substance")) not in labels:
-        _set_input(f"{prefix}.substance", case.LIQUID_DEFAULTS.get(prefix, options[0]))
+        set_input(f"{prefix}.substance", case.LIQUID_DEFAULTS.get(prefix, options[0]))
     left, right = st.columns([3, 2])
     bound(left.selectbox, "Substance", f"{prefix}.substance", options=options,
           format_func=labels.get)
@@ -670,7 +670,7 @@ def _starting_range(study: str, field: str) -> None:
     for part in case.DISTRIBUTIONS.get(chosen, ()):
         part_name = case.uncertain_name(study, field, part)
         if inputs.get(key(part_name)) is None:
-            _set_input(part_name, case._round(guess[part]))
+            set_input(part_name, case.round_shown(guess[part]))
 
 
 def uncertainty_inputs(study: str, slots: Slots) -> dict:
@@ -1035,7 +1035,7 @@ def _study_main(kind: str, draw_inputs, view_function, show) -> None:
                 show(view)
                 report_doc, _ = case.study_document(state, kind, limits=limit_rows,
                                                     uncertain=True)
-                downloads(dumps_scenario(report_doc), _slug(view["name"]))
+                downloads(dumps_scenario(report_doc), file_stem(view["name"]))
     st.session_state[f"result.ok.{kind}"] = view is not None
     if (not st.session_state.get("page.full_run")
             and _samples_key(kind, limit_rows) != st.session_state.get(f"mc.drawn.{kind}")):

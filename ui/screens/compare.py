@@ -40,13 +40,13 @@ def seed_b() -> None:
     """Start case B from case A: 10 degrees hotter, the fan off, half the wind."""
     step = 18.0 if system(state) == "US" else 10.0
     t = _a_temperature()
-    shared._set_input("cmp.temperature", None if t is None else round(t + step, 6))
-    shared._set_input("cmp.substance", SAME)
-    shared._set_input("cmp.air_changes", 0.0)
-    shared._set_input("cmp.mixing", state.get(key("room.mixing")))
+    shared.set_input("cmp.temperature", None if t is None else round(t + step, 6))
+    shared.set_input("cmp.substance", SAME)
+    shared.set_input("cmp.air_changes", 0.0)
+    shared.set_input("cmp.mixing", state.get(key("room.mixing")))
     wind = state.get(key("weather.wind"))
-    shared._set_input("cmp.wind", None if wind is None else round(wind / 2.0, 6))
-    shared._set_input("cmp.stability", SAME)
+    shared.set_input("cmp.wind", None if wind is None else round(wind / 2.0, 6))
+    shared.set_input("cmp.stability", SAME)
     state["cmp.seeded"] = study
 
 
@@ -56,7 +56,7 @@ if state.get("cmp.seeded") != study:
 st.subheader("What changes in case B")
 a, b = st.columns(2)
 shared.quantity("Temperature in B", "cmp.temperature", container=a)
-labels = shared._labels()
+labels = shared.substance_labels()
 shared.bound(b.selectbox, "Liquid in B", "cmp.substance", options=[SAME] + list(labels),
              format_func=lambda k: "the same as in A" if k == SAME else labels.get(k, k))
 if study == "indoor":

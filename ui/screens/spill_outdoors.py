@@ -124,4 +124,4 @@ with results:
             else:
                 show(view)
                 mine, _ = case.study_document(state, "outdoor", limits=limit_rows)
-                shared.downloads(dumps_scenario(mine), shared._slug(view["name"]))
+                shared.downloads(dumps_scenario(mine), shared.file_stem(view["name"]))
