@@ -694,9 +694,10 @@ def test_monte_carlo_is_cached_and_fast(monkeypatch):
     assert calls.count(424242) == 1
     at.number_input(key="w:tank.volume").set_value(5.0)
     at.number_input(key="w:tank.temperature").set_value(36.0)  # the range sets the samples
-    at.run()
+    at.run()  # numbers among the inputs rerun only the result
     assert not at.exception
     assert calls.count(424242) == 1
+    at.run()  # the whole page, as the browser keeps it
     at.number_input(key="w:mc.samples").set_value(5000)
     at.run()
     assert calls.count(424242) == 2
@@ -879,6 +880,46 @@ def test_worst_case_below_stated_is_flagged_and_the_stated_used():
         in warnings_shown
     shown = "\n".join(m.value for m in at.markdown)
     assert "**Worst case, 34.0 °C:**" in shown
+    # the flag beside the inputs too: the change reran the whole page, not only the result
+    assert "**Worst-case temperature** is below the liquid temperature" in warnings_shown
+    at.number_input(key="w:tank.worst").set_value(40.0)
+    at.run()
+    assert "below the liquid temperature" not in "\n".join(w.value for w in at.warning)
+    assert at.number_input(key="w:tank.worst").value == 40.0
+
+
+def test_a_changed_number_reruns_only_the_result():
+    """A new liquid temperature redraws the result alone (its fragment): the inputs,
+    the sidebar and the Monte Carlo are not sent again. A choice reruns the page."""
+    at = page("tank.py")
+    before = metric(at, "Total vapour in the headspace")
+    at.number_input(key="w:tank.temperature").set_value(20.0)
+    at.run()
+    assert not at.exception
+    assert metric(at, "Total vapour in the headspace") != before
+    assert not at.number_input  # the inputs were not drawn again
+    assert not at.sidebar
+    at.run()
+    assert at.number_input(key="w:tank.temperature").value == 20.0
+    assert at.number_input(key="w:mc.samples")
+    at.toggle[0].set_value(not at.toggle[0].value)
+    at.run()  # a toggle shows other inputs: the whole page runs
+    assert at.number_input(key="w:tank.temperature").value == 20.0
+
+
+def test_a_number_that_fails_reruns_the_page_to_mark_its_field():
+    """An error beside a block of inputs needs the whole page: a bad tank volume is
+    shown by the tank inputs, and cleared there once corrected."""
+    at = page("tank.py")
+    at.number_input(key="w:tank.volume").set_value(-5.0)
+    at.run()
+    assert "Tank volume" in errors(at)
+    assert at.number_input(key="w:tank.volume").value == -5.0  # drawn again, kept
+    assert metric(at, "Total vapour in the headspace")  # the headspace does not depend on it
+    at.number_input(key="w:tank.volume").set_value(5.0)
+    at.run()
+    assert "Tank volume" not in errors(at)
+    assert at.number_input(key="w:tank.volume").value == 5.0
 
 
 def test_core_screening_uses_the_stated_temperature_as_worst_case():

@@ -148,23 +148,41 @@ def entered() -> None:
         store().setdefault("case.studies", {})[study] = True
 
 
-def _changed_then(callback=None, args=(), kwargs=None):
+#: While a study page draws its inputs: the key of the fragment that shows its
+#: result, which a changed number reruns alone (see `study_page`).
+RESULT_FRAGMENT = "page.result_fragment"
+
+
+def _changed_then(callback=None, args=(), kwargs=None, name: str | None = None,
+                  rerun: str | None = None):
     def run():
         entered()
+        widget_key = "w:" + name if name else None
+        if widget_key in st.session_state:
+            # the store holds the new value before anything reads it, also when only
+            # the result is drawn again and this widget is not
+            store()[key(name)] = st.session_state[widget_key]
         if callback is not None:
             callback(*(args or ()), **(kwargs or {}))
+        if rerun:
+            st.rerun(rerun)  # only the result depends on this input: draw it alone
     return run
 
 
-def bound(widget, label: str, name: str, *, marks: bool = True, **kwargs):
+def bound(widget, label: str, name: str, *, marks: bool = True, result_only: bool = False,
+          **kwargs):
     """Draw a widget for the input `name`, seeded from and written back to the store.
 
     A change made on screen marks the page's study as entered (`entered`), unless
-    `marks` is false (the sidebar's own inputs).
+    `marks` is false (the sidebar's own inputs). With `result_only`, drawn among a
+    study page's inputs, a change reruns only the page's result (its fragment), not
+    the inputs around it.
     """
     if marks:
+        rerun = st.session_state.get(RESULT_FRAGMENT) if result_only else None
         kwargs["on_change"] = _changed_then(kwargs.pop("on_change", None),
-                                            kwargs.pop("args", ()), kwargs.pop("kwargs", None))
+                                            kwargs.pop("args", ()), kwargs.pop("kwargs", None),
+                                            name=name, rerun=rerun)
     inputs = store()
     widget_key = "w:" + name
     # The live value wins (a change just made on screen); otherwise the stored one.
@@ -337,14 +355,15 @@ def quantity(label: str, name: str, *, help: str | None = None, optional: bool =
     target = container or st
     extra = {"value": None} if optional else {}
     return bound(target.number_input, f"{label} [{unit_label(kind, system(store()))}]", name,
-                 help=help, format="%g", **extra)
+                 help=help, format="%g", result_only=True, **extra)
 
 
 def number(label: str, name: str, *, help: str | None = None, optional: bool = False,
            container=None, **kwargs):
     target = container or st
     extra = {"value": None} if optional else {}
-    return bound(target.number_input, label, name, help=help, format="%g", **extra, **kwargs)
+    return bound(target.number_input, label, name, help=help, format="%g", result_only=True,
+                 **extra, **kwargs)
 
 
 def text_box(label: str, name: str, container=None, **kwargs):
@@ -954,14 +973,18 @@ def downloads(toml_text: str | None, stem: str) -> None:
                       key=f"dl:{stem}:csv")
 
 
-def study_page(kind: str, draw_inputs, view_function, show, caption: str) -> None:
-    """The body of a study page: inputs and result in a fragment of their own, then
+def study_page(kind: str, draw_inputs, view_function, show, caption: str,
+               input_notes=None) -> None:
+    """The body of a study page: the inputs, the result in a fragment of its own, then
     the uncertainty section.
 
-    A change to an input above reruns only the inputs and the result (the sidebar,
-    cautions and the Monte Carlo are left as they are), unless the change also
-    touches what the samples use (the liquid, the pressure, the limits): then the
-    whole page runs again. The Monte Carlo itself is cached on its own inputs.
+    A changed number among the inputs reruns only the result (the fragment keyed
+    ``result.<kind>``): the inputs, sidebar, cautions and the Monte Carlo are left as
+    they are. The whole page runs again instead when the change shows beside the
+    inputs (an error in a block of inputs, or what `input_notes` tells of the
+    inputs changes) or touches what the samples use (the liquid, the pressure, the
+    limits). Other inputs (choices, toggles, tables, text) rerun the whole page. The
+    Monte Carlo itself is cached on its own inputs.
 
     Parameters
     ----------
@@ -975,10 +998,25 @@ def study_page(kind: str, draw_inputs, view_function, show, caption: str) -> Non
         Draws a view.
     caption : str
         What the uncertainty section does, in plain words.
+    input_notes : callable, optional
+        The store -> a value standing for the notes that `draw_inputs` shows beside
+        the inputs (for example whether the worst case is below the stated
+        temperature); the whole page runs again when it changes.
     """
-    st.session_state["page.full_run"] = True
-    st.fragment(_study_main)(kind, draw_inputs, view_function, show)
-    limit_rows = accepted_limits()[0]
+    session = st.session_state
+    session["page.full_run"] = True
+    slots = Slots()
+    inputs_column, results_column = st.columns([2, 3], gap="large")
+    session[RESULT_FRAGMENT] = _result_key(kind)
+    try:
+        with inputs_column:
+            limit_rows = draw_inputs(slots)
+    finally:
+        session.pop(RESULT_FRAGMENT, None)
+    session[f"page.notes.{kind}"] = input_notes(store()) if input_notes else None
+    with results_column:
+        st.fragment(_study_result, key=_result_key(kind))(
+            kind, view_function, show, slots, limit_rows, input_notes)
     slots = Slots()
     st.divider()
     st.header("Uncertainty", anchor="uncertainty")
@@ -990,10 +1028,32 @@ def study_page(kind: str, draw_inputs, view_function, show, caption: str) -> Non
     with range_results:
         slots.add("general")
         uncertainty_results(kind, slots, limit_rows, case.system(store()),
-                            stated_ok=bool(st.session_state.get(f"result.ok.{kind}")),
+                            stated_ok=bool(session.get(f"result.ok.{kind}")),
                             side=sampled_place)
-    st.session_state[f"mc.drawn.{kind}"] = _samples_key(kind, limit_rows)
-    st.session_state["page.full_run"] = False
+    session[f"mc.drawn.{kind}"] = _samples_key(kind, limit_rows)
+    session["page.full_run"] = False
+
+
+def _result_key(kind: str) -> str:
+    return f"result.{kind}"
+
+
+class _WholePage(Exception):
+    """Raised while only a result is drawn, when the change shows beside the inputs."""
+
+
+class _ResultSlots(Slots):
+    """The places for errors while only the result is drawn: an error that belongs
+    beside a block of inputs needs the whole page."""
+
+    def show(self, error: dict) -> None:
+        if error.get("area", "general") != "general":
+            raise _WholePage
+        super().show(error)
+
+    def problems(self, area: str, lines) -> None:
+        if list(lines):
+            raise _WholePage
 
 
 def _samples_key(kind: str, limit_rows) -> tuple:
@@ -1007,36 +1067,53 @@ def _samples_key(kind: str, limit_rows) -> tuple:
             case.uncertainty_unavailable(inputs, kind))
 
 
-def _study_main(kind: str, draw_inputs, view_function, show) -> None:
-    """The inputs and the result of a study page, with the downloads."""
+def _study_result(kind: str, view_function, show, page_slots: Slots, limit_rows,
+                  input_notes) -> None:
+    """The result of a study page, with the downloads (see `study_page`).
+
+    In the page's own run it uses the page's slots and limits; run alone it finds
+    them anew, and hands over to the whole page where the change shows beside the
+    inputs.
+    """
+    session = st.session_state
+    alone = not session.get("page.full_run")
+    state = store()
+    if alone and (session.get(f"page.beside.{kind}")
+                  or (input_notes(state) if input_notes else None)
+                  != session.get(f"page.notes.{kind}")):
+        st.rerun()  # errors or notes beside the inputs are to be drawn or cleared
+    slots = _ResultSlots() if alone else page_slots
+    if alone:
+        limit_rows = accepted_limits()[0]
+    before = set(slots.shown)  # what the inputs showed (a limits row left out...)
+    try:
+        view = _draw_result(kind, view_function, show, slots, limit_rows)
+    except _WholePage:
+        st.rerun()
+    session[f"page.beside.{kind}"] = bool(slots.shown - before - {"general"})
+    session[f"result.ok.{kind}"] = view is not None
+    if alone and _samples_key(kind, limit_rows) != session.get(f"mc.drawn.{kind}"):
+        st.rerun()  # the change touches the samples too: run the whole page
+
+
+def _draw_result(kind: str, view_function, show, slots: Slots, limit_rows) -> dict | None:
+    """Compute and draw the result; the view drawn, or None when there is none."""
     from estimator.scenario import dumps_scenario
 
     state = store()
-    units = case.system(state)
-    slots = Slots()
-    inputs, results = st.columns([2, 3], gap="large")
-    with inputs:
-        limit_rows = draw_inputs(slots)
-    view = None
-    with results:
-        st.subheader("Result")
-        slots.add("general")
-        doc, problems = case.view_document(state, kind, limits=limit_rows)
-        if problems:
-            slots.problems("liquid", problems)
-        else:
-            view = view_function(dumps_scenario(doc), units)
-            for error in view.get("field_errors", ()):
-                slots.show(error)
-            if view["error"]:
-                slots.show(view["error"])
-                view = None
-            else:
-                show(view)
-                report_doc, _ = case.study_document(state, kind, limits=limit_rows,
-                                                    uncertain=True)
-                downloads(dumps_scenario(report_doc), file_stem(view["name"]))
-    st.session_state[f"result.ok.{kind}"] = view is not None
-    if (not st.session_state.get("page.full_run")
-            and _samples_key(kind, limit_rows) != st.session_state.get(f"mc.drawn.{kind}")):
-        st.rerun()  # the change touches the samples too: run the whole page
+    st.subheader("Result")
+    slots.add("general")
+    doc, problems = case.view_document(state, kind, limits=limit_rows)
+    if problems:
+        slots.problems("liquid", problems)
+        return None
+    view = view_function(dumps_scenario(doc), case.system(state))
+    for error in view.get("field_errors", ()):
+        slots.show(error)
+    if view["error"]:
+        slots.show(view["error"])
+        return None
+    show(view)
+    report_doc, _ = case.study_document(state, kind, limits=limit_rows, uncertain=True)
+    downloads(dumps_scenario(report_doc), file_stem(view["name"]))
+    return view

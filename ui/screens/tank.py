@@ -13,6 +13,12 @@ shared.setup_page(
 state = shared.store()
 
 
+def worst_below_stated(inputs: dict) -> bool:
+    """Whether the worst-case temperature entered is below the liquid temperature."""
+    stated, worst_case = inputs.get(key("tank.temperature")), inputs.get(key("tank.worst"))
+    return stated is not None and worst_case is not None and worst_case < stated
+
+
 def draw_inputs(slots):
     """The page's inputs; returns the limit rows in use."""
     st.subheader("Tank and liquid")
@@ -24,8 +30,7 @@ def draw_inputs(slots):
                     help="The hottest the liquid gets (sun, process heat); leave empty to "
                          "screen only the stated temperature.")
     slots.add("temperature")
-    stated, worst_case = state.get(key("tank.temperature")), state.get(key("tank.worst"))
-    if stated is not None and worst_case is not None and worst_case < stated:
+    if worst_below_stated(state):
         st.warning("**Worst-case temperature** is below the liquid temperature: the liquid "
                    "temperature is used as the worst case. Check both.")
     st.caption("Not sure of the liquid temperature? Give it as a range under "
@@ -127,4 +132,5 @@ UNCERTAINTY_CAPTION = (
     "of the headspace and the probability of exceeding each limit and alarm."
 )
 
-shared.study_page("tank", draw_inputs, views.tank_view, show, UNCERTAINTY_CAPTION)
+shared.study_page("tank", draw_inputs, views.tank_view, show, UNCERTAINTY_CAPTION,
+                  input_notes=worst_below_stated)
