@@ -590,6 +590,90 @@ def _distance_flags(distance, capped_until, wind_speed, dense_gas) -> list[str]:
     return flags
 
 
+def _lfl_alarm_percent(lfl_alarm_percent) -> float:
+    """The site's LFL alarm level, above 0 and at most 100. [% LFL]"""
+    alarm = positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
+    if alarm > 100.0:
+        raise InputError("LFL alarm", f"{alarm:g} % is above 100 % of the LFL; give the "
+                         "alarm as a percentage of the LFL, such as 10")
+    return alarm
+
+
+def _outdoor_pool_area(area, spilled_volume, dike_area, depth) -> float:
+    """The pool area given, or the spilled volume spread to the dike or to ``depth``. [m2]"""
+    if area is None:
+        if spilled_volume is None:
+            raise InputError("pool area", "give the pool area or the spilled volume")
+        area = spill_pool_area(positive(spilled_volume, "spilled volume", "m3"),
+                               dike_area, depth)
+    return positive(area, "pool area", "m2")
+
+
+def _saturation_fractions(liq, t, pressure) -> np.ndarray:
+    """Per component, its Raoult partial pressure over the pool / pressure, at most 1. [-]"""
+    from .vapor import component_vapor_pressure_estimates
+
+    estimates = component_vapor_pressure_estimates(liq.components, t, "temperature")
+    p_sat = np.array([float(e.pressure) for e in estimates])
+    gamma = np.asarray(liq.activity_coefficients_at(t), dtype=float).reshape(-1)
+    return np.minimum(liq.mole_fractions * gamma * p_sat / float(pressure), 1.0)
+
+
+def _pool_dense_gas(g, y_sat, molar_masses, t, pressure, u):
+    """Britter-McQuaid criterion for the saturated vapour-air mixture over the pool,
+    or None when the pool gives no vapour."""
+    from .outdoor import pool_source_criterion
+
+    if not (g.sum() > 0 and y_sat.sum() > 0):
+        return None
+    mean_molar_mass = float(np.sum(y_sat * molar_masses) / np.sum(y_sat))
+    return pool_source_criterion(float(np.sum(g / molar_masses)),
+                                 float(min(y_sat.sum(), 1.0)), mean_molar_mass, t,
+                                 float(pressure), u)
+
+
+def _capped_until(volume_rates, y_sat, u, edge, classes, land):
+    """How far the plume formula gives some component more than its saturated
+    fraction over the pool (the zone where the centreline is capped); None where
+    it does nowhere beyond the pool edge. [m]"""
+    from .outdoor import centerline_concentration
+
+    capped_until = None
+    shape_edge = float(centerline_concentration(1.0, u, edge, classes, land))
+    for j in range(len(volume_rates)):
+        if volume_rates[j] * shape_edge > y_sat[j] > 0:
+            def over(log_x, j=j):
+                return math.log(float(centerline_concentration(1.0, u, math.exp(log_x), classes, land))
+                                * volume_rates[j] / y_sat[j])
+            from scipy.optimize import brentq
+
+            xj = math.exp(brentq(over, math.log(edge), math.log(MAX_OUTDOOR_DISTANCE),
+                                 xtol=1e-10, maxiter=200))
+            capped_until = xj if capped_until is None else max(capped_until, xj)
+    return capped_until
+
+
+def _cap_note(capped_until, y_sat) -> str:
+    """The note on the capped zone near the pool."""
+    return (f"the plume formula gives more vapour than the pool can saturate the air with "
+            f"out to about {capped_until:,.0f} m: there the centreline is capped at the "
+            f"saturated vapour concentration over the pool ({1e6 * y_sat.sum():,.0f} ppm of "
+            "vapour in all, each component at its Raoult partial pressure); the real plume "
+            "near the pool is not resolved by this point-source model")
+
+
+def _lfl_distances(run: OutdoorSpill, alarm, notes: list):
+    """Distances to the LFL and to the LFL alarm, None (with a note) when no
+    component has an LFL on record."""
+    if np.any(np.isfinite(run.lower_flammability_limits)):
+        d_lfl, _ = run.distance_above(1.0)
+        d_alarm, _ = run.distance_above(alarm / 100.0)
+        return d_lfl, d_alarm
+    notes.append("no component has a lower flammability limit on record: the distances "
+                 "to the LFL are not judged")
+    return None, None
+
+
 def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
                   terrain="open", spilled_volume=None, area=None, dike_area=None,
                   depth=UNDIKED_SPILL_DEPTH, model="mackay-matsugu",
@@ -632,21 +716,11 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     OutdoorSpill
     """
     from .evaporation import mixture_evaporation_rates
-    from .outdoor import centerline_concentration, pasquill_classes, terrain_key, pool_source_criterion
-    from .outdoor import screening_validity
-    from .vapor import component_vapor_pressure_estimates
+    from .outdoor import pasquill_classes, screening_validity, terrain_key
 
     liq = make_liquid(liquid, basis, activity_coefficients)
-    alarm = positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
-    if alarm > 100.0:
-        raise InputError("LFL alarm", f"{alarm:g} % is above 100 % of the LFL; give the "
-                         "alarm as a percentage of the LFL, such as 10")
-    if area is None:
-        if spilled_volume is None:
-            raise InputError("pool area", "give the pool area or the spilled volume")
-        area = spill_pool_area(positive(spilled_volume, "spilled volume", "m3"),
-                               dike_area, depth)
-    area = positive(area, "pool area", "m2")
+    alarm = _lfl_alarm_percent(lfl_alarm_percent)
+    area = _outdoor_pool_area(area, spilled_volume, dike_area, depth)
     t = float(temperature)
     rates = mixture_evaporation_rates(liq.components, liq.mole_fractions, temperature, area,
                                       wind_speed, liq.activity_coefficients, model, pressure)
@@ -658,32 +732,12 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     u = float(wind_speed)
     molar_volume = GAS_CONSTANT * t / float(pressure)
     volume_rates = g / liq.molar_masses * molar_volume
-    estimates = component_vapor_pressure_estimates(liq.components, t, "temperature")
-    p_sat = np.array([float(e.pressure) for e in estimates])
-    gamma = np.asarray(liq.activity_coefficients_at(t), dtype=float).reshape(-1)
-    y_sat = np.minimum(liq.mole_fractions * gamma * p_sat / float(pressure), 1.0)
+    y_sat = _saturation_fractions(liq, t, pressure)
     edge = max(1.0, math.sqrt(area / math.pi))
     lfl = np.array([c.lower_flammability_limit or np.nan for c in liq.components], dtype=float)
     notes = []
-    dense = None
-    if g.sum() > 0 and y_sat.sum() > 0:
-        mean_molar_mass = float(np.sum(y_sat * liq.molar_masses) / np.sum(y_sat))
-        dense = pool_source_criterion(float(np.sum(g / liq.molar_masses)),
-                                      float(min(y_sat.sum(), 1.0)), mean_molar_mass, t,
-                                      float(pressure), u)
-    # where the cap applies
-    capped_until = None
-    shape_edge = float(centerline_concentration(1.0, u, edge, classes, land))
-    for j in range(len(g)):
-        if volume_rates[j] * shape_edge > y_sat[j] > 0:
-            def over(log_x, j=j):
-                return math.log(float(centerline_concentration(1.0, u, math.exp(log_x), classes, land))
-                                * volume_rates[j] / y_sat[j])
-            from scipy.optimize import brentq
-
-            xj = math.exp(brentq(over, math.log(edge), math.log(MAX_OUTDOOR_DISTANCE),
-                                 xtol=1e-10, maxiter=200))
-            capped_until = xj if capped_until is None else max(capped_until, xj)
+    dense = _pool_dense_gas(g, y_sat, liq.molar_masses, t, pressure, u)
+    capped_until = _capped_until(volume_rates, y_sat, u, edge, classes, land)
     run = OutdoorSpill(liq.names, g, x, np.zeros((x.size, g.size)), np.zeros((x.size, g.size)),
                        str(stability), terrain, u, (), float(area), edge, volume_rates, y_sat,
                        capped_until, lfl, None, alarm, None, None, (), (), dense)
@@ -691,19 +745,8 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     conc = y * liq.molar_masses[None, :] / molar_volume
     percent = 100.0 * run.fraction_of_lfl(x)
     if capped_until is not None:
-        notes.append(
-            f"the plume formula gives more vapour than the pool can saturate the air with "
-            f"out to about {capped_until:,.0f} m: there the centreline is capped at the "
-            f"saturated vapour concentration over the pool ({1e6 * y_sat.sum():,.0f} ppm of "
-            "vapour in all, each component at its Raoult partial pressure); the real plume "
-            "near the pool is not resolved by this point-source model")
-    d_lfl = d_alarm = None
-    if np.any(np.isfinite(lfl)):
-        d_lfl, _ = run.distance_above(1.0)
-        d_alarm, _ = run.distance_above(alarm / 100.0)
-    else:
-        notes.append("no component has a lower flammability limit on record: the distances "
-                     "to the LFL are not judged")
+        notes.append(_cap_note(capped_until, y_sat))
+    d_lfl, d_alarm = _lfl_distances(run, alarm, notes)
     notes += list(screening_validity(u, x, dense))
     if dense is not None and not dense.dense:
         notes.append(dense.statement)
