@@ -292,49 +292,42 @@ def _findings(hs: Headspace, comparisons, alarms, label: str) -> list[str]:
     return out
 
 
-def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
-    """Screen one tank of a scenario (see `TankResult`)."""
-    from .tank import entry_purge, filling_displacement, thermal_breathing, vapor_inventory
+def _tank_headspace(entry, temperature, pressure, notes: list) -> Headspace:
+    """The headspace over a scenario liquid (or over water with dissolved
+    volatiles), its warnings added to ``notes``."""
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always")
+        if entry["kind"] == "water":
+            hs = water_headspace({s.key: c for s, c in entry["spec"].items()},
+                                 temperature, pressure)
+        else:
+            hs = headspace(build_liquid(entry), temperature, pressure)
+    notes.extend(str(w.message) for w in caught)
+    return hs
 
-    entry = scenario.liquids[tank["liquid"]]
-    pressure = scenario.pressure + tank.get("gauge_pressure", 0.0)
-    t = tank["temperature"]
-    worst_t = tank.get("worst_temperature")
-    notes: list[str] = []
-    water = entry["kind"] == "water"
 
-    def evaluate(temperature):
-        with warnings.catch_warnings(record=True) as caught:
-            warnings.simplefilter("always")
-            if water:
-                hs = water_headspace({s.key: c for s, c in entry["spec"].items()},
-                                     temperature, pressure)
-            else:
-                hs = headspace(build_liquid(entry), temperature, pressure)
-        notes.extend(str(w.message) for w in caught)
-        return hs
-
-    hs = evaluate(t)
-    worst = None
+def _worst_case(evaluate, t, worst_t, notes: list):
+    """The worst-case temperature (never below the stated one) and the headspace
+    there; the headspace is None when the tank gives no such case or it fails."""
     if worst_t is not None and worst_t < t:
         notes.append(f"the worst-case temperature {worst_t - 273.15:.1f} °C is below the stated "
                      f"temperature {t - 273.15:.1f} °C; the stated temperature is used as the "
                      "worst case: check both")
         worst_t = t
+    worst = None
     if worst_t is not None:
         try:
             worst = evaluate(worst_t)
         except UllageError as exc:
             notes.append(f"worst case at {worst_t - 273.15:.1f} °C not computed: {exc}")
-    limits = scenario.limits
-    comparisons = tuple(compare(_concentrations(hs), limits, t, pressure))
-    worst_comparisons = (tuple(compare(_concentrations(worst), limits, worst_t, pressure))
-                         if worst else ())
-    findings = _findings(hs, comparisons, scenario.alarms, f"At {t - 273.15:.1f} °C")
-    if worst is not None:
-        findings += _findings(worst, worst_comparisons, scenario.alarms,
-                              f"At the worst case, {worst_t - 273.15:.1f} °C")
+    return worst_t, worst
+
+
+def _additive_index(hs, worst, limits, t, worst_t, pressure):
+    """The TWA additive index at the stated and the worst temperature, the vapour
+    hazard ratios, and the finding on the mixture when several substances count."""
     ratios = {}
+    findings = []
     y = _concentrations(hs)
     additive = additive_terms(y, limits, "TWA", t, pressure)
     worst_additive = (additive_terms(_concentrations(worst), limits, "TWA", worst_t, pressure)
@@ -348,35 +341,42 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
             findings.append(f"Headspace {additive.statement}"
                             + (": above 1, the mixture exceeds it." if additive.value > 1
                                else "."))
+    return additive, worst_additive, ratios, findings
 
+
+def _tank_sweep(tank, hs, water, evaluate, t, worst_t, notes: list):
+    """The headspace over the tank's sweep range, or None (with a note)."""
     lo = tank.get("sweep_from", t - 15.0)
     hi = tank.get("sweep_to", (worst_t or t) + 15.0)
-    sweep = None
     try:
         if water:
             grid = np.linspace(max(lo, 273.65), min(hi, 372.65), 41)
         else:
             grid = sweep_temperatures(hs.liquid, lo, hi)
-        sweep = evaluate(grid)
+        return evaluate(grid)
     except UllageError as exc:
         notes.append(f"temperature sweep not computed: {exc}")
+    return None
 
+
+def _flash_and_alarm(liquid, alarms, pressure, notes: list):
+    """The estimated flash point, the liquid temperature of the % LFL alarm, and
+    their findings."""
     flash = alarm_t = None
-    if not water and any(c.lower_flammability_limit for c in hs.liquid.components):
-        try:
-            flash = estimated_flash_point(hs.liquid, pressure)
-        except UllageError as exc:
-            notes.append(f"flash-point estimate: {exc}")
-        try:
-            alarm_t = temperature_for_percent_lfl(hs.liquid, scenario.alarms.percent_lfl,
-                                                  pressure)
-        except AboveAtLowestTemperature as exc:
-            findings.append(f"The headspace is at or above {scenario.alarms.percent_lfl:g} % "
-                            f"of the LFL at every liquid temperature down to "
-                            f"{exc.temperature - 273.15:.1f} °C, the lowest temperature "
-                            "computed (the highest melting point of its components).")
-        except UllageError as exc:
-            notes.append(f"{scenario.alarms.percent_lfl:g} % LFL temperature: {exc}")
+    findings = []
+    try:
+        flash = estimated_flash_point(liquid, pressure)
+    except UllageError as exc:
+        notes.append(f"flash-point estimate: {exc}")
+    try:
+        alarm_t = temperature_for_percent_lfl(liquid, alarms.percent_lfl, pressure)
+    except AboveAtLowestTemperature as exc:
+        findings.append(f"The headspace is at or above {alarms.percent_lfl:g} % "
+                        f"of the LFL at every liquid temperature down to "
+                        f"{exc.temperature - 273.15:.1f} °C, the lowest temperature "
+                        "computed (the highest melting point of its components).")
+    except UllageError as exc:
+        notes.append(f"{alarms.percent_lfl:g} % LFL temperature: {exc}")
     if flash is not None:
         text = f"Estimated flash point {flash.estimate - 273.15:.1f} °C"
         if flash.published is not None:
@@ -386,59 +386,111 @@ def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
                      "over this liquid is flammable at every temperature at which it is liquid")
         findings.append(text + ".")
     if alarm_t is not None:
-        findings.append(f"The headspace reaches {scenario.alarms.percent_lfl:g} % of the LFL "
+        findings.append(f"The headspace reaches {alarms.percent_lfl:g} % of the LFL "
                         f"at {alarm_t - 273.15:.1f} °C.")
+    return flash, alarm_t, findings
 
-    boiling, near_boiling, said = _boiling_findings(
-        hs.liquid, water, pressure, [("stated", "the stated temperature", t),
-                                     ("worst", "the worst-case temperature", worst_t)], notes)
-    findings += said
+
+def _tank_purge(scenario: Scenario, tank: dict, hs, t, space, pressure, notes: list):
+    """The entry purge of the tank down to its target (by default the alarm's share of
+    the LFL), or None (with a note)."""
+    from .tank import entry_purge
+
+    target = tank.get("purge_target")
+    if target is None:
+        target = 0.01 * scenario.alarms.percent_lfl * float(hs.lfl_mixture) \
+            if np.isfinite(hs.lfl_mixture) else None
+    if target is None:
+        notes.append("purge not computed: give purge_target (no LFL to aim below)")
+        return None
+    holding = bool(tank.get("residual_area"))
+    try:
+        return entry_purge(hs.liquid, t, space if holding else tank["volume"],
+                           tank["purge_rate"], target, tank.get("purge_mixing_factor", 1.0),
+                           tank.get("residual_area", 0.0), 0.1, pressure)
+    except UllageError as exc:
+        notes.append(f"purge: {exc}")
+    return None
+
+
+def _tank_operations(scenario: Scenario, tank: dict, hs, water, t, pressure, notes: list):
+    """Vapour inventory, filling displacement, thermal breathing and entry purge of the
+    tank, each None where the tank gives no input for it."""
+    from .tank import filling_displacement, thermal_breathing, vapor_inventory
 
     inventory = filling = breathing = purge = None
     space = None
     if tank.get("volume") is not None:
         space = tank["volume"] * (1.0 - tank.get("fill", 0.0))
-    liquid_for_tank = None if water else hs.liquid
-    if liquid_for_tank is not None:
-        if space:
-            inventory = vapor_inventory(liquid_for_tank, t, space, pressure)
-        if tank.get("pumped_volume"):
-            filling = filling_displacement(liquid_for_tank, t, tank["pumped_volume"], pressure)
-        if tank.get("daily_low") is not None and space:
-            try:
-                breathing = thermal_breathing(liquid_for_tank, tank["daily_low"],
-                                              tank["daily_high"], space, pressure)
-            except UllageError as exc:
-                notes.append(f"thermal breathing: {exc}")
-        if tank.get("purge_rate") and tank.get("volume"):
-            target = tank.get("purge_target")
-            if target is None:
-                target = 0.01 * scenario.alarms.percent_lfl * float(hs.lfl_mixture) \
-                    if np.isfinite(hs.lfl_mixture) else None
-            if target is None:
-                notes.append("purge not computed: give purge_target (no LFL to aim below)")
-            else:
-                holding = bool(tank.get("residual_area"))
-                try:
-                    purge = entry_purge(liquid_for_tank, t,
-                                        space if holding else tank["volume"],
-                                        tank["purge_rate"], target,
-                                        tank.get("purge_mixing_factor", 1.0),
-                                        tank.get("residual_area", 0.0), 0.1, pressure)
-                except UllageError as exc:
-                    notes.append(f"purge: {exc}")
-    elif any(tank.get(k) for k in ("pumped_volume", "daily_low", "purge_rate")):
-        notes.append("filling, breathing and purge are not computed for water with "
-                     "dissolved volatiles")
-    if purge is not None:
-        case = f" (case computed: {purge.case_words}; give residual_area for liquid left in it)" \
-            if purge.case == "drained" else f" (case computed: {purge.case_words})"
-        findings.append(
-            f"Purging at the given rate reaches {format_number(purge.target_volume_fraction * 1e6)} ppm "
+    if water:
+        if any(tank.get(k) for k in ("pumped_volume", "daily_low", "purge_rate")):
+            notes.append("filling, breathing and purge are not computed for water with "
+                         "dissolved volatiles")
+        return inventory, filling, breathing, purge
+    liquid = hs.liquid
+    if space:
+        inventory = vapor_inventory(liquid, t, space, pressure)
+    if tank.get("pumped_volume"):
+        filling = filling_displacement(liquid, t, tank["pumped_volume"], pressure)
+    if tank.get("daily_low") is not None and space:
+        try:
+            breathing = thermal_breathing(liquid, tank["daily_low"], tank["daily_high"],
+                                          space, pressure)
+        except UllageError as exc:
+            notes.append(f"thermal breathing: {exc}")
+    if tank.get("purge_rate") and tank.get("volume"):
+        purge = _tank_purge(scenario, tank, hs, t, space, pressure, notes)
+    return inventory, filling, breathing, purge
+
+
+def _purge_finding(purge) -> str:
+    """The finding on an entry purge: the time to its target, or why it is not reached."""
+    case = f" (case computed: {purge.case_words}; give residual_area for liquid left in it)" \
+        if purge.case == "drained" else f" (case computed: {purge.case_words})"
+    return (f"Purging at the given rate reaches {format_number(purge.target_volume_fraction * 1e6)} ppm "
             "in "
             f"about {purge.time / 60:.0f} min{case}: plan on that, then measure before "
             "entry." if purge.reachable
             else purge.note[:1].upper() + purge.note[1:] + case + ".")
+
+
+def screen_tank(scenario: Scenario, tank: dict) -> TankResult:
+    """Screen one tank of a scenario (see `TankResult`)."""
+    entry = scenario.liquids[tank["liquid"]]
+    pressure = scenario.pressure + tank.get("gauge_pressure", 0.0)
+    t = tank["temperature"]
+    notes: list[str] = []
+    water = entry["kind"] == "water"
+
+    def evaluate(temperature):
+        return _tank_headspace(entry, temperature, pressure, notes)
+
+    hs = evaluate(t)
+    worst_t, worst = _worst_case(evaluate, t, tank.get("worst_temperature"), notes)
+    limits = scenario.limits
+    comparisons = tuple(compare(_concentrations(hs), limits, t, pressure))
+    worst_comparisons = (tuple(compare(_concentrations(worst), limits, worst_t, pressure))
+                         if worst else ())
+    findings = _findings(hs, comparisons, scenario.alarms, f"At {t - 273.15:.1f} °C")
+    if worst is not None:
+        findings += _findings(worst, worst_comparisons, scenario.alarms,
+                              f"At the worst case, {worst_t - 273.15:.1f} °C")
+    additive, worst_additive, ratios, said = _additive_index(hs, worst, limits, t, worst_t,
+                                                             pressure)
+    findings += said
+    sweep = _tank_sweep(tank, hs, water, evaluate, t, worst_t, notes)
+    flash = alarm_t = None
+    if not water and any(c.lower_flammability_limit for c in hs.liquid.components):
+        flash, alarm_t, said = _flash_and_alarm(hs.liquid, scenario.alarms, pressure, notes)
+        findings += said
+    boiling, near_boiling, said = _boiling_findings(
+        hs.liquid, water, pressure, [("stated", "the stated temperature", t),
+                                     ("worst", "the worst-case temperature", worst_t)], notes)
+    findings += said
+    inventory, filling, breathing, purge = _tank_operations(scenario, tank, hs, water, t,
+                                                            pressure, notes)
+    if purge is not None:
+        findings.append(_purge_finding(purge))
     return TankResult(
         name=tank["name"], liquid=tank["liquid"], temperature=t, worst_temperature=worst_t,
         pressure=pressure, headspace=hs, worst=worst, sweep=sweep, comparisons=comparisons,

@@ -183,6 +183,135 @@ def _integrate_segments(rhs, y0, t_out, segments, atol):
     return y_out
 
 
+def _mixing_factor(mixing_factor) -> float:
+    """The mixing factor K >= 1 that divides the ventilation rate. [-]"""
+    k_mix = float(mixing_factor)
+    if not math.isfinite(k_mix) or k_mix < 1.0:
+        raise InputError("mixing factor", f"{mixing_factor!r} must be 1 or more: ullage "
+                         "divides the ventilation rate by K >= 1 (effective ventilation Q/K)")
+    return k_mix
+
+
+def _near_field(near_field_volume, interzonal_flow, v_room):
+    """The near-field volume [m3] and interzonal airflow β [m3/s] of the two-zone
+    model, or None for the well-mixed room (neither given)."""
+    if near_field_volume is None and interzonal_flow is None:
+        return None
+    if near_field_volume is None or interzonal_flow is None:
+        raise InputError("near field", "the two-zone model needs both the near-field "
+                         "volume and the interzonal airflow")
+    v_nf = positive(near_field_volume, "near-field volume", "m3")
+    beta = positive(interzonal_flow, "interzonal airflow", "m3/s")
+    if v_nf >= v_room:
+        raise InputError("near-field volume", "must be smaller than the room volume")
+    return v_nf, beta
+
+
+def _effective_ventilation(q, k_mix, end, v_room, notes: list) -> float:
+    """Q/K [m3/s], zero when it would change less than a billionth of the room air
+    over the run (with a note)."""
+    q_eff = q / k_mix
+    if 0.0 < q_eff * end / v_room < 1e-9:
+        q_eff = 0.0
+        notes.append("the ventilation rate changes less than a billionth of the room air "
+                     "over the run: treated as a closed room")
+    return q_eff
+
+
+def _pool_sources(per_pascal, surface, to_pressure, floor, n_comp):
+    """The evaporation rates of the pool, over a series (``rates``) and at one
+    instant (``source``, the fast path the integration calls)."""
+
+    def rates(n, c_drive, active):
+        """Evaporation rates [kg/s]; n and c_drive of shape (..., n_comp).
+
+        The last `DEPLETED_FRACTION` of the pool evaporates with a rate that falls
+        smoothly to zero (factor total / (total + floor)) instead of stopping at a
+        kink, so the solver never chatters at the moment the pool runs dry.
+        """
+        positive = np.clip(n, 0.0, None)
+        total = positive.sum(axis=-1, keepdims=True)
+        x = positive / (total + floor)
+        g = per_pascal * np.clip(x * surface - c_drive * to_pressure, 0.0, None)
+        return np.where(np.asarray(active)[..., None], g, 0.0)
+
+    no_rate = np.zeros(n_comp)
+
+    def source(n, c_drive, active):
+        """Evaporation rates at one instant, the fast path of `rates`. [kg/s]"""
+        if not active:
+            return no_rate
+        positive = np.maximum(n, 0.0)
+        total = positive.sum()
+        return per_pascal * np.maximum(positive * (surface / (total + floor))
+                                       - c_drive * to_pressure, 0.0)
+
+    return rates, source
+
+
+def _room_equations(source, budget, molar, n_comp, q_eff, v_room, near):
+    """Right-hand side of the pool and room air: pool moles, air concentrations of
+    each zone and the mass ventilated, for ``odeint``."""
+    if near is not None:
+        v_nf, beta = near
+        v_ff = v_room - v_nf
+
+        def rhs(t, y, active):
+            budget.tick()
+            n = y[:n_comp]
+            c_nf, c_ff = y[n_comp:2 * n_comp], y[2 * n_comp:3 * n_comp]
+            g = source(n, c_nf, active)
+            exchange = beta * (c_nf - c_ff)
+            return np.concatenate((-g / molar, (g - exchange) / v_nf,
+                                   (exchange - q_eff * c_ff) / v_ff, q_eff * c_ff))
+        return rhs
+
+    def rhs(t, y, active):
+        budget.tick()
+        n = y[:n_comp]
+        c = y[n_comp:2 * n_comp]
+        g = source(n, c, active)
+        return np.concatenate((-g / molar, (g - q_eff * c) / v_room, q_eff * c))
+    return rhs
+
+
+def _integrate_room(rhs, n0, mass, v_room, zones, t_out, end, t_remove):
+    """The state at the output times, the pool taken away at ``t_remove`` if given."""
+    n_comp = n0.size
+    y0 = np.concatenate((n0, np.zeros(zones * n_comp), np.zeros(n_comp)))
+    segments = [(0.0, end, True)]
+    if t_remove is not None and t_remove < end:
+        segments = [(0.0, t_remove, True), (t_remove, end, False)]
+    scale = np.concatenate((n0, np.full(zones * n_comp, mass / v_room),
+                            np.full(n_comp, mass)))
+    atol = np.maximum(scale, 1e-30) * 1e-12
+    return _integrate_segments(rhs, y0, t_out, segments, atol)
+
+
+def _room_series(y_out, n_comp, molar, near, v_room, mass):
+    """From the integrated state: pool mass [kg], near-field (or None) and room or
+    far-field air [kg/m3], the air that drives evaporation, and the relative
+    mass-balance error."""
+    zones = 1 if near is None else 2
+    n_t = np.clip(y_out[:, :n_comp], 0.0, None)
+    air = y_out[:, n_comp:(1 + zones) * n_comp]
+    ventilated = y_out[:, (1 + zones) * n_comp:]
+    mass_pool = n_t * molar
+    if near is not None:
+        v_nf = near[0]
+        c_nf, c_ff = air[:, :n_comp], air[:, n_comp:]
+        in_air = c_nf * v_nf + c_ff * (v_room - v_nf)
+        drive_c = c_nf
+    else:
+        c_nf, c_ff = None, air
+        in_air = c_ff * v_room
+        drive_c = c_ff
+    total0 = float(mass)
+    balance = float(np.max(np.abs(mass_pool.sum(1) + in_air.sum(1) + ventilated.sum(1)
+                                  - total0)) / total0)
+    return n_t, mass_pool, c_nf, c_ff, drive_c, balance
+
+
 def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_volume=None,
                  spilled_mass=None, area=None, dike_area=None, depth=UNDIKED_SPILL_DEPTH,
                  mixing_factor=1.0, air_speed=0.1, times=None, duration=EIGHT_HOUR_SHIFT,
@@ -250,21 +379,10 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     t_k = positive(temperature, "temperature", "K")
     v_room = positive(room_volume, "room volume", "m3")
     q = positive(ventilation_rate, "ventilation rate", "m3/s", allow_zero=True)
-    k_mix = float(mixing_factor)
-    if not math.isfinite(k_mix) or k_mix < 1.0:
-        raise InputError("mixing factor", f"{mixing_factor!r} must be 1 or more: ullage "
-                         "divides the ventilation rate by K >= 1 (effective ventilation Q/K)")
+    k_mix = _mixing_factor(mixing_factor)
     mass, pool_area = _spilled_mass(liq, spilled_volume, spilled_mass, v_room, area,
                                     dike_area, depth)
-    two_zone = near_field_volume is not None or interzonal_flow is not None
-    if two_zone:
-        if near_field_volume is None or interzonal_flow is None:
-            raise InputError("near field", "the two-zone model needs both the near-field "
-                             "volume and the interzonal airflow")
-        v_nf = positive(near_field_volume, "near-field volume", "m3")
-        beta = positive(interzonal_flow, "interzonal airflow", "m3/s")
-        if v_nf >= v_room:
-            raise InputError("near-field volume", "must be smaller than the room volume")
+    near = _near_field(near_field_volume, interzonal_flow, v_room)
     t_out, end = _output_times(times, duration)
     t_remove = None
     if source_removed_at is not None:
@@ -283,77 +401,15 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
     n0 = mass * liq.mass_fractions / molar
     to_pressure = GAS_CONSTANT * t_k / molar
     surface = gamma * p_sat
-    q_eff = q / k_mix
-    if 0.0 < q_eff * end / v_room < 1e-9:
-        q_eff = 0.0
-        notes.append("the ventilation rate changes less than a billionth of the room air "
-                     "over the run: treated as a closed room")
+    q_eff = _effective_ventilation(q, k_mix, end, v_room, notes)
     budget = StepBudget(400_000, float(time_limit))
-    v_ff = v_room - v_nf if two_zone else v_room
-
     floor = DEPLETED_FRACTION * n0.sum()
-
-    def rates(n, c_drive, active):
-        """Evaporation rates [kg/s]; n and c_drive of shape (..., n_comp).
-
-        The last `DEPLETED_FRACTION` of the pool evaporates with a rate that falls
-        smoothly to zero (factor total / (total + floor)) instead of stopping at a
-        kink, so the solver never chatters at the moment the pool runs dry.
-        """
-        positive = np.clip(n, 0.0, None)
-        total = positive.sum(axis=-1, keepdims=True)
-        x = positive / (total + floor)
-        g = per_pascal * np.clip(x * surface - c_drive * to_pressure, 0.0, None)
-        return np.where(np.asarray(active)[..., None], g, 0.0)
-
-    no_rate = np.zeros(n_comp)
-
-    def source(n, c_drive, active):
-        """Evaporation rates at one instant, the fast path of `rates`. [kg/s]"""
-        if not active:
-            return no_rate
-        positive = np.maximum(n, 0.0)
-        total = positive.sum()
-        return per_pascal * np.maximum(positive * (surface / (total + floor))
-                                       - c_drive * to_pressure, 0.0)
-
-    def rhs(t, y, active):
-        budget.tick()
-        n = y[:n_comp]
-        if two_zone:
-            c_nf, c_ff = y[n_comp:2 * n_comp], y[2 * n_comp:3 * n_comp]
-            g = source(n, c_nf, active)
-            exchange = beta * (c_nf - c_ff)
-            return np.concatenate((-g / molar, (g - exchange) / v_nf,
-                                   (exchange - q_eff * c_ff) / v_ff, q_eff * c_ff))
-        c = y[n_comp:2 * n_comp]
-        g = source(n, c, active)
-        return np.concatenate((-g / molar, (g - q_eff * c) / v_room, q_eff * c))
-
-    zones = 2 if two_zone else 1
-    y0 = np.concatenate((n0, np.zeros(zones * n_comp), np.zeros(n_comp)))
-    segments = [(0.0, end, True)]
-    if t_remove is not None and t_remove < end:
-        segments = [(0.0, t_remove, True), (t_remove, end, False)]
-    scale = np.concatenate((n0, np.full(zones * n_comp, mass / v_room),
-                            np.full(n_comp, mass)))
-    atol = np.maximum(scale, 1e-30) * 1e-12
-    y_out = _integrate_segments(rhs, y0, t_out, segments, atol)
-    n_t = np.clip(y_out[:, :n_comp], 0.0, None)
-    air = y_out[:, n_comp:(1 + zones) * n_comp]
-    ventilated = y_out[:, (1 + zones) * n_comp:]
-    mass_pool = n_t * molar
-    if two_zone:
-        c_nf, c_ff = air[:, :n_comp], air[:, n_comp:]
-        in_air = c_nf * v_nf + c_ff * v_ff
-        drive_c = c_nf
-    else:
-        c_nf, c_ff = None, air
-        in_air = c_ff * v_room
-        drive_c = c_ff
-    total0 = float(mass)
-    balance = float(np.max(np.abs(mass_pool.sum(1) + in_air.sum(1) + ventilated.sum(1)
-                                  - total0)) / total0)
+    rates, source = _pool_sources(per_pascal, surface, to_pressure, floor, n_comp)
+    rhs = _room_equations(source, budget, molar, n_comp, q_eff, v_room, near)
+    zones = 1 if near is None else 2
+    y_out = _integrate_room(rhs, n0, mass, v_room, zones, t_out, end, t_remove)
+    n_t, mass_pool, c_nf, c_ff, drive_c, balance = _room_series(y_out, n_comp, molar, near,
+                                                                v_room, mass)
     active_t = np.ones(t_out.size, dtype=bool) if t_remove is None else t_out < t_remove
     rate = rates(n_t, drive_c, active_t)
     gone = np.flatnonzero(n_t.sum(1) <= DEPLETED_FRACTION * n0.sum())
@@ -366,7 +422,7 @@ def indoor_spill(liquid, temperature, *, room_volume, ventilation_rate, spilled_
         mass_remaining=mass_pool, evaporation_rate=rate, initial_mass=n0 * molar,
         pool_area=pool_area, pool_gone_time=pool_gone, source_removed_time=t_remove,
         saturation=saturation, temperature=t_k, pressure=p, mass_balance_error=balance,
-        model=("two-zone (near field / far field)" if two_zone else "well-mixed room")
+        model=("well-mixed room" if near is None else "two-zone (near field / far field)")
         + f", {model} evaporation",
         warnings=tuple(dict.fromkeys(notes)),
     )
@@ -534,6 +590,90 @@ def _distance_flags(distance, capped_until, wind_speed, dense_gas) -> list[str]:
     return flags
 
 
+def _lfl_alarm_percent(lfl_alarm_percent) -> float:
+    """The site's LFL alarm level, above 0 and at most 100. [% LFL]"""
+    alarm = positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
+    if alarm > 100.0:
+        raise InputError("LFL alarm", f"{alarm:g} % is above 100 % of the LFL; give the "
+                         "alarm as a percentage of the LFL, such as 10")
+    return alarm
+
+
+def _outdoor_pool_area(area, spilled_volume, dike_area, depth) -> float:
+    """The pool area given, or the spilled volume spread to the dike or to ``depth``. [m2]"""
+    if area is None:
+        if spilled_volume is None:
+            raise InputError("pool area", "give the pool area or the spilled volume")
+        area = spill_pool_area(positive(spilled_volume, "spilled volume", "m3"),
+                               dike_area, depth)
+    return positive(area, "pool area", "m2")
+
+
+def _saturation_fractions(liq, t, pressure) -> np.ndarray:
+    """Per component, its Raoult partial pressure over the pool / pressure, at most 1. [-]"""
+    from .vapor import component_vapor_pressure_estimates
+
+    estimates = component_vapor_pressure_estimates(liq.components, t, "temperature")
+    p_sat = np.array([float(e.pressure) for e in estimates])
+    gamma = np.asarray(liq.activity_coefficients_at(t), dtype=float).reshape(-1)
+    return np.minimum(liq.mole_fractions * gamma * p_sat / float(pressure), 1.0)
+
+
+def _pool_dense_gas(g, y_sat, molar_masses, t, pressure, u):
+    """Britter-McQuaid criterion for the saturated vapour-air mixture over the pool,
+    or None when the pool gives no vapour."""
+    from .outdoor import pool_source_criterion
+
+    if not (g.sum() > 0 and y_sat.sum() > 0):
+        return None
+    mean_molar_mass = float(np.sum(y_sat * molar_masses) / np.sum(y_sat))
+    return pool_source_criterion(float(np.sum(g / molar_masses)),
+                                 float(min(y_sat.sum(), 1.0)), mean_molar_mass, t,
+                                 float(pressure), u)
+
+
+def _capped_until(volume_rates, y_sat, u, edge, classes, land):
+    """How far the plume formula gives some component more than its saturated
+    fraction over the pool (the zone where the centreline is capped); None where
+    it does nowhere beyond the pool edge. [m]"""
+    from .outdoor import centerline_concentration
+
+    capped_until = None
+    shape_edge = float(centerline_concentration(1.0, u, edge, classes, land))
+    for j in range(len(volume_rates)):
+        if volume_rates[j] * shape_edge > y_sat[j] > 0:
+            def over(log_x, j=j):
+                return math.log(float(centerline_concentration(1.0, u, math.exp(log_x), classes, land))
+                                * volume_rates[j] / y_sat[j])
+            from scipy.optimize import brentq
+
+            xj = math.exp(brentq(over, math.log(edge), math.log(MAX_OUTDOOR_DISTANCE),
+                                 xtol=1e-10, maxiter=200))
+            capped_until = xj if capped_until is None else max(capped_until, xj)
+    return capped_until
+
+
+def _cap_note(capped_until, y_sat) -> str:
+    """The note on the capped zone near the pool."""
+    return (f"the plume formula gives more vapour than the pool can saturate the air with "
+            f"out to about {capped_until:,.0f} m: there the centreline is capped at the "
+            f"saturated vapour concentration over the pool ({1e6 * y_sat.sum():,.0f} ppm of "
+            "vapour in all, each component at its Raoult partial pressure); the real plume "
+            "near the pool is not resolved by this point-source model")
+
+
+def _lfl_distances(run: OutdoorSpill, alarm, notes: list):
+    """Distances to the LFL and to the LFL alarm, None (with a note) when no
+    component has an LFL on record."""
+    if np.any(np.isfinite(run.lower_flammability_limits)):
+        d_lfl, _ = run.distance_above(1.0)
+        d_alarm, _ = run.distance_above(alarm / 100.0)
+        return d_lfl, d_alarm
+    notes.append("no component has a lower flammability limit on record: the distances "
+                 "to the LFL are not judged")
+    return None, None
+
+
 def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
                   terrain="open", spilled_volume=None, area=None, dike_area=None,
                   depth=UNDIKED_SPILL_DEPTH, model="mackay-matsugu",
@@ -576,21 +716,11 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     OutdoorSpill
     """
     from .evaporation import mixture_evaporation_rates
-    from .outdoor import centerline_concentration, pasquill_classes, terrain_key, pool_source_criterion
-    from .outdoor import screening_validity
-    from .vapor import component_vapor_pressure_estimates
+    from .outdoor import pasquill_classes, screening_validity, terrain_key
 
     liq = make_liquid(liquid, basis, activity_coefficients)
-    alarm = positive(lfl_alarm_percent, "LFL alarm", "% of the LFL")
-    if alarm > 100.0:
-        raise InputError("LFL alarm", f"{alarm:g} % is above 100 % of the LFL; give the "
-                         "alarm as a percentage of the LFL, such as 10")
-    if area is None:
-        if spilled_volume is None:
-            raise InputError("pool area", "give the pool area or the spilled volume")
-        area = spill_pool_area(positive(spilled_volume, "spilled volume", "m3"),
-                               dike_area, depth)
-    area = positive(area, "pool area", "m2")
+    alarm = _lfl_alarm_percent(lfl_alarm_percent)
+    area = _outdoor_pool_area(area, spilled_volume, dike_area, depth)
     t = float(temperature)
     rates = mixture_evaporation_rates(liq.components, liq.mole_fractions, temperature, area,
                                       wind_speed, liq.activity_coefficients, model, pressure)
@@ -602,32 +732,12 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     u = float(wind_speed)
     molar_volume = GAS_CONSTANT * t / float(pressure)
     volume_rates = g / liq.molar_masses * molar_volume
-    estimates = component_vapor_pressure_estimates(liq.components, t, "temperature")
-    p_sat = np.array([float(e.pressure) for e in estimates])
-    gamma = np.asarray(liq.activity_coefficients_at(t), dtype=float).reshape(-1)
-    y_sat = np.minimum(liq.mole_fractions * gamma * p_sat / float(pressure), 1.0)
+    y_sat = _saturation_fractions(liq, t, pressure)
     edge = max(1.0, math.sqrt(area / math.pi))
     lfl = np.array([c.lower_flammability_limit or np.nan for c in liq.components], dtype=float)
     notes = []
-    dense = None
-    if g.sum() > 0 and y_sat.sum() > 0:
-        mean_molar_mass = float(np.sum(y_sat * liq.molar_masses) / np.sum(y_sat))
-        dense = pool_source_criterion(float(np.sum(g / liq.molar_masses)),
-                                      float(min(y_sat.sum(), 1.0)), mean_molar_mass, t,
-                                      float(pressure), u)
-    # where the cap applies
-    capped_until = None
-    shape_edge = float(centerline_concentration(1.0, u, edge, classes, land))
-    for j in range(len(g)):
-        if volume_rates[j] * shape_edge > y_sat[j] > 0:
-            def over(log_x, j=j):
-                return math.log(float(centerline_concentration(1.0, u, math.exp(log_x), classes, land))
-                                * volume_rates[j] / y_sat[j])
-            from scipy.optimize import brentq
-
-            xj = math.exp(brentq(over, math.log(edge), math.log(MAX_OUTDOOR_DISTANCE),
-                                 xtol=1e-10, maxiter=200))
-            capped_until = xj if capped_until is None else max(capped_until, xj)
+    dense = _pool_dense_gas(g, y_sat, liq.molar_masses, t, pressure, u)
+    capped_until = _capped_until(volume_rates, y_sat, u, edge, classes, land)
     run = OutdoorSpill(liq.names, g, x, np.zeros((x.size, g.size)), np.zeros((x.size, g.size)),
                        str(stability), terrain, u, (), float(area), edge, volume_rates, y_sat,
                        capped_until, lfl, None, alarm, None, None, (), (), dense)
@@ -635,19 +745,8 @@ def outdoor_spill(liquid, temperature, distances, *, wind_speed, stability,
     conc = y * liq.molar_masses[None, :] / molar_volume
     percent = 100.0 * run.fraction_of_lfl(x)
     if capped_until is not None:
-        notes.append(
-            f"the plume formula gives more vapour than the pool can saturate the air with "
-            f"out to about {capped_until:,.0f} m: there the centreline is capped at the "
-            f"saturated vapour concentration over the pool ({1e6 * y_sat.sum():,.0f} ppm of "
-            "vapour in all, each component at its Raoult partial pressure); the real plume "
-            "near the pool is not resolved by this point-source model")
-    d_lfl = d_alarm = None
-    if np.any(np.isfinite(lfl)):
-        d_lfl, _ = run.distance_above(1.0)
-        d_alarm, _ = run.distance_above(alarm / 100.0)
-    else:
-        notes.append("no component has a lower flammability limit on record: the distances "
-                     "to the LFL are not judged")
+        notes.append(_cap_note(capped_until, y_sat))
+    d_lfl, d_alarm = _lfl_distances(run, alarm, notes)
     notes += list(screening_validity(u, x, dense))
     if dense is not None and not dense.dense:
         notes.append(dense.statement)

@@ -167,10 +167,8 @@ def air_kinematic_viscosity(temperature, pressure=STANDARD_ATMOSPHERE):
 
     Parameters
     ----------
-    temperature : float or array_like
-        Air temperature. [K]
-    pressure : float or array_like
-        Air pressure, 101325 Pa by default. [Pa]
+    temperature, pressure : float or array_like
+        As for `air_density`. [K], [Pa]
 
     Returns
     -------

@@ -296,6 +296,117 @@ def _pool_events(m0, t_floor, t_ceiling):
     return [gone, freezing, boiling]
 
 
+def _checked_scalars(ambient_temperature, initial_mass, area, wind_speed,
+                     liquid_heat_capacity, pressure, initial_temperature,
+                     ground_temperature, solar_flux):
+    """The single numbers of the heat balance, checked: air temperature [K], initial
+    mass [kg], area [m2], wind speed [m/s], heat capacity [J/(kg K)], pressure [Pa],
+    initial and ground temperatures [K] (ambient by default), solar flux [W/m2]."""
+    t_air = single(positive_array(ambient_temperature, "ambient_temperature", "K"),
+                    "ambient_temperature")
+    m0 = single(positive_array(initial_mass, "initial_mass", "kg"), "initial_mass")
+    a = single(positive_array(area, "area", "m2"), "area")
+    u = single(check_wind_speed(wind_speed), "wind_speed")
+    cp = single(positive_array(liquid_heat_capacity, "liquid_heat_capacity", "J/(kg K)"),
+                 "liquid_heat_capacity")
+    p = single(positive_array(pressure, "pressure", "Pa"), "pressure")
+    t0 = t_air if initial_temperature is None else single(
+        positive_array(initial_temperature, "initial_temperature", "K"), "initial_temperature")
+    t_ground = t_air if ground_temperature is None else single(
+        positive_array(ground_temperature, "ground_temperature", "K"), "ground_temperature")
+    solar = single(positive_array(solar_flux, "solar_flux", "W/m2", allow_zero=True), "solar_flux")
+    return t_air, m0, a, u, cp, p, t0, t_ground, solar
+
+
+def _transfer_coefficients(sub, t_air, a, u, p, model, air_convection, notes):
+    """The mass-transfer coefficient [m/s] and the Chilton-Colburn heat-transfer
+    coefficient [W/(m2 K)] (0 without air convection), at the ambient temperature."""
+    volume, note = diffusion_volume_of(sub, "substance")
+    if note:
+        notes.append(note)
+    sc = float(air_kinematic_viscosity(t_air, p)) / float(
+        fuller_diffusivity(t_air, p, sub.molar_mass, volume))
+    k, _, _, _, _ = pool_mass_transfer(sub, np.asarray(t_air), np.asarray(a), np.asarray(u), p,
+                                   model, "substance")
+    k = float(k)
+    h = float(chilton_colburn_heat_transfer_coefficient(k, sc, t_air, p)) \
+        if air_convection else 0.0
+    return k, h
+
+
+def _rate_function(sub, correlation, model, k, a, u, bounds):
+    """The evaporation rate [kg/s] as a function of the pool temperature [K], the
+    temperature held inside ``bounds`` (just above melting, just below boiling)."""
+    t_floor, t_ceiling = bounds
+
+    def rate_at(temperature):
+        temperature = min(max(temperature, t_floor), t_ceiling)
+        p_sat = float(correlation(temperature))
+        if model == "mackay-matsugu":
+            return k * a * p_sat * sub.molar_mass / (GAS_CONSTANT * temperature)
+        return float(epa_rmp_rate(sub.molar_mass, p_sat, a, u, temperature))
+
+    return rate_at
+
+
+def _balance_equations(rate_at, latent, bounds, budget, ground_factor, t_ground,
+                       air_conductance, t_air, solar_power, cp, t0, m0):
+    """Right-hand side of the heat balance in s = sqrt(t): state T, m, and the heat
+    from the ground, air, sun, to evaporation and carried away as sensible heat [J]."""
+    t_floor, t_ceiling = bounds
+
+    def rhs(s, y):
+        budget.tick()
+        temperature, mass = y[0], max(y[1], 0.0)
+        evaporation = rate_at(temperature) if mass > 0.0 else 0.0
+        q_ground = ground_factor * (t_ground - temperature)  # J per unit of s
+        q_air = air_conductance * (t_air - temperature)
+        q_solar = solar_power
+        q_latent = evaporation * latent(min(max(temperature, t_floor), t_ceiling))
+        carried = evaporation * cp * (temperature - t0)
+        heat = q_ground + 2.0 * s * (q_air + q_solar - q_latent)
+        d_temperature = heat / (max(mass, DEPLETED_FRACTION * m0) * cp)
+        return np.array([d_temperature, -2.0 * s * evaporation, q_ground,
+                         2.0 * s * q_air, 2.0 * s * q_solar, 2.0 * s * q_latent,
+                         2.0 * s * carried])
+
+    return rhs
+
+
+def _balance_history(solution, n_times, name, notes):
+    """Temperature [K] (NaN after the pool is gone) and mass [kg] at the output
+    times, and when the pool was gone [s]; notes on a run stopped at melting or
+    boiling."""
+    if len(solution.t_events[1]):
+        notes.append(f"{name}: the pool cooled to its melting point; the calculation "
+                     "stopped there (freezing is not modelled)")
+    if len(solution.t_events[2]):
+        notes.append(f"{name}: the pool heated to its boiling point; the calculation "
+                     "stopped there (boiling is not modelled)")
+    done = solution.y.shape[1]
+    y = solution.y
+    temperature = np.full(n_times, np.nan)
+    mass = np.full(n_times, np.nan)
+    temperature[:done] = y[0]
+    mass[:done] = np.clip(y[1], 0.0, None)
+    depletion = float(solution.t_events[0][0]) ** 2 if len(solution.t_events[0]) else math.inf
+    if math.isfinite(depletion):
+        mass[done:] = 0.0
+        temperature[done:] = np.nan
+        notes.append("after the pool is gone its temperature is reported as NaN")
+    return temperature, mass, depletion
+
+
+def _energy_balance_error(final, cp, t0) -> float:
+    """Relative gap between the pool's sensible heat at the end of the integration
+    and the net heat integrated into it. [-]"""
+    sensible = max(final[1], 0.0) * cp * (final[0] - t0)
+    net = final[2] + final[3] + final[4] - final[5] - final[6]
+    largest = max(abs(final[2]), abs(final[3]), abs(final[4]), abs(final[5]), abs(sensible),
+                  1e-30)
+    return abs(sensible - net) / largest
+
+
 def pool_temperature_balance(substance, ambient_temperature, initial_mass, area, wind_speed,
                              liquid_heat_capacity, *, initial_temperature=None,
                              ground="concrete", ground_temperature=None, solar_flux=0.0,
@@ -382,19 +493,9 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
     if ground not in GROUND_TYPES:
         raise ValueError(f"unknown ground {ground!r}; expected one of {list(GROUND_TYPES)}")
     sub = as_substance(substance, "substance")
-    t_air = single(positive_array(ambient_temperature, "ambient_temperature", "K"),
-                    "ambient_temperature")
-    m0 = single(positive_array(initial_mass, "initial_mass", "kg"), "initial_mass")
-    a = single(positive_array(area, "area", "m2"), "area")
-    u = single(check_wind_speed(wind_speed), "wind_speed")
-    cp = single(positive_array(liquid_heat_capacity, "liquid_heat_capacity", "J/(kg K)"),
-                 "liquid_heat_capacity")
-    p = single(positive_array(pressure, "pressure", "Pa"), "pressure")
-    t0 = t_air if initial_temperature is None else single(
-        positive_array(initial_temperature, "initial_temperature", "K"), "initial_temperature")
-    t_ground = t_air if ground_temperature is None else single(
-        positive_array(ground_temperature, "ground_temperature", "K"), "ground_temperature")
-    solar = single(positive_array(solar_flux, "solar_flux", "W/m2", allow_zero=True), "solar_flux")
+    t_air, m0, a, u, cp, p, t0, t_ground, solar = _checked_scalars(
+        ambient_temperature, initial_mass, area, wind_speed, liquid_heat_capacity, pressure,
+        initial_temperature, ground_temperature, solar_flux)
     boiling_check(sub, np.asarray(max(t0, t_air)), None, p, "initial_temperature"
                    if t0 > t_air else "ambient_temperature")
 
@@ -404,17 +505,7 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
     correlation = next(c for c in sub.correlations if c.method == method)
     boiling_check(sub, np.asarray(t_air), ambient.pressure, p, "ambient_temperature")
 
-    # transfer coefficients at the ambient temperature
-    volume, note = diffusion_volume_of(sub, "substance")
-    if note:
-        notes.append(note)
-    sc = float(air_kinematic_viscosity(t_air, p)) / float(
-        fuller_diffusivity(t_air, p, sub.molar_mass, volume))
-    k, _, _, _, _ = pool_mass_transfer(sub, np.asarray(t_air), np.asarray(a), np.asarray(u), p,
-                                   model, "substance")
-    k = float(k)
-    h = float(chilton_colburn_heat_transfer_coefficient(k, sc, t_air, p)) \
-        if air_convection else 0.0
+    k, h = _transfer_coefficients(sub, t_air, a, u, p, model, air_convection, notes)
     conductivity, diffusivity = GROUND_TYPES[ground]
     ground_factor = 2.0 * conductivity * a / math.sqrt(math.pi * diffusivity)
 
@@ -422,34 +513,12 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
 
     t_floor = (sub.melting_point if sub.melting_point is not None else 0.5 * t_air) + 0.01
     t_ceiling = sub.boiling_point - 0.01
-
-    def rate_at(temperature):
-        temperature = min(max(temperature, t_floor), t_ceiling)
-        p_sat = float(correlation(temperature))
-        if model == "mackay-matsugu":
-            return k * a * p_sat * sub.molar_mass / (GAS_CONSTANT * temperature)
-        return float(epa_rmp_rate(sub.molar_mass, p_sat, a, u, temperature))
-
+    rate_at = _rate_function(sub, correlation, model, k, a, u, (t_floor, t_ceiling))
     t_out, t_end = _output_times(times, t_end, rate_at, t_air, m0)
 
     budget = StepBudget(int(max_evaluations), float(time_limit))
-
-    # state in s = sqrt(t): T, m, ground, air, solar, latent, carried sensible [J]
-    def rhs(s, y):
-        budget.tick()
-        temperature, mass = y[0], max(y[1], 0.0)
-        evaporation = rate_at(temperature) if mass > 0.0 else 0.0
-        q_ground = ground_factor * (t_ground - temperature)  # J per unit of s
-        q_air = h * a * (t_air - temperature)
-        q_solar = solar * a
-        q_latent = evaporation * latent(min(max(temperature, t_floor), t_ceiling))
-        carried = evaporation * cp * (temperature - t0)
-        heat = q_ground + 2.0 * s * (q_air + q_solar - q_latent)
-        d_temperature = heat / (max(mass, DEPLETED_FRACTION * m0) * cp)
-        return np.array([d_temperature, -2.0 * s * evaporation, q_ground,
-                         2.0 * s * q_air, 2.0 * s * q_solar, 2.0 * s * q_latent,
-                         2.0 * s * carried])
-
+    rhs = _balance_equations(rate_at, latent, (t_floor, t_ceiling), budget, ground_factor,
+                             t_ground, h * a, t_air, solar * a, cp, t0, m0)
     s_out = np.sqrt(t_out)
     y0 = np.array([t0, m0, 0.0, 0.0, 0.0, 0.0, 0.0])
     solution = solve_ivp(rhs, (0.0, math.sqrt(t_end)), y0, method="LSODA", t_eval=s_out,
@@ -457,37 +526,14 @@ def pool_temperature_balance(substance, ambient_temperature, initial_mass, area,
                          atol=np.array([1e-8, 1e-12 * m0, 1e-6, 1e-6, 1e-6, 1e-6, 1e-6]))
     if solution.status < 0:
         raise EvaporationSolverError(f"the pool energy balance failed: {solution.message}")
-    if len(solution.t_events[1]):
-        notes.append(f"{sub.name}: the pool cooled to its melting point; the calculation "
-                     "stopped there (freezing is not modelled)")
-    if len(solution.t_events[2]):
-        notes.append(f"{sub.name}: the pool heated to its boiling point; the calculation "
-                     "stopped there (boiling is not modelled)")
-    done = solution.y.shape[1]
-    y = solution.y
-    n_times = t_out.size
-    temperature = np.full(n_times, np.nan)
-    mass = np.full(n_times, np.nan)
-    temperature[:done] = y[0]
-    mass[:done] = np.clip(y[1], 0.0, None)
-    depletion = float(solution.t_events[0][0]) ** 2 if len(solution.t_events[0]) else math.inf
-    if math.isfinite(depletion):
-        mass[done:] = 0.0
-        temperature[done:] = np.nan
-        notes.append("after the pool is gone its temperature is reported as NaN")
+    temperature, mass, depletion = _balance_history(solution, t_out.size, sub.name, notes)
     evaporation, ground_flow, air_flow, solar_flow, latent_flow = _heat_flows(
         temperature, mass, t_out, rate_at, latent, (t_floor, t_ceiling), ground_factor,
         t_ground, h * a, t_air, solar * a, ground == "insulated")
+    y = solution.y
+    balance = _energy_balance_error(y[:, -1], cp, t0)
 
-    # energy check at the end of the integration
-    final = y[:, -1]
-    sensible = max(final[1], 0.0) * cp * (final[0] - t0)
-    net = final[2] + final[3] + final[4] - final[5] - final[6]
-    largest = max(abs(final[2]), abs(final[3]), abs(final[4]), abs(final[5]), abs(sensible),
-                  1e-30)
-    balance = abs(sensible - net) / largest
-
-    if done > 0:
+    if y.shape[1] > 0:
         estimate = vapor_pressure_estimate(sub, np.clip(y[0], t_floor, t_ceiling),
                                            method=method, field="ambient_temperature")
         notes += list(estimate.warnings)

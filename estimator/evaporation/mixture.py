@@ -262,6 +262,139 @@ class StepBudget:
                 f"the integration ran longer than {self.time_limit:g} s; shorten t_end")
 
 
+def _initial_moles(initial_amounts, amount_basis, molar_mass) -> np.ndarray:
+    """Initial moles of each component from amounts in kg or mol (zeros allowed,
+    not all zero). [mol]"""
+    n_comp = molar_mass.size
+    unit = "kg" if amount_basis == "mass" else "mol"
+    amounts = positive_array(initial_amounts, "initial_amounts", unit, allow_zero=True).ravel()
+    if amounts.size != n_comp:
+        raise InputError("initial_amounts", f"got {amounts.size} amounts for {n_comp} "
+                         "components; give one per component")
+    if amounts.sum() <= 0.0:
+        raise InputError("initial_amounts", "all amounts are zero; give at least one "
+                         "positive amount")
+    return amounts / molar_mass if amount_basis == "mass" else amounts.copy()
+
+
+def _initial_activity(activity_coefficients, x0):
+    """γ as a function of the mole fractions, whether it is constant, and its
+    checked values at the initial composition."""
+    n_comp = x0.size
+    gamma_of, gamma_constant = activity_function(activity_coefficients, n_comp)
+    gamma0 = gamma_of(x0)
+    if gamma0.shape != (n_comp,) or np.any(~np.isfinite(gamma0)) or np.any(gamma0 <= 0):
+        raise InputError("activity_coefficients", "must give one positive, finite "
+                         "activity coefficient per component")
+    return gamma_of, gamma_constant, gamma0
+
+
+def _weathering_times(t_end, times):
+    """Output times [s] (one a minute by default) and the end of the integration [s]."""
+    if t_end is not None:
+        t_end = single(positive_array(t_end, "t_end", "s"), "t_end")
+    if times is None:
+        t_end = EIGHT_HOUR_SHIFT if t_end is None else t_end
+        t_out = np.linspace(0.0, t_end, int(round(t_end / SECONDS_PER_MINUTE)) + 1)
+        if t_out.size < 2:
+            t_out = np.array([0.0, t_end])
+        return t_out, t_end
+    t_out = check_times(times)
+    if t_end is None:
+        t_end = float(t_out[-1])
+    if t_out[-1] > t_end:
+        raise InputError("times", f"the last output time {t_out[-1]:g} s lies after "
+                         f"t_end = {t_end:g} s")
+    if t_end <= 0.0:
+        raise InputError("times", "need an output time after zero")
+    return t_out, t_end
+
+
+def _weathering_equations(gamma_of, gamma0, gamma_constant, surface, p_air,
+                          molar_per_pascal, budget):
+    """The driving force of each component (``drive``), the right-hand side of the
+    pool moles and the moles evaporated (``rhs``), and its Jacobian when γ is
+    constant (``jac``, else None)."""
+    n_comp = surface.size
+
+    def drive(n):
+        """Driving force [Pa] for amounts n of shape (n_comp,) or (n_comp, m)."""
+        positive = np.clip(n, 0.0, None)
+        total = positive.sum(axis=0)
+        safe = np.where(total > 0.0, total, 1.0)
+        x = np.where(total > 0.0, positive / safe, 0.0)
+        return np.clip(x * gamma_of(x) * (surface if n.ndim == 1 else surface[:, None])
+                       - (p_air if n.ndim == 1 else p_air[:, None]), 0.0, None), x
+
+    def rhs(_t, y):
+        budget.tick()
+        d, _ = drive(y[:n_comp])
+        dn = -molar_per_pascal * d
+        return np.concatenate((dn, -dn))
+
+    if not gamma_constant:
+        return drive, rhs, None
+    g = gamma0 * surface
+
+    def jac(_t, y):
+        n = np.clip(y[:n_comp], 0.0, None)
+        total = n.sum()
+        out = np.zeros((2 * n_comp, 2 * n_comp))
+        if total <= 0.0:
+            return out
+        x = n / total
+        active = (x * g - p_air) > 0.0
+        block = -(molar_per_pascal * g * active)[:, None] * (
+            np.eye(n_comp) - x[:, None]) / total
+        out[:n_comp, :n_comp] = block
+        out[n_comp:, :n_comp] = -block
+        return out
+
+    return drive, rhs, jac
+
+
+def _depletion_events(n0, present):
+    """One event per component present as it falls to `DEPLETED_FRACTION` of its
+    initial amount, then a terminal one when every component has."""
+    limits = DEPLETED_FRACTION * n0
+
+    def make_event(i):
+        def event(_t, y):
+            return y[i] - limits[i]
+        event.terminal = False
+        event.direction = -1
+        return event
+
+    events = [make_event(i) for i in present]
+
+    def all_gone(_t, y):
+        return float(np.max(y[present] - limits[present]))
+    all_gone.terminal = True
+    all_gone.direction = -1
+    events.append(all_gone)
+    return events
+
+
+def _weathering_history(solution, n0, present, n_times):
+    """Moles left and evaporated at the output times (the pool empty after the run
+    stopped), when the pool was gone [s], and when each component was. [s]"""
+    n_comp = n0.size
+    done = solution.y.shape[1]
+    moles = np.zeros((n_times, n_comp))
+    evaporated = np.tile(n0, (n_times, 1))
+    moles[:done] = solution.y[:n_comp].T
+    evaporated[:done] = solution.y[n_comp:].T
+    moles = np.clip(moles, 0.0, None)
+
+    gone_events = solution.t_events[-1]
+    pool_gone = float(gone_events[0]) if len(gone_events) else math.inf
+    depletion = np.zeros(n_comp)
+    for j, i in enumerate(present):
+        hits = solution.t_events[j]
+        depletion[i] = float(hits[0]) if len(hits) else pool_gone
+    return moles, evaporated, pool_gone, depletion
+
+
 def mixture_pool(components, initial_amounts, temperature, area, wind_speed,
                  activity_coefficients=None, t_end=None, times=None, *,
                  amount_basis="mass", model="mackay-matsugu", pressure=STANDARD_ATMOSPHERE,
@@ -338,122 +471,31 @@ def mixture_pool(components, initial_amounts, temperature, area, wind_speed,
         components, temperature, area, wind_speed, model, pressure, partial_pressures_air)
     n_comp = len(subs)
     molar_mass = np.array([s.molar_mass for s in subs])
-    unit = "kg" if amount_basis == "mass" else "mol"
-    amounts = positive_array(initial_amounts, "initial_amounts", unit, allow_zero=True).ravel()
-    if amounts.size != n_comp:
-        raise InputError("initial_amounts", f"got {amounts.size} amounts for {n_comp} "
-                         "components; give one per component")
-    if amounts.sum() <= 0.0:
-        raise InputError("initial_amounts", "all amounts are zero; give at least one "
-                         "positive amount")
-    n0 = amounts / molar_mass if amount_basis == "mass" else amounts.copy()
-    gamma_of, gamma_constant = activity_function(activity_coefficients, n_comp)
+    n0 = _initial_moles(initial_amounts, amount_basis, molar_mass)
     x0 = n0 / n0.sum()
-    gamma0 = gamma_of(x0)
-    if gamma0.shape != (n_comp,) or np.any(~np.isfinite(gamma0)) or np.any(gamma0 <= 0):
-        raise InputError("activity_coefficients", "must give one positive, finite "
-                         "activity coefficient per component")
+    gamma_of, gamma_constant, gamma0 = _initial_activity(activity_coefficients, x0)
     bubble_check(x0, gamma0, p_sat, p, notes)
     no_drive = (x0 * gamma0 * p_sat <= p_air) & (n0 > 0)
     for i in np.flatnonzero(no_drive):
         notes.append(f"{subs[i].name}: its partial pressure in the air is at or above its "
                      "surface partial pressure, so it does not evaporate (condensation is "
                      "not modelled)")
-
-    # output grid
-    if t_end is not None:
-        t_end = single(positive_array(t_end, "t_end", "s"), "t_end")
-    if times is None:
-        t_end = EIGHT_HOUR_SHIFT if t_end is None else t_end
-        t_out = np.linspace(0.0, t_end, int(round(t_end / SECONDS_PER_MINUTE)) + 1)
-        if t_out.size < 2:
-            t_out = np.array([0.0, t_end])
-    else:
-        t_out = check_times(times)
-        if t_end is None:
-            t_end = float(t_out[-1])
-        if t_out[-1] > t_end:
-            raise InputError("times", f"the last output time {t_out[-1]:g} s lies after "
-                             f"t_end = {t_end:g} s")
-        if t_end <= 0.0:
-            raise InputError("times", "need an output time after zero")
+    t_out, t_end = _weathering_times(t_end, times)
 
     molar_per_pascal = per_pascal / molar_mass  # mol/(s Pa)
-    surface = p_sat.copy()
     budget = StepBudget(int(max_evaluations), float(time_limit))
-
-    def drive(n):
-        """Driving force [Pa] for amounts n of shape (n_comp,) or (n_comp, m)."""
-        positive = np.clip(n, 0.0, None)
-        total = positive.sum(axis=0)
-        safe = np.where(total > 0.0, total, 1.0)
-        x = np.where(total > 0.0, positive / safe, 0.0)
-        return np.clip(x * gamma_of(x) * (surface if n.ndim == 1 else surface[:, None])
-                       - (p_air if n.ndim == 1 else p_air[:, None]), 0.0, None), x
-
-    def rhs(_t, y):
-        budget.tick()
-        d, _ = drive(y[:n_comp])
-        dn = -molar_per_pascal * d
-        return np.concatenate((dn, -dn))
-
-    jac = None
-    if gamma_constant:
-        g = gamma0 * surface
-
-        def jac(_t, y):
-            n = np.clip(y[:n_comp], 0.0, None)
-            total = n.sum()
-            out = np.zeros((2 * n_comp, 2 * n_comp))
-            if total <= 0.0:
-                return out
-            x = n / total
-            active = (x * g - p_air) > 0.0
-            block = -(molar_per_pascal * g * active)[:, None] * (
-                np.eye(n_comp) - x[:, None]) / total
-            out[:n_comp, :n_comp] = block
-            out[n_comp:, :n_comp] = -block
-            return out
-
+    drive, rhs, jac = _weathering_equations(gamma_of, gamma0, gamma_constant, p_sat.copy(),
+                                            p_air, molar_per_pascal, budget)
     present = np.flatnonzero(n0 > 0.0)
-    limits = DEPLETED_FRACTION * n0
-
-    def make_event(i):
-        def event(_t, y):
-            return y[i] - limits[i]
-        event.terminal = False
-        event.direction = -1
-        return event
-
-    events = [make_event(i) for i in present]
-
-    def all_gone(_t, y):
-        return float(np.max(y[present] - limits[present]))
-    all_gone.terminal = True
-    all_gone.direction = -1
-    events.append(all_gone)
-
     y0 = np.concatenate((n0, np.zeros(n_comp)))
     scale = float(n0.sum())
     solution = solve_ivp(rhs, (0.0, t_end), y0, method="LSODA", t_eval=t_out,
-                         events=events, rtol=1e-8, atol=1e-13 * scale, jac=jac)
+                         events=_depletion_events(n0, present), rtol=1e-8,
+                         atol=1e-13 * scale, jac=jac)
     if solution.status < 0:
         raise EvaporationSolverError(f"the mixture integration failed: {solution.message}")
-
-    n_times = t_out.size
-    done = solution.y.shape[1]
-    moles = np.zeros((n_times, n_comp))
-    evaporated = np.tile(n0, (n_times, 1))
-    moles[:done] = solution.y[:n_comp].T
-    evaporated[:done] = solution.y[n_comp:].T
-    moles = np.clip(moles, 0.0, None)
-
-    gone_events = solution.t_events[-1]
-    pool_gone = float(gone_events[0]) if len(gone_events) else math.inf
-    depletion = np.zeros(n_comp)
-    for j, i in enumerate(present):
-        hits = solution.t_events[j]
-        depletion[i] = float(hits[0]) if len(hits) else pool_gone
+    moles, evaporated, pool_gone, depletion = _weathering_history(solution, n0, present,
+                                                                  t_out.size)
 
     d, x = drive(moles.T)
     rates = (per_pascal[:, None] * d).T
