@@ -437,7 +437,38 @@ def apply_scenario(state, scenario, source: str) -> list[str]:
     state["case.base"] = _plain(doc)
     state["case.source"] = source
     state[key("title")] = scenario.title
-    cond = doc.get("conditions", {})
+    _apply_site_and_alarms(state, scenario)
+    studies = {"tank": False, "indoor": False, "outdoor": False}
+    if scenario.tanks:
+        studies["tank"] = True
+        _apply_tank(state, scenario)
+        if len(scenario.tanks) > 1:
+            notes.append(f"{len(scenario.tanks)} tanks in the file: the first is on the "
+                         "tank page; the others are kept in the saved file.")
+    indoor = [s for s in scenario.spills if s.get("room")]
+    if indoor:
+        studies["indoor"] = True
+        _apply_indoor(state, indoor[0], scenario)
+    outdoor = [s for s in scenario.spills if not s.get("room")]
+    if outdoor:
+        studies["outdoor"] = True
+        _apply_outdoor(state, outdoor[0], scenario)
+    state["case.studies"] = studies
+    state["case.base_si"] = _base_si(scenario, indoor, outdoor)
+    notes += _set_uncertain(state, scenario)
+    rows = [(_limit_name(lim, scenario), lim.kind, float(lim.value), lim.unit, lim.source)
+            for lim in scenario.limits]
+    state[table_key("limits")] = pd.DataFrame(rows, columns=LIMIT_COLUMNS).astype(
+        {"value": "float"}) if rows else empty_limits()
+    spills = len(scenario.spills) - len(indoor[:1]) - len(outdoor[:1])
+    if spills > 0:
+        notes.append(f"{spills} further spill(s) in the file are kept in the saved file.")
+    return notes
+
+
+def _apply_site_and_alarms(state, scenario) -> None:
+    """The site pressure (barometric or by elevation) and the alarm levels."""
+    cond = scenario.document.get("conditions", {})
     if "barometric_pressure" in cond:
         state[key("site.mode")] = "barometric"
         _set(state, "site.barometric", scenario.pressure)
@@ -451,80 +482,68 @@ def apply_scenario(state, scenario, source: str) -> list[str]:
     state[key("alarm.oxygen_low")] = float(alarms.oxygen_low)
     state[key("alarm.oxygen_high")] = float(alarms.oxygen_high)
     state[key("alarm.source")] = alarms.source
-    studies = {"tank": False, "indoor": False, "outdoor": False}
-    if scenario.tanks:
-        tank = scenario.tanks[0]
-        studies["tank"] = True
-        state[key("tank.name")] = tank["name"]
-        _set_liquid(state, "tank", scenario.liquids[tank["liquid"]], scenario)
-        for name, field in (("tank.temperature", "temperature"), ("tank.worst", "worst_temperature"),
-                            ("tank.volume", "volume"), ("tank.gauge", "gauge_pressure"),
-                            ("tank.daily_low", "daily_low"), ("tank.daily_high", "daily_high"),
-                            ("tank.pumped", "pumped_volume"), ("tank.purge_rate", "purge_rate"),
-                            ("tank.purge_target", "purge_target")):
-            _set(state, name, tank.get(field))
-        if tank.get("fill") is not None:
-            _set(state, "tank.fill", tank["fill"])
-        state[key("tank.purge_mixing")] = float(tank.get("purge_mixing_factor", 1.0))
-        state[key("tank.details")] = any(tank.get(k) is not None for k in (
-            "daily_low", "pumped_volume", "purge_rate"))
-        if len(scenario.tanks) > 1:
-            notes.append(f"{len(scenario.tanks)} tanks in the file: the first is on the "
-                         "tank page; the others are kept in the saved file.")
-    indoor = [s for s in scenario.spills if s.get("room")]
-    if indoor:
-        spill = indoor[0]
-        studies["indoor"] = True
-        room = next(r for r in scenario.rooms if r["name"] == spill["room"])
-        _set_spill(state, "indoor", spill, scenario)
-        state[key("indoor.duration")] = to_display(spill["duration"], "minutes", "SI")
-        if spill.get("cleanup_after") is not None:
-            state[key("indoor.cleanup")] = to_display(spill["cleanup_after"], "minutes", "SI")
-        if spill.get("mass") is not None:
-            state[key("indoor.amount_kind")] = "mass"
-            _set(state, "indoor.mass", spill["mass"])
-        state[key("room.name")] = room["name"]
-        _set(state, "room.volume", room["volume"])
-        _set(state, "room.air_changes", room["ventilation_rate"] / room["volume"])
-        state[key("room.mixing")] = float(room["mixing_factor"])
-        _set(state, "room.air_speed", room["air_speed"])
-        _set(state, "room.near_field_radius", room.get("near_field_radius"))
-        _set(state, "room.random_air_speed", room.get("random_air_speed"))
-    outdoor = [s for s in scenario.spills if not s.get("room")]
-    if outdoor:
-        spill = outdoor[0]
-        studies["outdoor"] = True
-        _set_spill(state, "outdoor", spill, scenario)
-        od = scenario.outdoors
-        _set(state, "weather.wind", od["wind_speed"])
-        _set(state, "weather.wind_height", od.get("wind_height", 10.0))
-        if od.get("stability"):
-            state[key("weather.sky")] = "class"
-            state[key("weather.stability")] = od["stability"]
-        elif od.get("daytime", True):
-            state[key("weather.sky")] = "day"
-            state[key("weather.insolation")] = od.get("insolation") or "moderate"
-        else:
-            state[key("weather.sky")] = "night"
-            state[key("weather.cloud")] = float(od.get("cloud_cover", 4.0) or 0.0)
-        state[key("weather.terrain")] = od.get("terrain", "open")
-        units = system(state)
-        written = list(doc.get("outdoors", {}).get("receptors") or [])
-        state[key("weather.receptors")] = ", ".join(
-            str(x) for x in written) if written else ", ".join(
-            f"{to_display(x, 'length', units):g} {UNITS['length'][units][1]}"
-            for x in od["receptors"])
-    state["case.studies"] = studies
-    state["case.base_si"] = _base_si(scenario, indoor, outdoor)
-    notes += _set_uncertain(state, scenario)
-    rows = [(_limit_name(lim, scenario), lim.kind, float(lim.value), lim.unit, lim.source)
-            for lim in scenario.limits]
-    state[table_key("limits")] = pd.DataFrame(rows, columns=LIMIT_COLUMNS).astype(
-        {"value": "float"}) if rows else empty_limits()
-    spills = len(scenario.spills) - len(indoor[:1]) - len(outdoor[:1])
-    if spills > 0:
-        notes.append(f"{spills} further spill(s) in the file are kept in the saved file.")
-    return notes
+
+
+def _apply_tank(state, scenario) -> None:
+    """The first tank onto the tank page."""
+    tank = scenario.tanks[0]
+    state[key("tank.name")] = tank["name"]
+    _set_liquid(state, "tank", scenario.liquids[tank["liquid"]], scenario)
+    for name, field in (("tank.temperature", "temperature"), ("tank.worst", "worst_temperature"),
+                        ("tank.volume", "volume"), ("tank.gauge", "gauge_pressure"),
+                        ("tank.daily_low", "daily_low"), ("tank.daily_high", "daily_high"),
+                        ("tank.pumped", "pumped_volume"), ("tank.purge_rate", "purge_rate"),
+                        ("tank.purge_target", "purge_target")):
+        _set(state, name, tank.get(field))
+    if tank.get("fill") is not None:
+        _set(state, "tank.fill", tank["fill"])
+    state[key("tank.purge_mixing")] = float(tank.get("purge_mixing_factor", 1.0))
+    state[key("tank.details")] = any(tank.get(k) is not None for k in (
+        "daily_low", "pumped_volume", "purge_rate"))
+
+
+def _apply_indoor(state, spill, scenario) -> None:
+    """The first indoor spill and its room onto the indoor page."""
+    room = next(r for r in scenario.rooms if r["name"] == spill["room"])
+    _set_spill(state, "indoor", spill, scenario)
+    state[key("indoor.duration")] = to_display(spill["duration"], "minutes", "SI")
+    if spill.get("cleanup_after") is not None:
+        state[key("indoor.cleanup")] = to_display(spill["cleanup_after"], "minutes", "SI")
+    if spill.get("mass") is not None:
+        state[key("indoor.amount_kind")] = "mass"
+        _set(state, "indoor.mass", spill["mass"])
+    state[key("room.name")] = room["name"]
+    _set(state, "room.volume", room["volume"])
+    _set(state, "room.air_changes", room["ventilation_rate"] / room["volume"])
+    state[key("room.mixing")] = float(room["mixing_factor"])
+    _set(state, "room.air_speed", room["air_speed"])
+    _set(state, "room.near_field_radius", room.get("near_field_radius"))
+    _set(state, "room.random_air_speed", room.get("random_air_speed"))
+
+
+def _apply_outdoor(state, spill, scenario) -> None:
+    """The first outdoor spill and the weather onto the outdoor page; the distances as
+    written in the file."""
+    _set_spill(state, "outdoor", spill, scenario)
+    od = scenario.outdoors
+    _set(state, "weather.wind", od["wind_speed"])
+    _set(state, "weather.wind_height", od.get("wind_height", 10.0))
+    if od.get("stability"):
+        state[key("weather.sky")] = "class"
+        state[key("weather.stability")] = od["stability"]
+    elif od.get("daytime", True):
+        state[key("weather.sky")] = "day"
+        state[key("weather.insolation")] = od.get("insolation") or "moderate"
+    else:
+        state[key("weather.sky")] = "night"
+        state[key("weather.cloud")] = float(od.get("cloud_cover", 4.0) or 0.0)
+    state[key("weather.terrain")] = od.get("terrain", "open")
+    units = system(state)
+    written = list(scenario.document.get("outdoors", {}).get("receptors") or [])
+    state[key("weather.receptors")] = ", ".join(
+        str(x) for x in written) if written else ", ".join(
+        f"{to_display(x, 'length', units):g} {UNITS['length'][units][1]}"
+        for x in od["receptors"])
 
 
 def _base_si(scenario, indoor, outdoor) -> dict:
@@ -1283,17 +1302,7 @@ def full_document(state, studies=None, limits=None) -> dict:
     if base.get("shift"):
         doc["shift"] = dict(base["shift"])
     chosen = [s for s in ("tank", "indoor", "outdoor") if include.get(s)]
-    liquids, names = [], {}
-    for s in chosen:
-        item, _ = liquid_item(state, s)
-        same = next((x for x in liquids if x == item), None)
-        if same is None:
-            taken = {x["name"].lower() for x in liquids}
-            if item["name"].lower() in taken:
-                item = dict(item, name=f"{item['name']} ({s})")
-            liquids.append(item)
-            same = item
-        names[s] = same["name"]
+    liquids, names = _study_liquids(state, chosen)
     substances = [own_substance(state)] if uses_own_substance(state, chosen) else []
     own = {x["name"].lower() for x in substances}
     substances += [dict(x) for x in base.get("substance", []) if x["name"].lower() not in own]
@@ -1305,21 +1314,7 @@ def full_document(state, studies=None, limits=None) -> dict:
     if "outdoor" in names:
         spills.append(spill_item(state, "outdoor", names["outdoor"]))
     # items of the loaded file beyond the first tank, indoor spill and outdoor spill
-    base_tanks = list(base.get("tank", []))[1:]
-    base_spills = list(base.get("spill", []))
-    first_indoor = next((i for i, s in enumerate(base_spills) if s.get("room")), None)
-    first_outdoor = next((i for i, s in enumerate(base_spills) if not s.get("room")), None)
-    extra_spills = [s for i, s in enumerate(base_spills) if i not in (first_indoor, first_outdoor)]
-    needed = {str(x.get("liquid", "")).lower() for x in base_tanks + extra_spills}
-    needed_rooms = {str(s.get("room", "")).lower() for s in extra_spills if s.get("room")}
-    used_names = {x["name"].lower() for x in liquids}
-    for item in base.get("liquid", []):
-        if item["name"].lower() in needed and item["name"].lower() not in used_names:
-            liquids.append(dict(item))
-    room_names = {r["name"].lower() for r in rooms}
-    for item in base.get("room", []):
-        if item["name"].lower() in needed_rooms and item["name"].lower() not in room_names:
-            rooms.append(dict(item))
+    base_tanks, extra_spills = _carried_items(base, liquids, rooms)
     tanks += [dict(x) for x in base_tanks]
     spills += [dict(x) for x in extra_spills]
     if substances:
@@ -1353,3 +1348,41 @@ def full_document(state, studies=None, limits=None) -> dict:
     if uncertain or base.get("monte_carlo"):
         doc["monte_carlo"] = monte_carlo_table(state)
     return doc
+
+
+def _study_liquids(state, chosen) -> tuple[list[dict], dict]:
+    """The liquids of the studies on screen, one entry for the same liquid, a name of
+    its own for different liquids of the same name; and each study's liquid name."""
+    liquids, names = [], {}
+    for s in chosen:
+        item, _ = liquid_item(state, s)
+        same = next((x for x in liquids if x == item), None)
+        if same is None:
+            taken = {x["name"].lower() for x in liquids}
+            if item["name"].lower() in taken:
+                item = dict(item, name=f"{item['name']} ({s})")
+            liquids.append(item)
+            same = item
+        names[s] = same["name"]
+    return liquids, names
+
+
+def _carried_items(base: dict, liquids: list, rooms: list) -> tuple[list, list]:
+    """The tanks and spills of a loaded file that are not on screen; the liquids and
+    rooms they need are added to `liquids` and `rooms`."""
+    base_tanks = list(base.get("tank", []))[1:]
+    base_spills = list(base.get("spill", []))
+    first_indoor = next((i for i, s in enumerate(base_spills) if s.get("room")), None)
+    first_outdoor = next((i for i, s in enumerate(base_spills) if not s.get("room")), None)
+    extra_spills = [s for i, s in enumerate(base_spills) if i not in (first_indoor, first_outdoor)]
+    needed = {str(x.get("liquid", "")).lower() for x in base_tanks + extra_spills}
+    needed_rooms = {str(s.get("room", "")).lower() for s in extra_spills if s.get("room")}
+    used_names = {x["name"].lower() for x in liquids}
+    for item in base.get("liquid", []):
+        if item["name"].lower() in needed and item["name"].lower() not in used_names:
+            liquids.append(dict(item))
+    room_names = {r["name"].lower() for r in rooms}
+    for item in base.get("room", []):
+        if item["name"].lower() in needed_rooms and item["name"].lower() not in room_names:
+            rooms.append(dict(item))
+    return base_tanks, extra_spills

@@ -298,9 +298,7 @@ def _checks(reading_args: str, surrogate: str):
 
 def sds_block(prefix: str, slots) -> None:
     """Paste or upload a safety data sheet, then check and confirm what was read."""
-    import json
-
-    from ullage_ui.shared import bound, choice, substance_names, table_editor, text_box
+    from ullage_ui.shared import bound, choice, substance_names, text_box
 
     state = _store()
     paste, upload = st.tabs(["Paste the sheet", "Upload it (.txt or .pdf)"])
@@ -324,6 +322,30 @@ def sds_block(prefix: str, slots) -> None:
     st.markdown(f"**Read from {state.get(key(f'{prefix}.sds_source')) or 'the sheet'}** "
                 "— check every line against the sheet and correct it here.")
     text_box("Name of the liquid", f"{prefix}.liquid_name")
+    _reading_tables(state, prefix)
+    notes = state.get(key(f"{prefix}.sds_notes")) or []
+    if notes:
+        with st.expander(f"Notes on the reading ({len(notes)})"):
+            st.markdown("\n".join(f"- {n}" for n in notes))
+    a, b = st.columns(2)
+    choice("Composition within the ranges", f"{prefix}.sds_point", ["mid", "worst"],
+           container=a, format_func={"mid": "midpoints (normalised)",
+                                     "worst": "worst case within the ranges"}.get)
+    options = ["inert"] + substance_names()
+    if state.get(key(f"{prefix}.sds_surrogate")) not in options:
+        state[key(f"{prefix}.sds_surrogate")] = "inert"
+    bound(b.selectbox, "Unidentified shares taken as", f"{prefix}.sds_surrogate",
+          options=options, format_func=lambda o: "inert (no vapour)" if o == "inert" else o)
+    _cross_check(state, prefix, slots)
+    bound(st.checkbox, "Use this liquid: I have checked what was read against the sheet",
+          f"{prefix}.sds_confirmed")
+
+
+def _reading_tables(state, prefix: str) -> None:
+    """The editable tables of what was read: ingredients, unidentified shares and the
+    section-9 properties."""
+    from ullage_ui.shared import table_editor
+
     table_editor(f"{prefix}.sds_ingredients", {
         "CAS": st.column_config.TextColumn("CAS"),
         "ingredient": st.column_config.TextColumn("ingredient"),
@@ -347,19 +369,13 @@ def sds_block(prefix: str, slots) -> None:
         "unit": st.column_config.TextColumn("unit", disabled=True)},
         help_text="Section 9 as read; empty where the sheet gives no value. Used to check "
                   "the composition, not in the calculation.")
-    notes = state.get(key(f"{prefix}.sds_notes")) or []
-    if notes:
-        with st.expander(f"Notes on the reading ({len(notes)})"):
-            st.markdown("\n".join(f"- {n}" for n in notes))
-    a, b = st.columns(2)
-    choice("Composition within the ranges", f"{prefix}.sds_point", ["mid", "worst"],
-           container=a, format_func={"mid": "midpoints (normalised)",
-                                     "worst": "worst case within the ranges"}.get)
-    options = ["inert"] + substance_names()
-    if state.get(key(f"{prefix}.sds_surrogate")) not in options:
-        state[key(f"{prefix}.sds_surrogate")] = "inert"
-    bound(b.selectbox, "Unidentified shares taken as", f"{prefix}.sds_surrogate",
-          options=options, format_func=lambda o: "inert (no vapour)" if o == "inert" else o)
+
+
+def _cross_check(state, prefix: str, slots) -> None:
+    """The sheet's own vapour pressure and flash point against the model's, for the
+    composition as edited."""
+    import json
+
     reading, problems = _edited_reading(state, prefix)
     if problems:
         slots.problems("liquid", problems)
@@ -376,5 +392,3 @@ def sds_block(prefix: str, slots) -> None:
             (st.warning if "DISAGREES" in line else st.caption)(line)
         if error:
             st.error(f"**Safety data sheet**: {error}")
-    bound(st.checkbox, "Use this liquid: I have checked what was read against the sheet",
-          f"{prefix}.sds_confirmed")

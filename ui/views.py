@@ -782,9 +782,41 @@ def _uncertainty_error(record: dict, prefix: str = "") -> dict:
 def uncertainty_view(toml_text: str, units: str) -> dict:
     """Run the probabilistic screening of a one-item scenario with [[uncertain]] inputs
     (`estimator.screening.run_scenario`); plain values for the Uncertainty section."""
-    from estimator.plots import cumulative_points
     from estimator.report import monte_carlo_curves
-    from estimator.scenario import UNCERTAIN_INPUTS
+
+    found = _monte_carlo_run(toml_text)
+    if "error" in found:
+        return found
+    scenario, item, mc = found["scenario"], found["item"], found["mc"]
+    stats, low = _percentile_rows(mc)
+    names = ({c.key: c.name for c in item.headspace.liquid.components}
+             if mc.model == "headspace" else None)
+    curves, lines = monte_carlo_curves(mc, scenario.limits, names)
+    driver, sensitivity = _sensitivity(mc)
+    log_x, curve = _cumulative_curves(curves, lines)
+    return _plain_view({
+        "error": None, "model": mc.model, "n": mc.n, "seed": mc.seed,
+        "n_text": f"{mc.n:,} samples, seed {mc.seed}",
+        "inputs": pd.DataFrame(_sampled_inputs(scenario, mc, units),
+                               columns=["input", "distribution"]),
+        "percentiles": pd.DataFrame(stats),
+        "low_percentiles": pd.DataFrame(low),
+        "key_percentiles": _key_percentiles(mc),
+        "exceedance": pd.DataFrame(_exceedance_rows(mc, lines),
+                                   columns=["limit or alarm", "compared with",
+                                            "probability of exceeding"]),
+        "exceedance_by_label": {k: probability_text(v) for k, v in mc.exceedance.items()},
+        "driver_text": driver, "sensitivity": sensitivity,
+        "curve": curve,
+        "lines": [{"ppm": x["ppm"], "limit": x["line"]} for x in lines],
+        "log_x": bool(log_x),
+        "warnings": list(mc.warnings) + [w for w in item.warnings if "probabilistic" in w
+                                         and w not in mc.warnings],
+    }, _names(scenario))
+
+
+def _monte_carlo_run(toml_text: str) -> dict:
+    """The scenario, its one item and the item's Monte Carlo result, or an error view."""
     from estimator.screening import run_scenario
 
     try:
@@ -806,6 +838,13 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
     if mc is None:
         return {"error": {"field": "", "area": "uncertainty",
                           "reason": "no input is given as a range"}}
+    return {"scenario": scenario, "item": item, "mc": mc}
+
+
+def _sampled_inputs(scenario, mc, units: str) -> list[dict]:
+    """The inputs drawn, each with its distribution in words."""
+    from estimator.scenario import UNCERTAIN_INPUTS
+
     rows = []
     for entry in scenario.uncertain:
         kind = _UNCERTAIN_KINDS.get(UNCERTAIN_INPUTS[entry["kind"]][entry["input"]])
@@ -814,13 +853,19 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
     for name, text in mc.inputs.items():
         if name.startswith("vapor_pressure_factor"):
             rows.append({"input": input_words(name), "distribution": text})
+    return rows
+
+
+def _percentile_rows(mc) -> tuple[list[dict], list[dict]]:
+    """Rows of the high percentiles of each output, and of oxygen's low ones (the
+    hazard is low oxygen)."""
     stats, low = [], []
     for output, words, how in _PERCENTILE_OUTPUTS[mc.model]:
         if output not in mc.percentiles:
             continue
         table = mc.percentiles[output]
         row = {"output": words}
-        if output == "oxygen_percent":  # the hazard is low oxygen: its low percentiles
+        if output == "oxygen_percent":
             for q in (1, 5, 50):
                 row[_PERCENTILE_WORDS[q]] = _statistic_text(table[q], how)
             low.append(row)
@@ -828,31 +873,43 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
         for q in (50, 90, 95, 99):
             row[_PERCENTILE_WORDS[q]] = _statistic_text(table[q], how)
         stats.append(row)
-    names = ({c.key: c.name for c in item.headspace.liquid.components}
-             if mc.model == "headspace" else None)
-    curves, lines = monte_carlo_curves(mc, scenario.limits, names)
-    exceedance = []
-    shown = set()
+    return stats, low
+
+
+def _exceedance_rows(mc, lines) -> list[dict]:
+    """The probability of exceeding each limit or alarm: those drawn as lines first."""
+    rows, shown = [], set()
     for line in lines:
-        exceedance.append({"limit or alarm": line["line"], "compared with": line["compared"],
-                           "probability of exceeding": probability_text(
-                               mc.exceedance[line["label"]])})
+        rows.append({"limit or alarm": line["line"], "compared with": line["compared"],
+                     "probability of exceeding": probability_text(mc.exceedance[line["label"]])})
         shown.add(line["label"])
     for label, probability in mc.exceedance.items():
         if label not in shown:
             compared = ("oxygen after displacement" if label.startswith("oxygen")
                         else "flammable vapour")
-            exceedance.append({"limit or alarm": label, "compared with": compared,
-                               "probability of exceeding": probability_text(probability)})
-    key_output = _KEY_OUTPUT[mc.model]
-    ranks = dict(mc.sensitivity.get(key_output, {}))
+            rows.append({"limit or alarm": label, "compared with": compared,
+                         "probability of exceeding": probability_text(probability)})
+    return rows
+
+
+def _sensitivity(mc) -> tuple[str | None, pd.DataFrame]:
+    """Which input drives the key output most, in words, and the rank correlations."""
+    ranks = dict(mc.sensitivity.get(_KEY_OUTPUT[mc.model], {}))
     driver = None
     if ranks:
         top, rho = next(iter(ranks.items()))
         driver = (f"The spread of the {_KEY_WORDS[mc.model]} is driven most by the "
                   f"{input_words(top)} (Spearman rank correlation {rho:.2f}).")
-    sensitivity = pd.DataFrame([{"input": input_words(k), "rank correlation": f"{v:.2f}"}
-                                for k, v in ranks.items()], columns=["input", "rank correlation"])
+    table = pd.DataFrame([{"input": input_words(k), "rank correlation": f"{v:.2f}"}
+                          for k, v in ranks.items()], columns=["input", "rank correlation"])
+    return driver, table
+
+
+def _cumulative_curves(curves: dict, lines) -> tuple[bool, pd.DataFrame]:
+    """Whether the concentration axis is logarithmic (over a factor of 100), and the
+    cumulative distribution of each curve as one frame."""
+    from estimator.plots import cumulative_points
+
     values = np.concatenate([np.ravel(v) for v in curves.values()]
                             + [np.array([x["ppm"] for x in lines], dtype=float)])
     positive = values[np.isfinite(values) & (values > 0)]
@@ -862,29 +919,18 @@ def uncertainty_view(toml_text: str, units: str) -> dict:
         x, f = cumulative_points(samples, 400, log_x)
         keep = np.isfinite(x) & ((x > 0) if log_x else True)
         frames.append(pd.DataFrame({"ppm": x[keep], "fraction": f[keep], "series": label}))
-    key_percentiles = [(f"95th percentile, {words}", _statistic_text(
-        mc.percentiles[output][95], how)) for output, words, how in _PERCENTILE_OUTPUTS[mc.model]
-        if how == "ppm" and output in mc.percentiles and output != "short_term_ppm"]
+    return log_x, pd.concat(frames, ignore_index=True)
+
+
+def _key_percentiles(mc) -> list[tuple[str, str]]:
+    """The percentiles a tile shows: the 95th of each concentration, the 5th of oxygen."""
+    shown = [(f"95th percentile, {words}", _statistic_text(mc.percentiles[output][95], how))
+             for output, words, how in _PERCENTILE_OUTPUTS[mc.model]
+             if how == "ppm" and output in mc.percentiles and output != "short_term_ppm"]
     if "oxygen_percent" in mc.percentiles:
-        key_percentiles.append(("5th percentile, oxygen after displacement", _statistic_text(
+        shown.append(("5th percentile, oxygen after displacement", _statistic_text(
             mc.percentiles["oxygen_percent"][5], "percent")))
-    return _plain_view({
-        "error": None, "model": mc.model, "n": mc.n, "seed": mc.seed,
-        "n_text": f"{mc.n:,} samples, seed {mc.seed}",
-        "inputs": pd.DataFrame(rows, columns=["input", "distribution"]),
-        "percentiles": pd.DataFrame(stats),
-        "low_percentiles": pd.DataFrame(low),
-        "key_percentiles": key_percentiles,
-        "exceedance": pd.DataFrame(exceedance, columns=["limit or alarm", "compared with",
-                                                        "probability of exceeding"]),
-        "exceedance_by_label": {k: probability_text(v) for k, v in mc.exceedance.items()},
-        "driver_text": driver, "sensitivity": sensitivity,
-        "curve": pd.concat(frames, ignore_index=True),
-        "lines": [{"ppm": x["ppm"], "limit": x["line"]} for x in lines],
-        "log_x": bool(log_x),
-        "warnings": list(mc.warnings) + [w for w in item.warnings if "probabilistic" in w
-                                         and w not in mc.warnings],
-    }, _names(scenario))
+    return shown
 
 
 # --------------------------------------------------------------------- checks
