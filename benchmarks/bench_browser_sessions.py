@@ -31,6 +31,8 @@ import time
 import urllib.request
 from pathlib import Path
 
+from ullage_ui.launch import command
+
 ROOT = Path(__file__).resolve().parents[1]
 CHROMIUM = "/usr/bin/chromium"
 BROWSER_ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
@@ -62,10 +64,9 @@ def _free_port() -> int:
 def _start_server(log_path: Path):
     port = _free_port()
     with open(log_path, "w") as log:
+        # the command line `ullage app` runs, on a port of its own
         process = subprocess.Popen(
-            [sys.executable, "-m", "streamlit", "run", str(ROOT / "ui" / "app.py"),
-             "--server.address", "127.0.0.1", "--server.port", str(port),
-             "--server.headless", "true", "--browser.gatherUsageStats", "false"],
+            command(["--server.address", "127.0.0.1", "--server.port", str(port)]),
             cwd=ROOT, stdout=log, stderr=subprocess.STDOUT, stdin=subprocess.DEVNULL)
     base = f"http://127.0.0.1:{port}"
     deadline = time.monotonic() + START_TIMEOUT

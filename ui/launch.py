@@ -36,6 +36,10 @@ DEFAULTS = {
     "--server.headless": "true",
     "--browser.gatherUsageStats": "false",
     "--client.toolbarMode": "minimal",
+    # the installed pages do not change while the app runs: no polling of their files,
+    # which would take CPU from every session
+    "--server.fileWatcherType": "none",
+    "--server.runOnSave": "false",
 }
 
 

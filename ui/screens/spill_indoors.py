@@ -71,11 +71,12 @@ def show(view: dict) -> None:
     a, b, _ = st.columns(3)
     a.metric("8-h TWA", view["twa_text"])
     b.metric("Highest 15-min average", view["short_text"])
-    st.markdown(f"**Pool:** {view['pool_area_text']}, {view['pool_text']}.")
+    pool = f"**Pool:** {view['pool_area_text']}, {view['pool_text']}."
     if len(view["comparisons"]):
-        st.markdown("**Against the exposure limits**")
-        shared.table(view["comparisons"].drop(columns=["ratio"]))
+        st.markdown(pool + "\n\n**Against the exposure limits**\n\n"
+                    + shared.markdown_table(view["comparisons"].drop(columns=["ratio"])))
     else:
+        st.markdown(pool)
         st.info("No exposure limit entered for this liquid: the concentrations are shown "
                 "without comparison.")
     shared.chart(view["series"], x="minutes", x_title="time after the spill [min]", y="ppm",
@@ -84,8 +85,10 @@ def show(view: dict) -> None:
         shared.chart(view["lfl_series"], x="minutes", x_title="time after the spill [min]",
                      y="percent", y_title="% of the LFL", lines=view["lfl_lines"],
                      line_field="percent", log_y=view["lfl_log"])
-    shared.table(view["metrics"])
-    st.markdown(f"**Method.** {view['model']}; pool temperature held fixed. Initial "
+    metrics = view["metrics"]
+    st.markdown((shared.markdown_table(metrics) + "\n\n" if metrics is not None and len(metrics)
+                 else "")
+                + f"**Method.** {view['model']}; pool temperature held fixed. Initial "
                 f"evaporation rate by both models: {view['rates_text']} (their spread is a "
                 f"measure of the model uncertainty). Mass balance closes to "
                 f"{view['mass_balance_text']}.")

@@ -60,6 +60,8 @@ def draw_inputs(slots):
 
 
 def show(view: dict) -> None:
+    """The result: tiles, then the findings in a few blocks of text (fewer elements
+    to send when only the result is drawn again), the charts and the method."""
     now = view["now"]
     st.subheader(f"{view['name']}: {view['liquid']} at {view['temperature_text']}")
     a, b, c = st.columns([1.4, 1, 1])
@@ -70,28 +72,43 @@ def show(view: dict) -> None:
     c.metric("Oxygen after displacement", now["oxygen_text"])
     st.caption("LFL (LEL): the lower flammability limit, also called the lower explosive "
                "limit; % of LFL is what a combustible-gas meter reads.")
-    st.markdown(f"**Flammability:** {now['flammability_words']}.  \n"
-                f"**Concentration:** {now['total_ppm_text']} = {now['total_mg_text']} at "
-                f"{now['pressure_text']}.")
+    st.markdown("\n\n".join(_summary(view)))
+    if not len(view["comparisons"]):
+        st.info("No exposure limit entered for these substances: only flammability and "
+                "oxygen are compared.")
+    if view["sweep"] is not None:
+        _charts(view)
+    st.markdown(f"**Method.** Raoult's law with {now['activity']}; vapour pressure by the "
+                f"method below. Largest stated uncertainty of the vapour pressure: "
+                f"{now['uncertainty']}.\n\n"
+                + "\n\n".join(shared.markdown_table(t) for t in (now["methods"], now["components"])
+                              if t is not None and len(t)))
+    shared.show_notes(view)
+
+
+def _summary(view: dict) -> list[str]:
+    """The paragraphs under the tiles: flammability, concentration, worst case, the
+    comparison with the limits and the other findings."""
+    now = view["now"]
+    parts = [f"**Flammability:** {now['flammability_words']}.  \n"
+             f"**Concentration:** {now['total_ppm_text']} = {now['total_mg_text']} at "
+             f"{now['pressure_text']}."]
     worst = view["worst"]
     if worst is not None:
-        st.markdown(f"**Worst case, {view['worst_temperature_text']}:** "
-                    f"{worst['total_ppm_text']}, {worst['percent_lfl_text']} of the LFL, oxygen "
-                    f"{worst['oxygen_text']}; {worst['flammability_words']}.")
+        parts.append(f"**Worst case, {view['worst_temperature_text']}:** "
+                     f"{worst['total_ppm_text']}, {worst['percent_lfl_text']} of the LFL, "
+                     f"oxygen {worst['oxygen_text']}; {worst['flammability_words']}.")
     if len(view["comparisons"]):
-        st.markdown("**Against the exposure limits** (at the liquid temperature"
-                    + (", then the worst case)" if len(view["worst_comparisons"]) else ")"))
+        parts.append("**Against the exposure limits** (at the liquid temperature"
+                     + (", then the worst case)" if len(view["worst_comparisons"]) else ")"))
         table = view["comparisons"].drop(columns=["ratio"])
         if len(view["worst_comparisons"]):
             table["worst case"] = list(view["worst_comparisons"]["against the limit"])
-        shared.table(table)
+        parts.append(shared.markdown_table(table))
         if view["additive_index"] is not None:
-            st.caption(f"Mixture exposure index Σ C/TWA = {format_number(view['additive_index'])} "
-                       "(above 1: the mixture exceeds; for substances acting on the same "
-                       "organs).")
-    else:
-        st.info("No exposure limit entered for these substances: only flammability and "
-                "oxygen are compared.")
+            parts.append(f"Mixture exposure index Σ C/TWA = "
+                         f"{format_number(view['additive_index'])} (above 1: the mixture "
+                         "exceeds; for substances acting on the same organs).")
     extra = []
     if view["flash_point_text"]:
         extra.append(f"Flash point: {view['flash_point_text']}.")
@@ -100,29 +117,27 @@ def show(view: dict) -> None:
                      f"{view['alarm_temperature_text']}.")
     extra += [f"{label}: {value}." for label, value in view["details"]]
     if extra:
-        st.markdown(shared.bullet_list(extra))
-    if view["sweep"] is not None:
-        unit = view["temperature_unit"]
-        shared.chart(view["sweep"], x="temperature", x_title=f"liquid temperature [{unit}]",
-                     y="ppm", y_title="headspace [ppm]", log_y=True,
-                     lines=view["limit_lines"], marker=view["stated_temperature"])
-        lfl_lines = [{"percent_lfl": view["alarm_percent"],
-                      "limit": f"alarm {view['alarm_percent']:g} % LFL"},
-                     {"percent_lfl": 100.0, "limit": "LFL"}]
-        highest = float(view["sweep_lfl"]["percent_lfl"].max())
-        # a logarithmic axis once the curve runs far above the alarm, so the alarm
-        # and LFL lines stay clear of the axis
-        shared.chart(view["sweep_lfl"], x="temperature", x_title=f"liquid temperature [{unit}]",
-                     y="percent_lfl", y_title="flammable vapour [% of LFL]", color=None,
-                     log_y=highest > 5.0 * view["alarm_percent"],
-                     lines=lfl_lines, line_field="percent_lfl",
-                     marker=view["stated_temperature"])
-    st.markdown(f"**Method.** Raoult's law with {now['activity']}; vapour pressure by the "
-                f"method below. Largest stated uncertainty of the vapour pressure: "
-                f"{now['uncertainty']}.")
-    shared.table(now["methods"])
-    shared.table(now["components"])
-    shared.show_notes(view)
+        parts.append(shared.bullet_list(extra))
+    return parts
+
+
+def _charts(view: dict) -> None:
+    """The headspace and the % LFL over the range of liquid temperatures."""
+    unit = view["temperature_unit"]
+    shared.chart(view["sweep"], x="temperature", x_title=f"liquid temperature [{unit}]",
+                 y="ppm", y_title="headspace [ppm]", log_y=True,
+                 lines=view["limit_lines"], marker=view["stated_temperature"])
+    lfl_lines = [{"percent_lfl": view["alarm_percent"],
+                  "limit": f"alarm {view['alarm_percent']:g} % LFL"},
+                 {"percent_lfl": 100.0, "limit": "LFL"}]
+    highest = float(view["sweep_lfl"]["percent_lfl"].max())
+    # a logarithmic axis once the curve runs far above the alarm, so the alarm and LFL
+    # lines stay clear of the axis
+    shared.chart(view["sweep_lfl"], x="temperature", x_title=f"liquid temperature [{unit}]",
+                 y="percent_lfl", y_title="flammable vapour [% of LFL]", color=None,
+                 log_y=highest > 5.0 * view["alarm_percent"],
+                 lines=lfl_lines, line_field="percent_lfl",
+                 marker=view["stated_temperature"])
 
 
 UNCERTAINTY_CAPTION = (
