@@ -214,12 +214,10 @@ def _cmd_check(args) -> int:
     return EXIT_OK
 
 
-def _cmd_sweep(args) -> int:
+def _sweep_grid(args):
+    """The temperatures [K] and the pressure [Pa] a sweep asks for, checked."""
     import numpy as np
 
-    from .headspace import headspace, water_headspace
-    from .inventory import parse_liquid
-    from .limits import format_ppm
     from .units import parse_quantity, parse_temperature
 
     low = parse_temperature(args.low, "--from")
@@ -232,57 +230,80 @@ def _cmd_sweep(args) -> int:
     if (high - low) / step > 2000:
         raise BadInput("--step", "gives more than 2000 rows; use a larger step")
     pressure = parse_quantity(args.pressure, "pressure", "--pressure")
-    grid = np.arange(low, high + step / 2, step)
-    if args.liquid:
-        hs = headspace(parse_liquid(args.liquid, args.basis, "liquid"), grid, pressure)
-    else:
-        if not args.scenario or not args.tank:
-            raise BadInput("liquid", "give a liquid (\"toluene\", or \"toluene 60%, o-xylene "
-                            "40%\") or --scenario FILE --tank NAME")
-        sc = _load(args.scenario)
-        tank = {t["name"].lower(): t for t in sc.tanks}.get(args.tank.lower())
-        if tank is None:
-            raise BadInput("--tank", f"no tank {args.tank!r} in the scenario; tanks: "
-                            f"{', '.join(t['name'] for t in sc.tanks) or 'none'}")
-        entry = sc.liquids[tank["liquid"]]
-        p = sc.pressure + tank.get("gauge_pressure", 0.0)
-        if entry["kind"] == "water":
-            hs = water_headspace({s.key: c for s, c in entry["spec"].items()}, grid, p)
-        else:
-            hs = headspace(sc.liquid(tank["liquid"]), grid, p)
-    names = [c.key for c in hs.liquid.components]
-    header = ["T [degC]", "total ppm", "mg/m3", "% LFL", "O2 %", "state"] + \
-        [f"{n} ppm" for n in names]
-    if args.csv:
-        import csv
-        import io
+    return np.arange(low, high + step / 2, step), pressure
 
-        buffer = io.StringIO()
-        writer = csv.writer(buffer, lineterminator="\n")
-        writer.writerow(header)
-        for i, t in enumerate(grid):
-            writer.writerow([f"{t - 273.15:.2f}", f"{hs.total_volume_fraction[i] * 1e6:.6g}",
-                             f"{hs.total_mg_per_m3[i]:.6g}", f"{hs.percent_lfl[i]:.4g}",
-                             f"{hs.oxygen_percent[i]:.4g}", str(hs.flammability[i])]
-                            + [f"{hs.ppm[j, i]:.6g}" for j in range(len(names))])
-        for caution in CAUTIONS:
-            writer.writerow(["caution", caution])
-        _out(buffer.getvalue(), args.output)
-        return EXIT_OK
+
+def _sweep_headspace(args, grid, pressure):
+    """The headspace over the grid of the liquid given, or of a scenario's tank."""
+    from .headspace import headspace, water_headspace
+    from .inventory import parse_liquid
+
+    if args.liquid:
+        return headspace(parse_liquid(args.liquid, args.basis, "liquid"), grid, pressure)
+    if not args.scenario or not args.tank:
+        raise BadInput("liquid", "give a liquid (\"toluene\", or \"toluene 60%, o-xylene "
+                        "40%\") or --scenario FILE --tank NAME")
+    sc = _load(args.scenario)
+    tank = {t["name"].lower(): t for t in sc.tanks}.get(args.tank.lower())
+    if tank is None:
+        raise BadInput("--tank", f"no tank {args.tank!r} in the scenario; tanks: "
+                        f"{', '.join(t['name'] for t in sc.tanks) or 'none'}")
+    entry = sc.liquids[tank["liquid"]]
+    p = sc.pressure + tank.get("gauge_pressure", 0.0)
+    if entry["kind"] == "water":
+        return water_headspace({s.key: c for s, c in entry["spec"].items()}, grid, p)
+    return headspace(sc.liquid(tank["liquid"]), grid, p)
+
+
+def _sweep_csv(hs, grid, header) -> str:
+    """A sweep as CSV text, the cautions as its last rows."""
+    import csv
+    import io
+
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\n")
+    writer.writerow(header)
+    n = len(hs.liquid.components)
+    for i, t in enumerate(grid):
+        writer.writerow([f"{t - 273.15:.2f}", f"{hs.total_volume_fraction[i] * 1e6:.6g}",
+                         f"{hs.total_mg_per_m3[i]:.6g}", f"{hs.percent_lfl[i]:.4g}",
+                         f"{hs.oxygen_percent[i]:.4g}", str(hs.flammability[i])]
+                        + [f"{hs.ppm[j, i]:.6g}" for j in range(n)])
+    for caution in CAUTIONS:
+        writer.writerow(["caution", caution])
+    return buffer.getvalue()
+
+
+def _sweep_text(hs, grid, header, pressure) -> str:
+    """A sweep as a table for the terminal, with its methods, notes and the cautions."""
+    from .limits import format_ppm
+
     lines = [f"Equilibrium headspace, {pressure / 1000:.2f} kPa: "
              + ", ".join(f"{c.name} x={x:.3g}" for c, x in zip(hs.liquid.components,
                                                                hs.liquid.mole_fractions)), ""]
     lines.append("  ".join(f"{h:>12}" for h in header))
+    n = len(hs.liquid.components)
     for i, t in enumerate(grid):
         cells = [f"{t - 273.15:.1f}", format_ppm(hs.total_volume_fraction[i] * 1e6),
                  format_ppm(hs.total_mg_per_m3[i]), f"{hs.percent_lfl[i]:.3g}",
                  f"{hs.oxygen_percent[i]:.3g}", str(hs.flammability[i])]
-        cells += [format_ppm(hs.ppm[j, i]) for j in range(len(names))]
+        cells += [format_ppm(hs.ppm[j, i]) for j in range(n)]
         lines.append("  ".join(f"{c:>12}" for c in cells))
     methods = sorted({f"{e.description} ({e.source})" for e in hs.vapor_pressure_methods})
     lines += ["", "Vapour pressure: " + "; ".join(methods)]
     lines += [f"note: {w}" for w in hs.warnings]
-    _out("\n".join(lines) + "\n" + cautions_block() + "\n", args.output)
+    return "\n".join(lines) + "\n" + cautions_block() + "\n"
+
+
+def _cmd_sweep(args) -> int:
+    grid, pressure = _sweep_grid(args)
+    hs = _sweep_headspace(args, grid, pressure)
+    header = ["T [degC]", "total ppm", "mg/m3", "% LFL", "O2 %", "state"] + \
+        [f"{c.key} ppm" for c in hs.liquid.components]
+    if args.csv:
+        _out(_sweep_csv(hs, grid, header), args.output)
+    else:
+        _out(_sweep_text(hs, grid, header, pressure), args.output)
     return EXIT_OK
 
 
@@ -368,18 +389,8 @@ class _Parser(argparse.ArgumentParser):
         raise SystemExit(EXIT_BAD_INPUT)
 
 
-def build_parser() -> argparse.ArgumentParser:
-    parser = _Parser(
-        prog="ullage",
-        description="Screening estimates of vapour hazards: vapour pressure, tank "
-                    "headspace, spill evaporation and air concentration, compared "
-                    "with the limits you enter. Every result is a screening "
-                    "estimate: measure before entry.",
-        epilog="Exit codes: 0 done, 1 a limit exceeded (with --signal-exceedance), "
-               "2 bad input, or items or rows that could not be computed.")
-    parser.add_argument("--version", action="version", version=f"ullage {__version__}")
-    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
-
+def _add_run_parsers(sub) -> None:
+    """The commands that run or check a scenario file."""
     p = sub.add_parser("run", help="run a scenario file and report the results",
                        description="Run a scenario and print a readable summary, or write "
                                    "the report as Markdown, HTML, JSON or CSV.")
@@ -398,6 +409,8 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("scenario", help="scenario file (.toml)")
     p.set_defaults(func=_cmd_check)
 
+
+def _add_sweep_parser(sub) -> None:
     p = sub.add_parser("sweep", help="headspace over a temperature range",
                        description="Equilibrium headspace of a liquid over a temperature "
                                    "range: a substance, a mixture such as \"toluene 60%, "
@@ -415,6 +428,8 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--output", "-o", help="write to this file")
     p.set_defaults(func=_cmd_sweep)
 
+
+def _add_inventory_parser(sub) -> None:
     p = sub.add_parser("inventory", help="screen an inventory file of tanks and containers",
                        description="Screen every row of an inventory (CSV or Excel): "
                                    "headspace, %LFL and ratio to each limit, sorted by "
@@ -430,6 +445,9 @@ def build_parser() -> argparse.ArgumentParser:
                    help="exit with 1 when a row reaches a limit or alarm (concern >= 1)")
     p.set_defaults(func=_cmd_inventory)
 
+
+def _add_other_parsers(sub) -> None:
+    """The substance list, the demos and the browser front end."""
     p = sub.add_parser("substances", help="list the bundled substances or show one",
                        description="List the bundled substances, or show one in full by "
                                    "name, synonym or CAS number.")
@@ -448,6 +466,24 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--address", default="127.0.0.1", help="address to listen on")
     p.add_argument("--port", type=_port, default=8501, help="port (default 8501)")
     p.set_defaults(func=_cmd_app)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    """The `ullage` command's parser, one subcommand per task."""
+    parser = _Parser(
+        prog="ullage",
+        description="Screening estimates of vapour hazards: vapour pressure, tank "
+                    "headspace, spill evaporation and air concentration, compared "
+                    "with the limits you enter. Every result is a screening "
+                    "estimate: measure before entry.",
+        epilog="Exit codes: 0 done, 1 a limit exceeded (with --signal-exceedance), "
+               "2 bad input, or items or rows that could not be computed.")
+    parser.add_argument("--version", action="version", version=f"ullage {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+    _add_run_parsers(sub)
+    _add_sweep_parser(sub)
+    _add_inventory_parser(sub)
+    _add_other_parsers(sub)
 
     from .cli_sds import add_parser as add_sds_parser
 

@@ -18,6 +18,7 @@ import hashlib
 import html
 import math
 import re
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -184,33 +185,26 @@ def _thin(x: np.ndarray, ys: list[np.ndarray], cap: int) -> np.ndarray:
     return np.array(sorted(keep))
 
 
-def _validate(x, series, hlines, width, height):
-    xs = np.asarray(x, dtype=float)
-    if xs.ndim != 1 or xs.size == 0:
-        raise InputError("x", "give a one-dimensional sequence of at least one number")
-    if not isinstance(series, dict) or not series:
-        raise InputError("series", "give a mapping of label -> y values with at least one series")
-    ys = {}
-    for label, values in series.items():
-        try:
-            y = np.asarray(values, dtype=float)
-        except (TypeError, ValueError):
-            raise InputError("series", f"the values of {str(label)!r} are not numbers") from None
-        if y.shape != xs.shape:
-            raise InputError("series", f"{str(label)!r} has {y.size} values for {xs.size} x "
-                             "values; give one y value per x value")
-        ys[str(label)] = y
+# --------------------------------------------------------------------------
+# the parts both plots share: layout, axes, grid, limit lines, series, legend
+
+
+def _check_size(width, height) -> None:
+    if not (200 <= width <= 4000 and 150 <= height <= 4000):
+        raise InputError("width", "the plot must be 200-4000 px wide and 150-4000 px high")
+
+
+def _limit_values(given, field: str, what: str) -> dict:
+    """Label -> position of the limit lines given; infinite and NaN ones are left out."""
     lines = {}
-    for label, value in (hlines or {}).items():
+    for label, value in (given or {}).items():
         try:
             v = float(value)
         except (TypeError, ValueError):
-            raise InputError("hlines", f"the level of {str(label)!r} is not a number") from None
+            raise InputError(field, f"the {what} of {str(label)!r} is not a number") from None
         if math.isfinite(v):
             lines[str(label)] = v
-    if not (200 <= width <= 4000 and 150 <= height <= 4000):
-        raise InputError("width", "the plot must be 200-4000 px wide and 150-4000 px high")
-    return xs, ys, lines
+    return lines
 
 
 def _legend_rows(labels: list[str], usable: float, font: float) -> list[list[tuple[str, float]]]:
@@ -260,20 +254,31 @@ def _legend_lines(label: str, usable: float, font: float) -> list[str]:
 
 
 
-def _legend(out: list, rows, left: float, legend_top: float, font: float) -> None:
-    """Append the legend: one sample line and label per series, rows as laid out."""
+
+def _line_tag(x1: float, y1: float, x2: float, y2: float, attributes: str = "") -> str:
+    """An SVG line from (x1, y1) to (x2, y2), with more attributes (each led by a space)."""
+    return (f'<line x1="{_coordinate(x1)}" y1="{_coordinate(y1)}" '
+            f'x2="{_coordinate(x2)}" y2="{_coordinate(y2)}"{attributes}/>')
+
+
+def _dash_attr(dash: str) -> str:
+    return f' stroke-dasharray="{dash}"' if dash else ""
+
+
+def _legend(out: list, frame) -> None:
+    """Append the legend below the plot: one sample line and label per series."""
+    font, left = frame.font, frame.left
+    legend_top = frame.top + frame.plot_h + 52.0
     out.append(f'<g font-size="{font:g}" fill="#1a1a1a">')
     index = 0
     line = 0
-    for row in rows:
+    for row in frame.rows:
         x0 = left
         y0 = legend_top + 18.0 * line
         for label, w in row:
             colour_k, dash_k = SERIES_STYLES[index % len(SERIES_STYLES)]
-            dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
-            out.append(f'<line x1="{_coordinate(x0)}" y1="{_coordinate(y0 - 4)}" '
-                       f'x2="{_coordinate(x0 + 28)}" y2="{_coordinate(y0 - 4)}" '
-                       f'stroke="{colour_k}" stroke-width="2.2"{dash_attr}/>')
+            out.append(_line_tag(x0, y0 - 4, x0 + 28, y0 - 4, f' stroke="{colour_k}" '
+                                 f'stroke-width="2.2"{_dash_attr(dash_k)}'))
             parts = label.split("\n")
             spans = "".join(f'<tspan x="{_coordinate(x0 + 34)}" dy="{0 if k == 0 else 18}">'
                             f"{_text(part)}</tspan>" for k, part in enumerate(parts))
@@ -283,6 +288,322 @@ def _legend(out: list, rows, left: float, legend_top: float, font: float) -> Non
             index += 1
         line += max((label.count("\n") + 1 for label, _ in row), default=1)
     out.append("</g>")
+
+
+@dataclass(frozen=True)
+class _Frame:
+    """Where a plot's parts go: the page size, the plot area and the legend rows."""
+    width: int
+    height: int
+    left: float
+    top: float
+    plot_w: float
+    plot_h: float
+    rows: list
+    font: float = 12.0
+
+
+def _frame(labels: list[str], width: int, height: int) -> _Frame:
+    """The plot area left inside the margins once a legend of `labels` has its rows."""
+    font = 12.0
+    left, right, top = 84.0, 24.0, 42.0
+    rows = _legend_rows(labels, width - left - right, font)
+    bottom = 52.0 + 18.0 * _legend_height(rows)
+    plot_h = height - top - bottom
+    if plot_h < 60:
+        raise InputError("height", f"{height} px leaves no room for the plot and a legend of "
+                         f"{len(labels)} series; make it taller")
+    return _Frame(width, height, left, top, width - left - right, plot_h, rows, font)
+
+
+def _scale(lo: float, hi: float, start: float, length: float, *, log=False,
+           off: float = math.nan):
+    """Page position of a value on an axis from `lo` (at `start`) to `hi` (`length`
+    further, negative upwards); on a logarithmic axis a value at or below zero is `off`."""
+    if log:
+        span = math.log10(hi) - math.log10(lo)
+
+        def position(value):
+            if not value > 0:
+                return off
+            return start + (math.log10(value) - math.log10(lo)) / span * length
+        return position
+
+    def position(value):
+        return start + (value - lo) / (hi - lo) * length
+    return position
+
+
+def _log_range(values: np.ndarray):
+    """Ends (whole decades, at most `MAX_LOG_DECADES` below the highest value),
+    labelled ticks, minor ticks and a note (or "") of a logarithmic axis over values."""
+    note = ""
+    positive = values[values > 0]
+    if positive.size == 0:
+        lo, hi = 1.0, 10.0
+        note = "no value above zero to show on a logarithmic axis"
+    else:
+        hi = float(positive.max())
+        lo = max(float(positive.min()), hi / 10.0 ** MAX_LOG_DECADES)
+    ticks, minor = log_ticks(lo * 0.999, hi * 1.001)
+    lo = 10.0 ** math.floor(math.log10(ticks[0]) + 1e-9)
+    hi = 10.0 ** math.ceil(math.log10(ticks[-1]) - 1e-9)
+    return lo, hi, [(t, tick_label(t)) for t in ticks], minor, note
+
+
+def _linear_range(values: np.ndarray, target: int, margin: bool):
+    """Ends (round ticks), labelled ticks, minor ticks (none) and a note (or "") of a
+    linear axis over values, from zero when the lowest is under half the highest;
+    with `margin`, 2 % of the range is added at the ends before rounding."""
+    note = ""
+    if values.size == 0:
+        lo, hi = 0.0, 1.0
+        note = "no finite value to show"
+    else:
+        lo, hi = float(values.min()), float(values.max())
+        if 0 < lo < 0.5 * hi:
+            lo = 0.0  # concentrations read best from zero
+    if hi <= lo:
+        pad = abs(lo) * 0.5 or 1.0
+        lo, hi = lo - pad, hi + pad
+    if margin:
+        extra = 0.02 * (hi - lo)
+        ticks = nice_ticks(lo - (extra if lo != 0 else 0.0), hi + extra, target)
+    else:
+        ticks = nice_ticks(lo, hi, target)
+    step = ticks[1] - ticks[0]
+    return ticks[0], ticks[-1], [(t, tick_label(t, step)) for t in ticks], [], note
+
+
+def _clip_id(parts, arrays) -> str:
+    """An id for the plot area's clip path, different for different plots, so that
+    plots inlined in one page keep their own."""
+    digest = hashlib.sha1()
+    for part in parts:
+        digest.update(part.encode("utf-8", "replace"))
+    for a in arrays:
+        digest.update(a.tobytes())
+    return "plotarea-" + digest.hexdigest()[:12]
+
+
+def _head(f: _Frame, title: str, desc: str, clip_id: str) -> list[str]:
+    """The opening of the SVG document: title, description (`desc`, markup already
+    escaped), white background, the plot area's clip path and the title shown."""
+    return [
+        f'<svg xmlns="http://www.w3.org/2000/svg" width="{f.width}" height="{f.height}" '
+        f'viewBox="0 0 {f.width} {f.height}" role="img" font-family="{_text(_FONT)}" '
+        f'font-size="{f.font:g}">',
+        f"<title>{_text(title)}</title>",
+        f"<desc>{desc}</desc>",
+        f'<rect x="0" y="0" width="{f.width}" height="{f.height}" fill="#ffffff"/>',
+        f'<defs><clipPath id="{clip_id}"><rect x="{_coordinate(f.left)}" '
+        f'y="{_coordinate(f.top)}" width="{_coordinate(f.plot_w)}" '
+        f'height="{_coordinate(f.plot_h)}"/></clipPath></defs>',
+        f'<text x="{_coordinate(f.left)}" y="24" font-size="14" font-weight="600" '
+        f'fill="#1a1a1a">{_text(title)}</text>',
+    ]
+
+
+def _grid_and_ticks(f: _Frame, px, py, y_labelled, x_labelled, *, y_minor=(),
+                    x_minor=()) -> list[str]:
+    """Grid lines with their tick labels ((value, text) pairs), and short unlabelled
+    minor ticks on the outside of the axes."""
+    left, top, plot_w, plot_h = f.left, f.top, f.plot_w, f.plot_h
+    grid = ['<g stroke="#d9d9d9" stroke-width="1">']
+    ticks = ['<g fill="#333333">']
+    for t, text in y_labelled:
+        y = py(t)
+        grid.append(_line_tag(left, y, left + plot_w, y))
+        ticks.append(f'<text x="{_coordinate(left - 8)}" y="{_coordinate(y + 4)}" '
+                     f'text-anchor="end">{_text(text)}</text>')
+    for t in y_minor:
+        y = py(t)
+        if top - 0.5 <= y <= top + plot_h + 0.5:
+            grid.append(_line_tag(left - 3, y, left, y, ' stroke="#555555"'))
+    for t, text in x_labelled:
+        x_px = px(t)
+        grid.append(_line_tag(x_px, top, x_px, top + plot_h))
+        ticks.append(f'<text x="{_coordinate(x_px)}" y="{_coordinate(top + plot_h + 17)}" '
+                     f'text-anchor="middle">{_text(text)}</text>')
+    for t in x_minor:
+        x_px = px(t)
+        if left - 0.5 <= x_px <= left + plot_w + 0.5:
+            grid.append(_line_tag(x_px, top + plot_h, x_px, top + plot_h + 3,
+                                  ' stroke="#555555"'))
+    grid.append("</g>")
+    ticks.append("</g>")
+    return grid + ticks
+
+
+def _axis_labels(out: list, f: _Frame, x_label: str, y_label: str) -> None:
+    """Append the plot area's border and the two axis labels."""
+    left, top, plot_w, plot_h = f.left, f.top, f.plot_w, f.plot_h
+    out.append(f'<rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
+               f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}" fill="none" '
+               'stroke="#333333" stroke-width="1"/>')
+    out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
+               f'y="{_coordinate(top + plot_h + 36)}" text-anchor="middle" '
+               f'fill="#1a1a1a">{_text(x_label)}</text>')
+    out.append(f'<text transform="translate(18 {_coordinate(top + plot_h / 2)}) rotate(-90)" '
+               f'text-anchor="middle" fill="#1a1a1a">{_text(y_label)}</text>')
+
+
+def _limit_dashes(lines: dict) -> dict:
+    """Label -> dash pattern of each limit line, in the order given."""
+    return {label: LIMIT_DASHES[i % len(LIMIT_DASHES)] for i, label in enumerate(lines)}
+
+
+def _limits(out: list, clip_id: str, line_tags: list[str], label_tags: list[str]) -> None:
+    """Append the limit lines (clipped to the plot area) and their labels, in `LIMIT_STYLE`."""
+    colour, _, stroke = LIMIT_STYLE
+    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}">')
+    out += line_tags
+    out.append("</g>")
+    out.append(f'<g fill="{colour}" font-size="11" text-anchor="end">')
+    out += label_tags
+    out.append("</g>")
+
+
+def _hline_tags(f: _Frame, lines: dict, py) -> tuple[list[str], list[str]]:
+    """Horizontal limit lines, and their labels at the right, nudged apart so they
+    stay legible."""
+    left, top, plot_w, plot_h = f.left, f.top, f.plot_w, f.plot_h
+    placed = sorted(((py(v), label) for label, v in lines.items()), key=lambda item: -item[0])
+    dashes = _limit_dashes(lines)
+    line_tags = [_line_tag(left, y, left + plot_w, y, f' stroke-dasharray="{dashes[label]}"')
+                 for y, label in placed]
+    label_tags = []
+    boxes: list[tuple[float, float, float]] = []  # (left, right, baseline) of labels placed
+    for y, label in placed:
+        baseline = max(min(y - 4.0, top + plot_h - 4.0), top + 11.0)
+        wide = len(label) * 11.0 * _CHAR_WIDTH
+        end = left + plot_w - 4.0
+        for _ in range(len(boxes) + 1):
+            clash = [b for b in boxes if abs(b[2] - baseline) < 12.0 and b[0] < end
+                     and end - wide < b[1]]
+            if not clash:
+                break
+            end = min(b[0] for b in clash) - 10.0
+        if end - wide < left + 4.0:  # no room beside the others: stack it above them
+            end = left + plot_w - 4.0
+            baseline = max(top + 11.0, min(b[2] for b in boxes) - 13.0)
+        boxes.append((end - wide, end, baseline))
+        label_tags.append(f'<text x="{_coordinate(end)}" y="{_coordinate(baseline)}" '
+                          f'paint-order="stroke" stroke="#ffffff" stroke-width="3">'
+                          f"{_text(label)}</text>")
+    return line_tags, label_tags
+
+
+def _vline_tags(f: _Frame, lines: dict, px) -> tuple[list[str], list[str]]:
+    """Vertical limit lines (those not left of the axis), each labelled along its left
+    side, or its right when crowded."""
+    left, top, plot_w, plot_h = f.left, f.top, f.plot_w, f.plot_h
+    placed = sorted(((px(v), label) for label, v in lines.items()
+                     if px(v) >= left - 0.5), key=lambda item: (item[0], item[1]))
+    dashes = _limit_dashes(lines)
+    line_tags = [f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top)}" '
+                 f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}" '
+                 f'stroke-dasharray="{dashes[label]}">'
+                 f"<title>{_text(label)}</title></line>" for x_px, label in placed]
+    label_tags = []
+    room = max(4, int((plot_h - 8.0) / (11.0 * _CHAR_WIDTH)))
+    last = -math.inf  # page x of the last label's baseline
+    for x_px, label in placed:
+        baseline = x_px - 4.0
+        if baseline - 11.0 < last + 2.0:
+            baseline = max(x_px + 14.0, last + 13.0)
+        baseline = min(max(baseline, left + 12.0), left + plot_w - 2.0)
+        last = baseline
+        shown = label if len(label) <= room else label[: room - 1] + "…"
+        label_tags.append(f'<text transform="translate({_coordinate(baseline)} '
+                          f'{_coordinate(top + 4.0)}) rotate(-90)" paint-order="stroke" '
+                          f'stroke="#ffffff" stroke-width="3">{_text(shown)}</text>')
+    return line_tags, label_tags
+
+
+def _series_paths(out: list, clip_id: str, drawn) -> None:
+    """Append the series as paths clipped to the plot area: `drawn` holds (place k
+    among the series, which sets the style; label; lists of "x,y" points)."""
+    out.append(f'<g clip-path="url(#{clip_id})" fill="none" stroke-width="2.2" '
+               'stroke-linejoin="round" stroke-linecap="round">')
+    for k, label, segments in drawn:
+        colour_k, dash_k = SERIES_STYLES[k % len(SERIES_STYLES)]
+        d = " ".join("M" + " L".join(seg) if len(seg) > 1 else f"M{seg[0]} l0.01,0"
+                     for seg in segments)
+        out.append(f'<path d="{d}" stroke="{colour_k}"{_dash_attr(dash_k)}>'
+                   f"<title>{_text(label)}</title></path>")
+    out.append("</g>")
+
+
+# --------------------------------------------------------------------------
+# line plot
+
+
+def _validate(x, series, hlines, width, height):
+    xs = np.asarray(x, dtype=float)
+    if xs.ndim != 1 or xs.size == 0:
+        raise InputError("x", "give a one-dimensional sequence of at least one number")
+    if not isinstance(series, dict) or not series:
+        raise InputError("series", "give a mapping of label -> y values with at least one series")
+    ys = {}
+    for label, values in series.items():
+        try:
+            y = np.asarray(values, dtype=float)
+        except (TypeError, ValueError):
+            raise InputError("series", f"the values of {str(label)!r} are not numbers") from None
+        if y.shape != xs.shape:
+            raise InputError("series", f"{str(label)!r} has {y.size} values for {xs.size} x "
+                             "values; give one y value per x value")
+        ys[str(label)] = y
+    lines = _limit_values(hlines, "hlines", "level")
+    _check_size(width, height)
+    return xs, ys, lines
+
+
+def _line_x_range(xs: np.ndarray, log_x) -> tuple[float, float, list, bool]:
+    """Ends and labelled ticks of a line plot's x axis, and whether it is logarithmic
+    (only when asked and two different positive values exist)."""
+    finite_x = xs[np.isfinite(xs)]
+    if finite_x.size == 0:
+        x_lo, x_hi = 0.0, 1.0
+    else:
+        x_lo, x_hi = float(finite_x.min()), float(finite_x.max())
+    if x_hi <= x_lo:
+        pad = abs(x_lo) * 0.5 or 1.0
+        x_lo, x_hi = x_lo - pad, x_hi + pad
+    positive_x = finite_x[finite_x > 0]
+    if log_x and positive_x.size >= 2 and positive_x.max() > positive_x.min():
+        x_lo, x_hi = float(positive_x.min()), float(positive_x.max())
+        major, _ = log_ticks(x_lo, x_hi)
+        x_ticks = [t for t in major if x_lo * (1 - 1e-9) <= t <= x_hi * (1 + 1e-9)]
+        return x_lo, x_hi, [(t, tick_label(t)) for t in x_ticks], True
+    x_ticks = nice_ticks(x_lo, x_hi, 7)
+    x_step = x_ticks[1] - x_ticks[0] if len(x_ticks) > 1 else 1.0
+    x_ticks = [t for t in x_ticks
+               if x_lo - 1e-9 * abs(x_step) <= t <= x_hi + 1e-9 * abs(x_step)]
+    return x_lo, x_hi, [(t, tick_label(t, x_step)) for t in x_ticks], False
+
+
+def _line_segments(xs, y, keep, px, py, f: _Frame, log_x, log_y) -> list[list[str]]:
+    """The points of one series, broken where a value cannot be drawn; on a
+    logarithmic y axis values off its ends run just past the plot area."""
+    top, plot_h = f.top, f.plot_h
+    segments, current = [], []
+    for i in keep:
+        xv, yv = xs[i], y[i]
+        if (not math.isfinite(xv) or math.isnan(yv) or (log_x and not xv > 0)
+                or (not log_y and not math.isfinite(yv))):
+            if current:
+                segments.append(current)
+            current = []
+            continue
+        yp = py(yv) if not (log_y and yv == math.inf) else top - 12.0
+        yp = min(yp, top + plot_h + 12.0)
+        current.append(f"{_coordinate(px(xv))},{_coordinate(yp)}")
+    if current:
+        segments.append(current)
+    return segments
+
 
 def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
                   hlines: dict | None = None, log_y: bool = False, width: int = 720,
@@ -329,210 +650,35 @@ def line_plot_svg(x, series: dict, *, x_label: str, y_label: str, title: str,
     True
     """
     xs, ys, lines = _validate(x, series, hlines, width, height)
-    font = 12.0
     labels = list(ys)
-    left, right, top = 84.0, 24.0, 42.0
-    rows = _legend_rows(labels, width - left - right, font)
-    bottom = 52.0 + 18.0 * _legend_height(rows)
-    plot_w = width - left - right
-    plot_h = height - top - bottom
-    if plot_h < 60:
-        raise InputError("height", f"{height} px leaves no room for the plot and a legend of "
-                         f"{len(labels)} series; make it taller")
-
-    # x range and scale
-    finite_x = xs[np.isfinite(xs)]
-    if finite_x.size == 0:
-        x_lo, x_hi = 0.0, 1.0
-    else:
-        x_lo, x_hi = float(finite_x.min()), float(finite_x.max())
-    if x_hi <= x_lo:
-        pad = abs(x_lo) * 0.5 or 1.0
-        x_lo, x_hi = x_lo - pad, x_hi + pad
-    positive_x = finite_x[finite_x > 0]
-    if log_x and positive_x.size >= 2 and positive_x.max() > positive_x.min():
-        x_lo, x_hi = float(positive_x.min()), float(positive_x.max())
-        major, _ = log_ticks(x_lo, x_hi)
-        x_ticks = [t for t in major if x_lo * (1 - 1e-9) <= t <= x_hi * (1 + 1e-9)]
-        x_step = None
-        span_x = math.log10(x_hi) - math.log10(x_lo)
-
-        def px(value):
-            if not value > 0:
-                return float("nan")
-            return left + (math.log10(value) - math.log10(x_lo)) / span_x * plot_w
-    else:
+    f = _frame(labels, width, height)
+    x_lo, x_hi, x_labelled, logarithmic_x = _line_x_range(xs, log_x)
+    if not logarithmic_x:
         log_x = False
-        x_ticks = nice_ticks(x_lo, x_hi, 7)
-        x_step = x_ticks[1] - x_ticks[0] if len(x_ticks) > 1 else 1.0
-        x_ticks = [t for t in x_ticks
-                   if x_lo - 1e-9 * abs(x_step) <= t <= x_hi + 1e-9 * abs(x_step)]
-
-        def px(value):
-            return left + (value - x_lo) / (x_hi - x_lo) * plot_w
-
-    # y range and scale
+    px = _scale(x_lo, x_hi, f.left, f.plot_w, log=log_x)
     values = np.concatenate([y[np.isfinite(y) & np.isfinite(xs)] for y in ys.values()]
                             + [np.array(list(lines.values()), dtype=float)])
-    note = ""
-    y_minor: list[float] = []
-    if log_y:
-        positive = values[values > 0]
-        if positive.size == 0:
-            y_lo, y_hi = 1.0, 10.0
-            note = "no value above zero to show on a logarithmic axis"
-        else:
-            y_hi = float(positive.max())
-            y_lo = max(float(positive.min()), y_hi / 10.0 ** MAX_LOG_DECADES)
-        y_ticks, y_minor = log_ticks(y_lo * 0.999, y_hi * 1.001)
-        y_lo = 10.0 ** math.floor(math.log10(y_ticks[0]) + 1e-9)
-        y_hi = 10.0 ** math.ceil(math.log10(y_ticks[-1]) - 1e-9)
-        span = math.log10(y_hi) - math.log10(y_lo)
+    y_lo, y_hi, y_labelled, y_minor, note = (
+        _log_range(values) if log_y else _linear_range(values, 5, margin=True))
+    py = _scale(y_lo, y_hi, f.top + f.plot_h, -f.plot_h, log=log_y,
+                off=f.top + f.plot_h + 12.0)
 
-        def py(value):
-            if not value > 0:
-                return top + plot_h + 12.0
-            return top + plot_h - (math.log10(value) - math.log10(y_lo)) / span * plot_h
-        labelled = [(t, tick_label(t)) for t in y_ticks]
-    else:
-        if values.size == 0:
-            y_lo, y_hi = 0.0, 1.0
-            note = "no finite value to show"
-        else:
-            y_lo, y_hi = float(values.min()), float(values.max())
-            if y_lo > 0 and y_lo < 0.5 * y_hi:
-                y_lo = 0.0  # concentrations read best from zero
-        if y_hi <= y_lo:
-            pad = abs(y_lo) * 0.5 or 1.0
-            y_lo, y_hi = y_lo - pad, y_hi + pad
-        margin = 0.02 * (y_hi - y_lo)
-        y_ticks = nice_ticks(y_lo - (margin if y_lo != 0 else 0.0), y_hi + margin, 5)
-        y_lo, y_hi = y_ticks[0], y_ticks[-1]
-        y_step = y_ticks[1] - y_ticks[0]
-
-        def py(value):
-            return top + plot_h - (value - y_lo) / (y_hi - y_lo) * plot_h
-        labelled = [(t, tick_label(t, y_step)) for t in y_ticks]
-
-    digest = hashlib.sha1()
-    for part in (title, x_label, y_label, repr(sorted(lines.items())), repr(labels),
-                 str(log_y) + str(log_x), f"{width}x{height}"):
-        digest.update(part.encode("utf-8", "replace"))
-    digest.update(xs.tobytes())
-    for y in ys.values():
-        digest.update(y.tobytes())
-    clip_id = "plotarea-" + digest.hexdigest()[:12]
-
-    out = [
-        f'<svg xmlns="http://www.w3.org/2000/svg" width="{width}" height="{height}" '
-        f'viewBox="0 0 {width} {height}" role="img" font-family="{_text(_FONT)}" '
-        f'font-size="{font:g}">',
-        f"<title>{_text(title)}</title>",
-        f"<desc>{_text(y_label)} against {_text(x_label)}"
-        + ("; logarithmic y axis" if log_y else "")
-        + ("; logarithmic x axis" if log_x else "") + "</desc>",
-        f'<rect x="0" y="0" width="{width}" height="{height}" fill="#ffffff"/>',
-        f'<defs><clipPath id="{clip_id}"><rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
-        f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}"/></clipPath></defs>',
-        f'<text x="{_coordinate(left)}" y="24" font-size="14" font-weight="600" '
-        f'fill="#1a1a1a">{_text(title)}</text>',
-    ]
-    # grid and ticks
-    grid = ['<g stroke="#d9d9d9" stroke-width="1">']
-    ticks = ['<g fill="#333333">']
-    for t, text in labelled:
-        y = py(t)
-        grid.append(f'<line x1="{_coordinate(left)}" y1="{_coordinate(y)}" '
-                    f'x2="{_coordinate(left + plot_w)}" y2="{_coordinate(y)}"/>')
-        ticks.append(f'<text x="{_coordinate(left - 8)}" y="{_coordinate(y + 4)}" '
-                     f'text-anchor="end">{_text(text)}</text>')
-    for t in y_minor:
-        y = py(t)
-        if top - 0.5 <= y <= top + plot_h + 0.5:
-            grid.append(f'<line x1="{_coordinate(left - 3)}" y1="{_coordinate(y)}" '
-                        f'x2="{_coordinate(left)}" y2="{_coordinate(y)}" stroke="#555555"/>')
-    for t in x_ticks:
-        x_px = px(t)
-        grid.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top)}" '
-                    f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}"/>')
-        ticks.append(f'<text x="{_coordinate(x_px)}" y="{_coordinate(top + plot_h + 17)}" '
-                     f'text-anchor="middle">{_text(tick_label(t, x_step))}</text>')
-    grid.append("</g>")
-    ticks.append("</g>")
-    out += grid + ticks
-    out.append(f'<rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
-               f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}" fill="none" '
-               'stroke="#333333" stroke-width="1"/>')
-    out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
-               f'y="{_coordinate(top + plot_h + 36)}" text-anchor="middle" '
-               f'fill="#1a1a1a">{_text(x_label)}</text>')
-    out.append(f'<text transform="translate(18 {_coordinate(top + plot_h / 2)}) rotate(-90)" '
-               f'text-anchor="middle" fill="#1a1a1a">{_text(y_label)}</text>')
-
-    # limit lines, labels nudged apart so they stay legible
-    colour, dash, stroke = LIMIT_STYLE
-    placed = sorted(((py(v), label) for label, v in lines.items()), key=lambda item: -item[0])
-    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}">')
-    dashes = {label: LIMIT_DASHES[i % len(LIMIT_DASHES)] for i, label in enumerate(lines)}
-    for y, label in placed:
-        out.append(f'<line x1="{_coordinate(left)}" y1="{_coordinate(y)}" '
-                   f'x2="{_coordinate(left + plot_w)}" y2="{_coordinate(y)}" '
-                   f'stroke-dasharray="{dashes[label]}"/>')
-    out.append("</g>")
-    out.append(f'<g fill="{colour}" font-size="11" text-anchor="end">')
-    boxes: list[tuple[float, float, float]] = []  # (left, right, baseline) of labels placed
-    for y, label in placed:
-        baseline = max(min(y - 4.0, top + plot_h - 4.0), top + 11.0)
-        wide = len(label) * 11.0 * _CHAR_WIDTH
-        end = left + plot_w - 4.0
-        for _ in range(len(boxes) + 1):
-            clash = [b for b in boxes if abs(b[2] - baseline) < 12.0 and b[0] < end
-                     and end - wide < b[1]]
-            if not clash:
-                break
-            end = min(b[0] for b in clash) - 10.0
-        if end - wide < left + 4.0:  # no room beside the others: stack it above them
-            end = left + plot_w - 4.0
-            baseline = max(top + 11.0, min(b[2] for b in boxes) - 13.0)
-        boxes.append((end - wide, end, baseline))
-        out.append(f'<text x="{_coordinate(end)}" y="{_coordinate(baseline)}" '
-                   f'paint-order="stroke" stroke="#ffffff" stroke-width="3">'
-                   f"{_text(label)}</text>")
-    out.append("</g>")
-
-    # series
+    clip_id = _clip_id((title, x_label, y_label, repr(sorted(lines.items())), repr(labels),
+                        str(log_y) + str(log_x), f"{width}x{height}"), [xs, *ys.values()])
+    out = _head(f, title, f"{_text(y_label)} against {_text(x_label)}"
+                + ("; logarithmic y axis" if log_y else "")
+                + ("; logarithmic x axis" if log_x else ""), clip_id)
+    out += _grid_and_ticks(f, px, py, y_labelled, x_labelled, y_minor=y_minor)
+    _axis_labels(out, f, x_label, y_label)
+    _limits(out, clip_id, *_hline_tags(f, lines, py))
     keep = _thin(xs, list(ys.values()), MAX_PLOT_POINTS)
-    out.append(f'<g clip-path="url(#{clip_id})" fill="none" stroke-width="2.2" '
-               'stroke-linejoin="round" stroke-linecap="round">')
-    for k, (label, y) in enumerate(ys.items()):
-        colour_k, dash_k = SERIES_STYLES[k % len(SERIES_STYLES)]
-        segments, current = [], []
-        for i in keep:
-            xv, yv = xs[i], y[i]
-            if (not math.isfinite(xv) or math.isnan(yv) or (log_x and not xv > 0)
-                    or (not log_y and not math.isfinite(yv))):
-                if current:
-                    segments.append(current)
-                current = []
-                continue
-            yp = py(yv) if not (log_y and yv == math.inf) else top - 12.0
-            yp = min(yp, top + plot_h + 12.0)
-            current.append(f"{_coordinate(px(xv))},{_coordinate(yp)}")
-        if current:
-            segments.append(current)
-        if not segments:
-            continue
-        d = " ".join("M" + " L".join(seg) if len(seg) > 1 else f"M{seg[0]} l0.01,0"
-                     for seg in segments)
-        dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
-        out.append(f'<path d="{d}" stroke="{colour_k}"{dash_attr}>'
-                   f"<title>{_text(label)}</title></path>")
-    out.append("</g>")
-
-    _legend(out, rows, left, top + plot_h + 52.0, font)
+    drawn = [(k, label, _line_segments(xs, y, keep, px, py, f, log_x, log_y))
+             for k, (label, y) in enumerate(ys.items())]
+    _series_paths(out, clip_id, [item for item in drawn if item[2]])
+    _legend(out, f)
     if note:
-        out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
-                   f'y="{_coordinate(top + plot_h / 2)}" text-anchor="middle" '
+        out.append(f'<text x="{_coordinate(f.left + f.plot_w / 2)}" '
+                   f'y="{_coordinate(f.top + f.plot_h / 2)}" text-anchor="middle" '
                    f'fill="#555555">{_text(note)}</text>')
     out.append("</svg>")
     return "\n".join(out) + "\n"
@@ -632,6 +778,36 @@ def cumulative_points(samples, max_points: int = MAX_PLOT_POINTS,
     return x[order], y[order]
 
 
+
+def _samples_of(samples) -> tuple[dict, int]:
+    """Label -> sorted samples without NaN, and how many NaN samples were left out."""
+    if not isinstance(samples, dict) or not samples:
+        raise InputError("samples", "give a mapping of label -> samples with at least one "
+                         "series")
+    series = {}
+    dropped = 0
+    for label, values in samples.items():
+        ordered, missing = _finite_sorted(values, str(label))
+        series[str(label)] = ordered
+        dropped += missing
+    return series, dropped
+
+
+def _cumulative_curves(series: dict, px, py, log_x) -> list:
+    """(place, label, points) of each series' cumulative curve that has points to draw."""
+    drawn = []
+    for k, (label, ordered) in enumerate(series.items()):
+        xs, fs = cumulative_points(ordered, MAX_PLOT_POINTS, log_x)
+        if log_x:
+            visible = xs > 0
+            xs, fs = xs[visible], fs[visible]
+        if xs.size == 0:
+            continue
+        drawn.append((k, label, [[f"{_coordinate(px(float(xv)))},{_coordinate(py(float(fv)))}"
+                                  for xv, fv in zip(xs, fs)]]))
+    return drawn
+
+
 def cumulative_plot_svg(samples: dict, *, x_label: str, title: str,
                         vlines: dict | None = None, log_x: bool = False,
                         y_label: str = "fraction of samples at or below",
@@ -681,184 +857,36 @@ def cumulative_plot_svg(samples: dict, *, x_label: str, title: str,
     >>> svg.startswith("<svg") and "TWA &amp; peak" in svg and "room &lt;1&gt;" in svg
     True
     """
-    if not isinstance(samples, dict) or not samples:
-        raise InputError("samples", "give a mapping of label -> samples with at least one "
-                         "series")
-    series = {}
-    dropped = 0
-    for label, values in samples.items():
-        ordered, missing = _finite_sorted(values, str(label))
-        series[str(label)] = ordered
-        dropped += missing
-    lines = {}
-    for label, value in (vlines or {}).items():
-        try:
-            v = float(value)
-        except (TypeError, ValueError):
-            raise InputError("vlines", f"the position of {str(label)!r} is not a number") from None
-        if math.isfinite(v):
-            lines[str(label)] = v
-    if not (200 <= width <= 4000 and 150 <= height <= 4000):
-        raise InputError("width", "the plot must be 200-4000 px wide and 150-4000 px high")
-    font = 12.0
+    series, dropped = _samples_of(samples)
+    lines = _limit_values(vlines, "vlines", "position")
+    _check_size(width, height)
     labels = list(series)
-    left, right, top = 84.0, 24.0, 42.0
-    rows = _legend_rows(labels, width - left - right, font)
-    bottom = 52.0 + 18.0 * _legend_height(rows)
-    plot_w = width - left - right
-    plot_h = height - top - bottom
-    if plot_h < 60:
-        raise InputError("height", f"{height} px leaves no room for the plot and a legend of "
-                         f"{len(labels)} series; make it taller")
-
+    f = _frame(labels, width, height)
     finite = np.concatenate([a[np.isfinite(a)] for a in series.values()]
                             + [np.array(list(lines.values()), dtype=float)])
-    notes = []
-    x_minor: list[float] = []
-    if log_x:
-        positive = finite[finite > 0]
-        if positive.size == 0:
-            x_lo, x_hi = 1.0, 10.0
-            notes.append("no value above zero to show on a logarithmic axis")
-        else:
-            x_hi = float(positive.max())
-            x_lo = max(float(positive.min()), x_hi / 10.0 ** MAX_LOG_DECADES)
-        x_ticks, x_minor = log_ticks(x_lo * 0.999, x_hi * 1.001)
-        x_lo = 10.0 ** math.floor(math.log10(x_ticks[0]) + 1e-9)
-        x_hi = 10.0 ** math.ceil(math.log10(x_ticks[-1]) - 1e-9)
-        span = math.log10(x_hi) - math.log10(x_lo)
-
-        def px(value):
-            if not value > 0:
-                return left - 12.0
-            return left + (math.log10(value) - math.log10(x_lo)) / span * plot_w
-        labelled = [(t, tick_label(t)) for t in x_ticks]
-    else:
-        x_lo, x_hi = float(finite.min()), float(finite.max())
-        if 0 < x_lo < 0.5 * x_hi:
-            x_lo = 0.0  # concentrations read best from zero
-        if x_hi <= x_lo:
-            pad = abs(x_lo) * 0.5 or 1.0
-            x_lo, x_hi = x_lo - pad, x_hi + pad
-        x_ticks = nice_ticks(x_lo, x_hi, 7)
-        x_lo, x_hi = x_ticks[0], x_ticks[-1]
-        x_step = x_ticks[1] - x_ticks[0]
-
-        def px(value):
-            return left + (value - x_lo) / (x_hi - x_lo) * plot_w
-        labelled = [(t, tick_label(t, x_step)) for t in x_ticks]
-
-    def py(fraction):
-        return top + plot_h - fraction * plot_h
-
-    below = [label for label, v in lines.items() if px(v) < left - 0.5]
+    x_lo, x_hi, x_labelled, x_minor, note = (
+        _log_range(finite) if log_x else _linear_range(finite, 7, margin=False))
+    px = _scale(x_lo, x_hi, f.left, f.plot_w, log=log_x, off=f.left - 12.0)
+    py = _scale(0.0, 1.0, f.top + f.plot_h, -f.plot_h)
+    notes = [note] if note else []
+    below = [label for label, v in lines.items() if px(v) < f.left - 0.5]
     if below:
         notes.append("left of the axis: " + "; ".join(below))
     if dropped:
         notes.append(f"{dropped} sample(s) that are not numbers (NaN) left out")
 
-    digest = hashlib.sha1()
-    for part in ("cumulative", title, x_label, y_label, repr(sorted(lines.items())),
-                 repr(labels), str(log_x), f"{width}x{height}"):
-        digest.update(part.encode("utf-8", "replace"))
-    for a in series.values():
-        digest.update(a.tobytes())
-    clip_id = "plotarea-" + digest.hexdigest()[:12]
-
-    out = [
-        f'<svg xmlns="http://www.w3.org/2000/svg" width="{width}" height="{height}" '
-        f'viewBox="0 0 {width} {height}" role="img" font-family="{_text(_FONT)}" '
-        f'font-size="{font:g}">',
-        f"<title>{_text(title)}</title>",
-        f"<desc>Cumulative distribution: {_text(y_label)} each value of {_text(x_label)}"
-        + ("; logarithmic x axis" if log_x else "") + "</desc>",
-        f'<rect x="0" y="0" width="{width}" height="{height}" fill="#ffffff"/>',
-        f'<defs><clipPath id="{clip_id}"><rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
-        f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}"/></clipPath></defs>',
-        f'<text x="{_coordinate(left)}" y="24" font-size="14" font-weight="600" '
-        f'fill="#1a1a1a">{_text(title)}</text>',
-    ]
-    grid = ['<g stroke="#d9d9d9" stroke-width="1">']
-    ticks = ['<g fill="#333333">']
-    for t in nice_ticks(0.0, 1.0, 5):
-        y = py(t)
-        grid.append(f'<line x1="{_coordinate(left)}" y1="{_coordinate(y)}" '
-                    f'x2="{_coordinate(left + plot_w)}" y2="{_coordinate(y)}"/>')
-        ticks.append(f'<text x="{_coordinate(left - 8)}" y="{_coordinate(y + 4)}" '
-                     f'text-anchor="end">{_text(tick_label(t, 0.2))}</text>')
-    for t, text in labelled:
-        x_px = px(t)
-        grid.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top)}" '
-                    f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}"/>')
-        ticks.append(f'<text x="{_coordinate(x_px)}" y="{_coordinate(top + plot_h + 17)}" '
-                     f'text-anchor="middle">{_text(text)}</text>')
-    for t in x_minor:
-        x_px = px(t)
-        if left - 0.5 <= x_px <= left + plot_w + 0.5:
-            grid.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top + plot_h)}" '
-                        f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h + 3)}" '
-                        'stroke="#555555"/>')
-    grid.append("</g>")
-    ticks.append("</g>")
-    out += grid + ticks
-    out.append(f'<rect x="{_coordinate(left)}" y="{_coordinate(top)}" '
-               f'width="{_coordinate(plot_w)}" height="{_coordinate(plot_h)}" fill="none" '
-               'stroke="#333333" stroke-width="1"/>')
-    out.append(f'<text x="{_coordinate(left + plot_w / 2)}" '
-               f'y="{_coordinate(top + plot_h + 36)}" text-anchor="middle" '
-               f'fill="#1a1a1a">{_text(x_label)}</text>')
-    out.append(f'<text transform="translate(18 {_coordinate(top + plot_h / 2)}) rotate(-90)" '
-               f'text-anchor="middle" fill="#1a1a1a">{_text(y_label)}</text>')
-
-    # limit lines, vertical, each labelled along its left side (or its right when crowded)
-    colour, dash, stroke = LIMIT_STYLE
-    placed = sorted(((px(v), label) for label, v in lines.items()
-                     if px(v) >= left - 0.5), key=lambda item: (item[0], item[1]))
-    out.append(f'<g clip-path="url(#{clip_id})" stroke="{colour}" stroke-width="{stroke:g}">')
-    dashes = {label: LIMIT_DASHES[i % len(LIMIT_DASHES)] for i, label in enumerate(lines)}
-    for x_px, label in placed:
-        out.append(f'<line x1="{_coordinate(x_px)}" y1="{_coordinate(top)}" '
-                   f'x2="{_coordinate(x_px)}" y2="{_coordinate(top + plot_h)}" '
-                   f'stroke-dasharray="{dashes[label]}">'
-                   f"<title>{_text(label)}</title></line>")
-    out.append("</g>")
-    out.append(f'<g fill="{colour}" font-size="11" text-anchor="end">')
-    room = max(4, int((plot_h - 8.0) / (11.0 * _CHAR_WIDTH)))
-    last = -math.inf  # page x of the last label's baseline
-    for x_px, label in placed:
-        baseline = x_px - 4.0
-        if baseline - 11.0 < last + 2.0:
-            baseline = max(x_px + 14.0, last + 13.0)
-        baseline = min(max(baseline, left + 12.0), left + plot_w - 2.0)
-        last = baseline
-        shown = label if len(label) <= room else label[: room - 1] + "…"
-        out.append(f'<text transform="translate({_coordinate(baseline)} '
-                   f'{_coordinate(top + 4.0)}) rotate(-90)" paint-order="stroke" '
-                   f'stroke="#ffffff" stroke-width="3">{_text(shown)}</text>')
-    out.append("</g>")
-
-    # curves
-    out.append(f'<g clip-path="url(#{clip_id})" fill="none" stroke-width="2.2" '
-               'stroke-linejoin="round" stroke-linecap="round">')
-    for k, (label, ordered) in enumerate(series.items()):
-        colour_k, dash_k = SERIES_STYLES[k % len(SERIES_STYLES)]
-        xs, fs = cumulative_points(ordered, MAX_PLOT_POINTS, log_x)
-        if log_x:
-            visible = xs > 0
-            xs, fs = xs[visible], fs[visible]
-        if xs.size == 0:
-            continue
-        points = [f"{_coordinate(px(float(xv)))},{_coordinate(py(float(fv)))}"
-                  for xv, fv in zip(xs, fs)]
-        d = "M" + " L".join(points) if len(points) > 1 else f"M{points[0]} l0.01,0"
-        dash_attr = f' stroke-dasharray="{dash_k}"' if dash_k else ""
-        out.append(f'<path d="{d}" stroke="{colour_k}"{dash_attr}>'
-                   f"<title>{_text(label)}</title></path>")
-    out.append("</g>")
-
-    _legend(out, rows, left, top + plot_h + 52.0, font)
+    clip_id = _clip_id(("cumulative", title, x_label, y_label, repr(sorted(lines.items())),
+                        repr(labels), str(log_x), f"{width}x{height}"), series.values())
+    out = _head(f, title, f"Cumulative distribution: {_text(y_label)} each value of "
+                f"{_text(x_label)}" + ("; logarithmic x axis" if log_x else ""), clip_id)
+    y_labelled = [(t, tick_label(t, 0.2)) for t in nice_ticks(0.0, 1.0, 5)]
+    out += _grid_and_ticks(f, px, py, y_labelled, x_labelled, x_minor=x_minor)
+    _axis_labels(out, f, x_label, y_label)
+    _limits(out, clip_id, *_vline_tags(f, lines, px))
+    _series_paths(out, clip_id, _cumulative_curves(series, px, py, log_x))
+    _legend(out, f)
     for i, note in enumerate(notes):
-        out.append(f'<text x="{_coordinate(left + 8)}" y="{_coordinate(top + 16 + 15 * i)}" '
+        out.append(f'<text x="{_coordinate(f.left + 8)}" y="{_coordinate(f.top + 16 + 15 * i)}" '
                    f'fill="#555555">{_text(note)}</text>')
     out.append("</svg>")
     return "\n".join(out) + "\n"

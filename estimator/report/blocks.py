@@ -74,6 +74,11 @@ def _plot(name, caption, x, series, hlines, *, x_label, y_label, title, log_x=Fa
     return Plot(name, caption, svg)
 
 
+def _limit_lines(result, keys) -> dict:
+    """Short label -> ppm of the limits entered for the substances `keys`."""
+    return {short_limit(lim): lim.ppm for lim in limits_of(result, set(keys))}
+
+
 def _tank_plots(result, index, tank) -> list:
     sweep = tank.sweep
     if sweep is None or np.ndim(sweep.temperature) == 0:
@@ -85,7 +90,7 @@ def _tank_plots(result, index, tank) -> list:
     series = {c.name: ppm[j] for j, c in enumerate(comps)}
     if len(comps) > 1:
         series["all vapour"] = np.asarray(sweep.total_ppm, dtype=float)
-    hlines = {short_limit(lim): lim.ppm for lim in limits_of(result, {c.key for c in comps})}
+    hlines = _limit_lines(result, {c.key for c in comps})
     stem = f"tank{index + 1}-{file_slug(tank.name)}"
     out.append(_plot(
         f"{stem}-headspace-ppm", f"Tank {tank.name}: equilibrium headspace concentration "
@@ -110,90 +115,113 @@ def _tank_plots(result, index, tank) -> list:
     return out
 
 
+def _indoor_plots(result, stem, spill) -> list:
+    """Concentration against time in each zone (split by zone when there are many
+    curves), and % of the LFL against time in the zones where it is judged."""
+    out = []
+    ind = spill.indoor
+    names = list(ind.components)
+    hlines = _limit_lines(result, spill_keys(result, spill, names))
+    series = {}
+    for zone, label in indoor_zones(ind):
+        ppm = np.asarray(ind.ppm(zone), dtype=float)
+        for j, name in enumerate(names):
+            series[f"{label}: {name}" if len(names) > 1 else label] = ppm[:, j]
+    minutes = np.asarray(ind.times, dtype=float) / 60.0
+    groups = [series]
+    if len(series) > 6:
+        groups = [{k: v for k, v in series.items() if k.startswith(label + ":")}
+                  for _, label in indoor_zones(ind)]
+    for g, group in enumerate(groups):
+        suffix = "" if len(groups) == 1 else f"-{g + 1}"
+        out.append(_plot(
+            f"{stem}-concentration-time{suffix}", f"Spill {spill.name}: concentration "
+            f"against time after the spill in {spill.where} ({ind.model}), with the "
+            "exposure limits (dashed).", minutes, group, hlines,
+            x_label="time after the spill [min]", y_label="concentration [ppm by volume]",
+            title=f"Spill {spill.name}: concentration by time"))
+    judged = [z for z in spill.flammability if z.judged and z.percent_lfl is not None]
+    if judged:
+        alarm = judged[0].alarm_percent_lfl
+        lines = {f"LFL alarm ({alarm:g} % of the LFL)": alarm, "LFL (100 %)": 100.0}
+        out.append(_plot(
+            f"{stem}-percent-lfl-time", f"Spill {spill.name}: vapour as % of the LFL "
+            f"against time in {spill.where}, with the LFL alarm and the LFL (dashed).",
+            np.asarray(judged[0].times, dtype=float) / 60.0,
+            {z.zone: np.asarray(z.percent_lfl, dtype=float) for z in judged}, lines,
+            x_label="time after the spill [min]", y_label="% of the LFL",
+            title=f"Spill {spill.name}: % of the LFL by time"))
+    return out
+
+
+def _centreline_profile(spill, names):
+    """Distances, centreline ppm per curve, and the LFL and LFL-alarm lines [ppm] of an
+    outdoor spill's plot: the distances asked for, or, when the source can be
+    evaluated anywhere, a grid from the pool's edge past the farthest crossing."""
+    od = spill.outdoor
+    distances = np.asarray(od.distances, dtype=float)
+    y = np.asarray(od.volume_fraction, dtype=float) * 1e6
+    x = distances
+    series = {name: y[:, j] for j, name in enumerate(names)}
+    reach = [d for _, d, _ in spill.distances if d is not None and math.isfinite(d)]
+    reach += [d for d in (getattr(od, "distance_to_lfl", None),
+                          getattr(od, "distance_to_lfl_alarm", None)) if d is not None]
+    hi = 1.5 * max(list(distances) + reach) if distances.size else 0.0
+    lo = float(getattr(od, "pool_edge", 0.0) or (distances.min() if distances.size else 0.0))
+    if hi <= lo:
+        hi = 10.0 * lo
+    lfl_lines = {}
+    if hi > lo > 0 and od.volume_rates is not None:
+        # the plot starts at the pool's edge, so that every limit line's crossing shows
+        grid = np.geomspace(lo, hi, 160)
+        profile = od.centreline(grid) * 1e6
+        x, series = grid, {name: profile[:, j] for j, name in enumerate(names)}
+        lfl = od.lower_flammability_limits
+        fuel = np.isfinite(lfl)
+        if np.any(fuel):
+            fraction = od.fraction_of_lfl(grid)
+            total = profile[:, fuel].sum(axis=1)
+            if len(names) > 1:
+                series["all flammable vapour"] = total
+            # the mixture's LFL in ppm (Le Chatelier over the plume's composition)
+            lfl_ppm = float(np.median(np.divide(total, fraction, out=np.full_like(
+                total, np.nan), where=fraction > 0)))
+            if math.isfinite(lfl_ppm):
+                lfl_lines = {"LFL": lfl_ppm,
+                             f"{od.lfl_alarm_percent:g} % LFL alarm":
+                                 lfl_ppm * od.lfl_alarm_percent / 100.0}
+    return x, series, lfl_lines
+
+
+def _outdoor_plots(result, stem, spill) -> list:
+    """Centreline concentration against downwind distance, with the limits and the LFL."""
+    od = spill.outdoor
+    names = list(od.components)
+    x, series, lfl_lines = _centreline_profile(spill, names)
+    hlines = _limit_lines(result, spill_keys(result, spill, names))
+    hlines.update(lfl_lines)
+    if np.asarray(x).size < 2:
+        return []
+    return [_plot(
+        f"{stem}-centreline-distance", f"Spill {spill.name}: ground-level centreline "
+        f"concentration against downwind distance (stability class {od.stability}, "
+        f"{od.terrain} terrain, {format_number(od.wind_speed, 2)} m/s at 10 m) from the pool's edge, "
+        "capped at the saturated vapour concentration over the pool, with the "
+        "exposure limits, the LFL and the LFL alarm (dashed).", x, series, hlines,
+        x_label="downwind distance [m]",
+        y_label="centreline concentration [ppm by volume]",
+        title=f"Spill {spill.name}: centreline by distance", log_x=True)]
+
+
 def spill_plots(result, index, spill) -> list:
+    """The plots of one spill: indoor concentrations and % LFL by time, the outdoor
+    centreline by distance."""
     out = []
     stem = f"spill{index + 1}-{file_slug(spill.name)}"
     if spill.indoor is not None:
-        ind = spill.indoor
-        names = list(ind.components)
-        keys = spill_keys(result, spill, names)
-        hlines = {short_limit(lim): lim.ppm for lim in limits_of(result, set(keys))}
-        series = {}
-        for zone, label in indoor_zones(ind):
-            ppm = np.asarray(ind.ppm(zone), dtype=float)
-            for j, name in enumerate(names):
-                series[f"{label}: {name}" if len(names) > 1 else label] = ppm[:, j]
-        minutes = np.asarray(ind.times, dtype=float) / 60.0
-        groups = [series]
-        if len(series) > 6:
-            groups = [{k: v for k, v in series.items() if k.startswith(label + ":")}
-                      for _, label in indoor_zones(ind)]
-        for g, group in enumerate(groups):
-            suffix = "" if len(groups) == 1 else f"-{g + 1}"
-            out.append(_plot(
-                f"{stem}-concentration-time{suffix}", f"Spill {spill.name}: concentration "
-                f"against time after the spill in {spill.where} ({ind.model}), with the "
-                "exposure limits (dashed).", minutes, group, hlines,
-                x_label="time after the spill [min]", y_label="concentration [ppm by volume]",
-                title=f"Spill {spill.name}: concentration by time"))
-        judged = [z for z in spill.flammability if z.judged and z.percent_lfl is not None]
-        if judged:
-            alarm = judged[0].alarm_percent_lfl
-            lines = {f"LFL alarm ({alarm:g} % of the LFL)": alarm, "LFL (100 %)": 100.0}
-            out.append(_plot(
-                f"{stem}-percent-lfl-time", f"Spill {spill.name}: vapour as % of the LFL "
-                f"against time in {spill.where}, with the LFL alarm and the LFL (dashed).",
-                np.asarray(judged[0].times, dtype=float) / 60.0,
-                {z.zone: np.asarray(z.percent_lfl, dtype=float) for z in judged}, lines,
-                x_label="time after the spill [min]", y_label="% of the LFL",
-                title=f"Spill {spill.name}: % of the LFL by time"))
+        out += _indoor_plots(result, stem, spill)
     if spill.outdoor is not None:
-        od = spill.outdoor
-        names = list(od.components)
-        keys = spill_keys(result, spill, names)
-        distances = np.asarray(od.distances, dtype=float)
-        y = np.asarray(od.volume_fraction, dtype=float) * 1e6
-        x = distances
-        series = {name: y[:, j] for j, name in enumerate(names)}
-        reach = [d for _, d, _ in spill.distances if d is not None and math.isfinite(d)]
-        reach += [d for d in (getattr(od, "distance_to_lfl", None),
-                              getattr(od, "distance_to_lfl_alarm", None)) if d is not None]
-        hi = 1.5 * max(list(distances) + reach) if distances.size else 0.0
-        lo = float(getattr(od, "pool_edge", 0.0) or (distances.min() if distances.size else 0.0))
-        if hi <= lo:
-            hi = 10.0 * lo
-        lfl_lines = {}
-        if hi > lo > 0 and od.volume_rates is not None:
-            # the plot starts at the pool's edge, so that every limit line's crossing shows
-            grid = np.geomspace(lo, hi, 160)
-            profile = od.centreline(grid) * 1e6
-            x, series = grid, {name: profile[:, j] for j, name in enumerate(names)}
-            lfl = od.lower_flammability_limits
-            fuel = np.isfinite(lfl)
-            if np.any(fuel):
-                fraction = od.fraction_of_lfl(grid)
-                total = profile[:, fuel].sum(axis=1)
-                if len(names) > 1:
-                    series["all flammable vapour"] = total
-                # the mixture's LFL in ppm (Le Chatelier over the plume's composition)
-                lfl_ppm = float(np.median(np.divide(total, fraction, out=np.full_like(
-                    total, np.nan), where=fraction > 0)))
-                if math.isfinite(lfl_ppm):
-                    lfl_lines = {"LFL": lfl_ppm,
-                                 f"{od.lfl_alarm_percent:g} % LFL alarm":
-                                     lfl_ppm * od.lfl_alarm_percent / 100.0}
-        hlines = {short_limit(lim): lim.ppm for lim in limits_of(result, set(keys))}
-        hlines.update(lfl_lines)
-        if np.asarray(x).size >= 2:
-            out.append(_plot(
-                f"{stem}-centreline-distance", f"Spill {spill.name}: ground-level centreline "
-                f"concentration against downwind distance (stability class {od.stability}, "
-                f"{od.terrain} terrain, {format_number(od.wind_speed, 2)} m/s at 10 m) from the pool's edge, "
-                "capped at the saturated vapour concentration over the pool, with the "
-                "exposure limits, the LFL and the LFL alarm (dashed).", x, series, hlines,
-                x_label="downwind distance [m]",
-                y_label="centreline concentration [ppm by volume]",
-                title=f"Spill {spill.name}: centreline by distance", log_x=True))
+        out += _outdoor_plots(result, stem, spill)
     return out
 
 
@@ -395,28 +423,23 @@ def _result_blocks(result) -> tuple[list, bool]:
     return b, has_plots
 
 
+def _notes_blocks(result, heading, attribute) -> list:
+    """A section listing each item's findings or warnings (`attribute`), or "None."."""
+    b: list = [Heading(2, heading)]
+    for label, item in result_items(result):
+        notes = getattr(item, attribute)
+        if notes:
+            b.append(Heading(3, label))
+            b.append(Bullets(list(notes)))
+    if len(b) == 1:
+        b.append(Para("None."))
+    return b
+
+
 def _closing_blocks(result) -> list:
     """Findings, warnings, what was not computed, and the cautions again."""
-    b: list = []
-    b.append(Heading(2, "Findings"))
-    any_findings = False
-    for label, item in result_items(result):
-        if item.findings:
-            any_findings = True
-            b.append(Heading(3, label))
-            b.append(Bullets(list(item.findings)))
-    if not any_findings:
-        b.append(Para("None."))
-
-    b.append(Heading(2, "Warnings"))
-    any_warnings = False
-    for label, item in result_items(result):
-        if item.warnings:
-            any_warnings = True
-            b.append(Heading(3, label))
-            b.append(Bullets(list(item.warnings)))
-    if not any_warnings:
-        b.append(Para("None."))
+    b = _notes_blocks(result, "Findings", "findings")
+    b += _notes_blocks(result, "Warnings", "warnings")
 
     b.append(Heading(2, "Not computed"))
     if result.errors:
@@ -584,8 +607,9 @@ def _monte_carlo_plots(result, stem, what, mc, names) -> list:
     return [Plot(f"{stem}-probability-cumulative", caption, svg)]
 
 
-def _tank_blocks(result, index, tank) -> list:
-    b: list = [Heading(3, f"Tank {tank.name} ({tank.liquid})")]
+def _tank_case_rows(tank) -> tuple[list, list, list]:
+    """Rows per case of the component table, the whole-vapour table and the
+    comparison with each limit."""
     comp_rows, total_rows, cmp_rows = [], [], []
     for case, t, hs, comparisons, index_value in tank_cases(tank):
         comps = list(hs.liquid.components)
@@ -612,18 +636,12 @@ def _tank_blocks(result, index, tank) -> list:
                              f"{lim.kind} {lim.value:g} {lim.unit}", lim.source,
                              number_text(c.concentration * 1e6), number_text(c.ratio), f"{number_text(100 * c.ratio)} %",
                              "above" if c.exceeded else "below"])
-    b.append(Para(f"Vapour-space pressure {tank.pressure / 1000:.2f} kPa (absolute)."))
-    b.append(Table(["case", "temperature", "substance", "liquid mole fraction",
-                     "vapour pressure of the pure liquid kPa", "ppm",
-                     "mg/m3 (at the vapour-space temperature and pressure)", "% of limits"],
-                    comp_rows, numeric=(3, 4, 5, 6)))
-    b.append(Table(["case", "temperature", "all vapour ppm", "all vapour mg/m3",
-                     "mixture LFL", "% of LFL", "oxygen %", "flammability",
-                     "additive index (TWA)"], total_rows, numeric=(2, 3, 5, 6, 8)))
-    if cmp_rows:
-        b.append(Para("Comparison with each limit:"))
-        b.append(Table(["case", "substance", "limit", "source", "headspace ppm", "ratio",
-                         "% of limit", "verdict"], cmp_rows, numeric=(4, 5, 6)))
+    return comp_rows, total_rows, cmp_rows
+
+
+def _tank_temperature_rows(result, tank) -> list:
+    """Flash point, boiling temperature, the temperature at the LFL alarm and the
+    vapour hazard ratios."""
     rows = []
     fp = tank.flash_point
     if fp is not None:
@@ -646,6 +664,12 @@ def _tank_blocks(result, index, tank) -> list:
     for key, ratio in tank.hazard_ratios.items():
         rows.append([f"Vapour hazard ratio, {names.get(key, key)}", number_text(ratio),
                      "saturated vapour / TWA (Popendorf 1984)"])
+    return rows
+
+
+def _tank_vapour_rows(tank) -> list:
+    """Vapour held, expelled by filling and vented by breathing, and the purge time."""
+    rows = []
 
     def masses(obj):
         return "; ".join(f"{n} {kg_text(m)}" for n, m in zip(obj.names, np.atleast_1d(obj.masses)))
@@ -666,6 +690,27 @@ def _tank_blocks(result, index, tank) -> list:
                      minutes_text(p.time) if p.reachable else "not reached",
                      f"{p.case_words}; from {number_text(p.initial_volume_fraction * 1e6)} ppm; floor "
                      f"{number_text(p.floor_volume_fraction * 1e6)} ppm; {p.note}"])
+    return rows
+
+
+def _tank_blocks(result, index, tank) -> list:
+    """A tank's results: headspace per case and component, the comparison with each
+    limit, and the quantities derived from them."""
+    b: list = [Heading(3, f"Tank {tank.name} ({tank.liquid})")]
+    comp_rows, total_rows, cmp_rows = _tank_case_rows(tank)
+    b.append(Para(f"Vapour-space pressure {tank.pressure / 1000:.2f} kPa (absolute)."))
+    b.append(Table(["case", "temperature", "substance", "liquid mole fraction",
+                     "vapour pressure of the pure liquid kPa", "ppm",
+                     "mg/m3 (at the vapour-space temperature and pressure)", "% of limits"],
+                    comp_rows, numeric=(3, 4, 5, 6)))
+    b.append(Table(["case", "temperature", "all vapour ppm", "all vapour mg/m3",
+                     "mixture LFL", "% of LFL", "oxygen %", "flammability",
+                     "additive index (TWA)"], total_rows, numeric=(2, 3, 5, 6, 8)))
+    if cmp_rows:
+        b.append(Para("Comparison with each limit:"))
+        b.append(Table(["case", "substance", "limit", "source", "headspace ppm", "ratio",
+                         "% of limit", "verdict"], cmp_rows, numeric=(4, 5, 6)))
+    rows = _tank_temperature_rows(result, tank) + _tank_vapour_rows(tank)
     if rows:
         b.append(Table(["quantity", "value", "note"], rows))
     return b
@@ -724,18 +769,12 @@ def _outdoor_flammability_blocks(od) -> list:
     return [Para("Flammability downwind:"), Table(["quantity", "value", "note"], rows)]
 
 
-def _spill_blocks(result, spill) -> list:
-    b: list = [Heading(3, f"Spill {spill.name} ({spill.liquid}, {spill.where})")]
-    spec = spill_input(result, spill)
-    model = spec.get("model", "mackay-matsugu")
+def _spill_quantity_rows(result, spill, model) -> list:
+    """The evaporation model and initial rates, and the indoor pool's figures."""
     rows = [["Evaporation model used", model, ""]]
     for name, rate in spill.initial_rates.items():
         rows.append([f"Initial evaporation rate, {name}", f"{number_text(rate * 1000)} g/s",
                      "used" if name == model else "for comparison"])
-    run = spill.indoor or spill.outdoor
-    names = list(run.components)
-    keys = spill_keys(result, spill, names)
-    key_names = dict(zip(keys, names))
     if spill.indoor is not None:
         ind = spill.indoor
         rows.append(["Zone model", ind.model, ""])
@@ -747,7 +786,77 @@ def _spill_blocks(result, spill) -> list:
                      kg_text(float(np.sum(ind.mass_remaining[-1]))), ""])
         rows.append(["Mass balance error", f"{format_number(ind.mass_balance_error, 2)}",
                      "largest |pool + air + ventilated − spilled| / spilled"])
-    b.append(Table(["quantity", "value", "note"], rows))
+    return rows
+
+
+def _exposure_blocks(result, spill, key_names) -> list:
+    """Exposure metrics by zone and substance, and their comparison with each limit."""
+    rows, cmp_rows = [], []
+    for e in spill.exposures:
+        name = key_names.get(e.substance, e.substance)
+        rows.append([e.zone, name, number_text(e.peak), minutes_text(e.peak_time), number_text(e.twa),
+                     number_text(e.short_term)])
+        for label, limit_ppm, ratio, first, back in e.comparisons:
+            lim = limit_for(result, e.substance, label)
+            kind = lim.kind if lim else label.split()[0]
+            metric = {"TWA": ("8-h TWA", e.twa), "STEL": ("highest 15-min", e.short_term)
+                      }.get(kind, ("peak", e.peak))
+            cmp_rows.append([
+                e.zone, name, f"{kind} {lim.value:g} {lim.unit}" if lim else label,
+                lim.source if lim else NOT_SHOWN, metric[0], number_text(metric[1]), number_text(ratio),
+                minutes_text(first, "never above"),
+                NOT_SHOWN if first is None else minutes_text(back, "not within the run")])
+    b: list = [Para("Exposure by zone (ppm by volume):"),
+               Table(["zone", "substance", "peak ppm", "peak at", "8-h TWA ppm",
+                      "highest 15-min average ppm"], rows, numeric=(2, 3, 4, 5))]
+    if cmp_rows:
+        b.append(Para("Comparison with each limit:"))
+        b.append(Table(["zone", "substance", "limit", "source", "compared as", "ppm",
+                         "ratio", "above from", "back below at"], cmp_rows,
+                        numeric=(5, 6, 7, 8)))
+    return b
+
+
+def _centreline_blocks(od, names) -> list:
+    """The ground-level centreline at the distances asked for, and flammability downwind."""
+    y = np.asarray(od.volume_fraction, dtype=float) * 1e6
+    conc = np.asarray(od.concentration, dtype=float) * 1e6
+    rows = []
+    for i, d in enumerate(np.asarray(od.distances, dtype=float)):
+        for j, name in enumerate(names):
+            rows.append([f"{d:,.0f} m", name, number_text(y[i, j]), number_text(conc[i, j])])
+    b: list = [Para(f"Ground-level centreline downwind, from an initial evaporation rate "
+                    f"of {number_text(float(np.sum(od.emission_rate)) * 1000)} g/s:"),
+               Table(["distance", "substance", "ppm", "mg/m3"], rows, numeric=(0, 2, 3))]
+    return b + _outdoor_flammability_blocks(od)
+
+
+def _distance_blocks(result, spill) -> list:
+    """How far downwind the centreline stays above each limit."""
+    rows = []
+    for label, d, note in spill.distances:
+        lim = next((lim for lim in result.scenario.limits if lim.label == label), None)
+        if d is None:
+            text = "beyond the farthest distance computed"
+        elif d == 0:
+            text = "below it everywhere"
+        else:
+            text = f"{d:,.0f} m"
+            if d < 100:
+                text += " (under 100 m: outside the range of the dispersion coefficients)"
+        rows.append([f"{lim.substance} {lim.kind} {lim.value:g} {lim.unit}" if lim
+                     else label, lim.source if lim else NOT_SHOWN, text, note])
+    return [Para("How far downwind the centreline stays above each limit:"),
+            Table(["limit", "source", "distance", "note"], rows, numeric=(2,))]
+
+
+def _spill_blocks(result, spill) -> list:
+    """A spill's results: its figures, flammability by zone, exposures, the outdoor
+    centreline and the distances to the limits."""
+    b: list = [Heading(3, f"Spill {spill.name} ({spill.liquid}, {spill.where})")]
+    model = spill_input(result, spill).get("model", "mackay-matsugu")
+    b.append(Table(["quantity", "value", "note"], _spill_quantity_rows(result, spill, model)))
+    names = list((spill.indoor or spill.outdoor).components)
     if spill.flammability:
         b.append(Para("Flammability and oxygen by zone (% of the LFL by Le Chatelier's rule "
                        "over the components in the air; oxygen by displacement):"))
@@ -757,55 +866,10 @@ def _spill_blocks(result, spill) -> list:
                         [_flammability_row(z) for z in spill.flammability],
                         numeric=(1, 2, 3, 4, 5, 6, 7, 8)))
     if spill.exposures:
-        rows, cmp_rows = [], []
-        for e in spill.exposures:
-            name = key_names.get(e.substance, e.substance)
-            rows.append([e.zone, name, number_text(e.peak), minutes_text(e.peak_time), number_text(e.twa),
-                         number_text(e.short_term)])
-            for label, limit_ppm, ratio, first, back in e.comparisons:
-                lim = limit_for(result, e.substance, label)
-                kind = lim.kind if lim else label.split()[0]
-                metric = {"TWA": ("8-h TWA", e.twa), "STEL": ("highest 15-min", e.short_term)
-                          }.get(kind, ("peak", e.peak))
-                cmp_rows.append([
-                    e.zone, name, f"{kind} {lim.value:g} {lim.unit}" if lim else label,
-                    lim.source if lim else NOT_SHOWN, metric[0], number_text(metric[1]), number_text(ratio),
-                    minutes_text(first, "never above"),
-                    NOT_SHOWN if first is None else minutes_text(back, "not within the run")])
-        b.append(Para("Exposure by zone (ppm by volume):"))
-        b.append(Table(["zone", "substance", "peak ppm", "peak at", "8-h TWA ppm",
-                         "highest 15-min average ppm"], rows, numeric=(2, 3, 4, 5)))
-        if cmp_rows:
-            b.append(Para("Comparison with each limit:"))
-            b.append(Table(["zone", "substance", "limit", "source", "compared as", "ppm",
-                             "ratio", "above from", "back below at"], cmp_rows,
-                            numeric=(5, 6, 7, 8)))
+        key_names = dict(zip(spill_keys(result, spill, names), names))
+        b += _exposure_blocks(result, spill, key_names)
     if spill.outdoor is not None:
-        od = spill.outdoor
-        y = np.asarray(od.volume_fraction, dtype=float) * 1e6
-        conc = np.asarray(od.concentration, dtype=float) * 1e6
-        rows = []
-        for i, d in enumerate(np.asarray(od.distances, dtype=float)):
-            for j, name in enumerate(names):
-                rows.append([f"{d:,.0f} m", name, number_text(y[i, j]), number_text(conc[i, j])])
-        b.append(Para(f"Ground-level centreline downwind, from an initial evaporation rate "
-                       f"of {number_text(float(np.sum(od.emission_rate)) * 1000)} g/s:"))
-        b.append(Table(["distance", "substance", "ppm", "mg/m3"], rows, numeric=(0, 2, 3)))
-        b += _outdoor_flammability_blocks(od)
+        b += _centreline_blocks(spill.outdoor, names)
     if spill.distances:
-        rows = []
-        for label, d, note in spill.distances:
-            lim = next((lim for lim in result.scenario.limits if lim.label == label), None)
-            if d is None:
-                text = "beyond the farthest distance computed"
-            elif d == 0:
-                text = "below it everywhere"
-            else:
-                text = f"{d:,.0f} m"
-                if d < 100:
-                    text += " (under 100 m: outside the range of the dispersion coefficients)"
-            rows.append([f"{lim.substance} {lim.kind} {lim.value:g} {lim.unit}" if lim
-                         else label, lim.source if lim else NOT_SHOWN, text, note])
-        b.append(Para("How far downwind the centreline stays above each limit:"))
-        b.append(Table(["limit", "source", "distance", "note"], rows, numeric=(2,)))
+        b += _distance_blocks(result, spill)
     return b

@@ -127,6 +127,67 @@ def _headspace_dict(hs, comparisons=(), additive=None) -> dict:
     return out
 
 
+def _tank_case_dict(tank, case, t, h, comparisons, additive) -> dict:
+    """One case of a tank: the headspace, the vapour-pressure methods and the terms
+    of the additive index."""
+    data = _headspace_dict(h, comparisons, additive)
+    data["vapor_pressure_methods"] = [
+        {"substance": comp.key, "method": method, "description": desc,
+         "relative_uncertainty": next((e.relative_uncertainty for e in
+                                       h.vapor_pressure_methods if e.method == method
+                                       and e.source == source), None),
+         "uncertainty_basis": basis, "source": source, "why": why}
+        for comp, method, desc, _, basis, source, why in method_rows(h, t)]
+    terms = tank.additive_terms if case == "stated" else tank.worst_additive_terms
+    if terms is not None:
+        data["additive_index_twa_terms"] = [
+            {"substance": key, "limit": lim.label, "ratio": ratio}
+            for key, lim, ratio in terms.terms]
+    return data
+
+
+def _masses_dict(obj, extra=()):
+    """Vapour masses by substance and in all, with more attributes (attribute, key)."""
+    if obj is None:
+        return None
+    d = {"names": list(obj.names), "masses_kg": np.atleast_1d(obj.masses),
+         "total_mass_kg": obj.total_mass}
+    for attr, key in extra:
+        d[key] = getattr(obj, attr)
+    return d
+
+
+def _tank_temperatures(tank) -> dict:
+    """Flash point, boiling temperature, the temperature at the LFL alarm and the
+    vapour hazard ratios."""
+    fp = tank.flash_point
+    bt = getattr(tank, "boiling", None)
+    return {
+        "flash_point": None if fp is None else {
+            "estimate_k": fp.estimate, "published_k": fp.published,
+            "published_source": fp.published_source, "note": fp.note,
+            "flammable_whenever_liquid": fp.flammable_whenever_liquid},
+        "boiling_temperature": None if bt is None else {
+            "temperature_k": bt.temperature, "temperature_c": bt.temperature - 273.15,
+            "pressure_pa": bt.pressure, "uncertainty_k": bt.uncertainty, "method": bt.method,
+            "near_boiling": list(tank.near_boiling)},
+        "alarm_temperature_k": tank.alarm_temperature,
+        "hazard_ratios": dict(tank.hazard_ratios),
+    }
+
+
+def _purge_dict(p):
+    if p is None:
+        return None
+    return {
+        "time_s": p.time, "initial_volume_fraction": p.initial_volume_fraction,
+        "target_volume_fraction": p.target_volume_fraction,
+        "target_ppm": p.target_volume_fraction * 1e6,
+        "floor_volume_fraction": p.floor_volume_fraction,
+        "residual_evaporation_kg_per_s": p.residual_evaporation, "reachable": p.reachable,
+        "note": p.note, "case": p.case, "case_words": p.case_words, "volume_m3": p.volume}
+
+
 def _tank_dict(result, tank) -> dict:
     hs = tank.headspace
     out = {
@@ -141,20 +202,8 @@ def _tank_dict(result, tank) -> dict:
         "cases": {},
     }
     for case, t, h, comparisons, additive in tank_cases(tank):
-        data = _headspace_dict(h, comparisons, additive)
-        data["vapor_pressure_methods"] = [
-            {"substance": comp.key, "method": method, "description": desc,
-             "relative_uncertainty": next((e.relative_uncertainty for e in
-                                           h.vapor_pressure_methods if e.method == method
-                                           and e.source == source), None),
-             "uncertainty_basis": basis, "source": source, "why": why}
-            for comp, method, desc, _, basis, source, why in method_rows(h, t)]
-        terms = tank.additive_terms if case == "stated" else tank.worst_additive_terms
-        if terms is not None:
-            data["additive_index_twa_terms"] = [
-                {"substance": key, "limit": lim.label, "ratio": ratio}
-                for key, lim, ratio in terms.terms]
-        out["cases"]["stated" if case == "stated" else "worst"] = data
+        out["cases"]["stated" if case == "stated" else "worst"] = _tank_case_dict(
+            tank, case, t, h, comparisons, additive)
     if tank.sweep is not None:
         sweep = _headspace_dict(tank.sweep)
         sweep.pop("warnings", None)
@@ -163,39 +212,11 @@ def _tank_dict(result, tank) -> dict:
         out["sweep"]["series"] = {"points": n, "downsampled": False}
     else:
         out["sweep"] = None
-    fp = tank.flash_point
-    out["flash_point"] = None if fp is None else {
-        "estimate_k": fp.estimate, "published_k": fp.published,
-        "published_source": fp.published_source, "note": fp.note,
-        "flammable_whenever_liquid": fp.flammable_whenever_liquid}
-    bt = getattr(tank, "boiling", None)
-    out["boiling_temperature"] = None if bt is None else {
-        "temperature_k": bt.temperature, "temperature_c": bt.temperature - 273.15,
-        "pressure_pa": bt.pressure, "uncertainty_k": bt.uncertainty, "method": bt.method,
-        "near_boiling": list(tank.near_boiling)}
-    out["alarm_temperature_k"] = tank.alarm_temperature
-    out["hazard_ratios"] = dict(tank.hazard_ratios)
-
-    def masses(obj, extra=()):
-        if obj is None:
-            return None
-        d = {"names": list(obj.names), "masses_kg": np.atleast_1d(obj.masses),
-             "total_mass_kg": obj.total_mass}
-        for attr, key in extra:
-            d[key] = getattr(obj, attr)
-        return d
-
-    out["inventory"] = masses(tank.inventory, [("volume", "volume_m3")])
-    out["filling"] = masses(tank.filling, [("volume", "volume_pumped_m3")])
-    out["breathing"] = masses(tank.breathing, [("gas_vented", "gas_vented_mol")])
-    p = tank.purge
-    out["purge"] = None if p is None else {
-        "time_s": p.time, "initial_volume_fraction": p.initial_volume_fraction,
-        "target_volume_fraction": p.target_volume_fraction,
-        "target_ppm": p.target_volume_fraction * 1e6,
-        "floor_volume_fraction": p.floor_volume_fraction,
-        "residual_evaporation_kg_per_s": p.residual_evaporation, "reachable": p.reachable,
-        "note": p.note, "case": p.case, "case_words": p.case_words, "volume_m3": p.volume}
+    out.update(_tank_temperatures(tank))
+    out["inventory"] = _masses_dict(tank.inventory, [("volume", "volume_m3")])
+    out["filling"] = _masses_dict(tank.filling, [("volume", "volume_pumped_m3")])
+    out["breathing"] = _masses_dict(tank.breathing, [("gas_vented", "gas_vented_mol")])
+    out["purge"] = _purge_dict(tank.purge)
     out["monte_carlo"] = _monte_carlo_dict(getattr(tank, "monte_carlo", None))
     out["findings"] = list(tank.findings)
     out["warnings"] = list(tank.warnings)
@@ -217,6 +238,88 @@ def _flammability_dict(z) -> dict:
     }
 
 
+def _by_key(keys, values) -> dict:
+    """Substance key -> value, for values given per component."""
+    return {k: v for k, v in zip(keys, np.atleast_1d(values))}
+
+
+def _indoor_dict(ind, names, keys) -> dict:
+    """An indoor spill: the pool and the room, with its time series (downsampled when long)."""
+    zones = indoor_zones(ind)
+    ppm = {zone: np.asarray(ind.ppm(zone), dtype=float) for zone, _ in zones}
+    keep, info = _sample(np.size(ind.times), [p[:, j] for p in ppm.values()
+                                              for j in range(len(names))])
+    series = {"times_s": np.asarray(ind.times, dtype=float)[keep], **info}
+    for zone, label in zones:
+        conc = np.asarray(ind.room if zone == "room" else ind.near_field, dtype=float)
+        series[label] = {
+            "ppm": {k: ppm[zone][keep, j] for j, k in enumerate(keys)},
+            "mass_concentration_kg_per_m3": {k: conc[keep, j] for j, k in enumerate(keys)}}
+    series["mass_remaining_kg"] = {k: np.asarray(ind.mass_remaining)[keep, j]
+                                   for j, k in enumerate(keys)}
+    series["evaporation_rate_kg_per_s"] = {k: np.asarray(ind.evaporation_rate)[keep, j]
+                                           for j, k in enumerate(keys)}
+    return {
+        "zone_model": ind.model, "temperature_k": ind.temperature,
+        "pressure_pa": ind.pressure, "pool_area_m2": ind.pool_area,
+        "pool_gone_time_s": ind.pool_gone_time,
+        "source_removed_time_s": ind.source_removed_time,
+        "initial_mass_kg": _by_key(keys, ind.initial_mass),
+        "saturation_kg_per_m3": _by_key(keys, ind.saturation),
+        "molar_mass_kg_per_mol": _by_key(keys, ind.molar_masses),
+        "mass_balance_error": ind.mass_balance_error, "series": series}
+
+
+def _dense_gas_dict(dg):
+    if dg is None:
+        return None
+    return {
+        "criterion": "Britter-McQuaid continuous release (g0' q0 / D)^(1/3) / U",
+        "value": dg.value, "threshold": dg.threshold,
+        "density_effects_matter": dg.dense,
+        "mixture_density_kg_per_m3": dg.mixture_density,
+        "air_density_kg_per_m3": dg.air_density,
+        "volume_rate_m3_per_s": dg.volume_rate,
+        "source_dimension_m": dg.source_dimension}
+
+
+def _outdoor_dict(od, keys) -> dict:
+    """An outdoor spill: the plume, its flammability and its centreline."""
+    y = np.asarray(od.volume_fraction, dtype=float)
+    c = np.asarray(od.concentration, dtype=float)
+    return {
+        "stability": od.stability, "terrain": od.terrain, "wind_speed_m_per_s": od.wind_speed,
+        "emission_rate_kg_per_s": _by_key(keys, od.emission_rate),
+        "distances_m": np.asarray(od.distances, dtype=float),
+        "pool_edge_m": od.pool_edge,
+        "distance_to_lfl_m": od.distance_to_lfl,
+        "distance_to_lfl_alarm_m": od.distance_to_lfl_alarm,
+        "lfl_alarm_percent": od.lfl_alarm_percent,
+        "distance_to_lfl_flags": list(od.lfl_flags),
+        "distance_to_lfl_alarm_flags": list(od.lfl_alarm_flags),
+        "percent_lfl": (None if od.percent_lfl is None
+                        else np.asarray(od.percent_lfl, dtype=float)),
+        "saturation_volume_fraction": (
+            None if od.saturation_volume_fraction is None else
+            _by_key(keys, od.saturation_volume_fraction)),
+        "saturation_cap_until_m": od.capped_until,
+        "dense_gas": _dense_gas_dict(od.dense_gas),
+        "centreline": {k: {"volume_fraction": y[:, j], "ppm": y[:, j] * 1e6,
+                           "concentration_kg_per_m3": c[:, j]} for j, k in enumerate(keys)}}
+
+
+def _exposure_dicts(result, spill) -> list:
+    """Exposure metrics by zone and substance, with their comparison with each limit."""
+    return [{
+        "zone": e.zone, "substance": e.substance, "peak_ppm": e.peak,
+        "peak_time_s": e.peak_time, "twa_8h_ppm": e.twa, "highest_15min_ppm": e.short_term,
+        "comparisons": [{"limit": label, "limit_ppm": limit_ppm, "ratio": ratio,
+                         "source": getattr(limit_for(result, e.substance, label), "source", None),
+                         "first_above_s": first, "back_below_s": back}
+                        for label, limit_ppm, ratio, first, back in e.comparisons]}
+        for e in spill.exposures]
+
+
 def _spill_dict(result, spill) -> dict:
     spec = spill_input(result, spill)
     run = spill.indoor or spill.outdoor
@@ -228,69 +331,11 @@ def _spill_dict(result, spill) -> dict:
            "initial_evaporation_rates_kg_per_s": dict(spill.initial_rates),
            "indoor": None, "outdoor": None}
     if spill.indoor is not None:
-        ind = spill.indoor
-        zones = indoor_zones(ind)
-        ppm = {zone: np.asarray(ind.ppm(zone), dtype=float) for zone, _ in zones}
-        keep, info = _sample(np.size(ind.times), [p[:, j] for p in ppm.values()
-                                                  for j in range(len(names))])
-        series = {"times_s": np.asarray(ind.times, dtype=float)[keep], **info}
-        for zone, label in zones:
-            conc = np.asarray(ind.room if zone == "room" else ind.near_field, dtype=float)
-            series[label] = {
-                "ppm": {k: ppm[zone][keep, j] for j, k in enumerate(keys)},
-                "mass_concentration_kg_per_m3": {k: conc[keep, j] for j, k in enumerate(keys)}}
-        series["mass_remaining_kg"] = {k: np.asarray(ind.mass_remaining)[keep, j]
-                                       for j, k in enumerate(keys)}
-        series["evaporation_rate_kg_per_s"] = {k: np.asarray(ind.evaporation_rate)[keep, j]
-                                               for j, k in enumerate(keys)}
-        out["indoor"] = {
-            "zone_model": ind.model, "temperature_k": ind.temperature,
-            "pressure_pa": ind.pressure, "pool_area_m2": ind.pool_area,
-            "pool_gone_time_s": ind.pool_gone_time,
-            "source_removed_time_s": ind.source_removed_time,
-            "initial_mass_kg": {k: v for k, v in zip(keys, np.atleast_1d(ind.initial_mass))},
-            "saturation_kg_per_m3": {k: v for k, v in zip(keys, np.atleast_1d(ind.saturation))},
-            "molar_mass_kg_per_mol": {k: v for k, v in zip(keys, np.atleast_1d(ind.molar_masses))},
-            "mass_balance_error": ind.mass_balance_error, "series": series}
+        out["indoor"] = _indoor_dict(spill.indoor, names, keys)
     if spill.outdoor is not None:
-        od = spill.outdoor
-        y = np.asarray(od.volume_fraction, dtype=float)
-        c = np.asarray(od.concentration, dtype=float)
-        out["outdoor"] = {
-            "stability": od.stability, "terrain": od.terrain, "wind_speed_m_per_s": od.wind_speed,
-            "emission_rate_kg_per_s": {k: v for k, v in zip(keys, np.atleast_1d(od.emission_rate))},
-            "distances_m": np.asarray(od.distances, dtype=float),
-            "pool_edge_m": od.pool_edge,
-            "distance_to_lfl_m": od.distance_to_lfl,
-            "distance_to_lfl_alarm_m": od.distance_to_lfl_alarm,
-            "lfl_alarm_percent": od.lfl_alarm_percent,
-            "distance_to_lfl_flags": list(od.lfl_flags),
-            "distance_to_lfl_alarm_flags": list(od.lfl_alarm_flags),
-            "percent_lfl": (None if od.percent_lfl is None
-                            else np.asarray(od.percent_lfl, dtype=float)),
-            "saturation_volume_fraction": (
-                None if od.saturation_volume_fraction is None else
-                {k: v for k, v in zip(keys, np.atleast_1d(od.saturation_volume_fraction))}),
-            "saturation_cap_until_m": od.capped_until,
-            "dense_gas": None if od.dense_gas is None else {
-                "criterion": "Britter-McQuaid continuous release (g0' q0 / D)^(1/3) / U",
-                "value": od.dense_gas.value, "threshold": od.dense_gas.threshold,
-                "density_effects_matter": od.dense_gas.dense,
-                "mixture_density_kg_per_m3": od.dense_gas.mixture_density,
-                "air_density_kg_per_m3": od.dense_gas.air_density,
-                "volume_rate_m3_per_s": od.dense_gas.volume_rate,
-                "source_dimension_m": od.dense_gas.source_dimension},
-            "centreline": {k: {"volume_fraction": y[:, j], "ppm": y[:, j] * 1e6,
-                               "concentration_kg_per_m3": c[:, j]} for j, k in enumerate(keys)}}
+        out["outdoor"] = _outdoor_dict(spill.outdoor, keys)
     out["flammability"] = [_flammability_dict(z) for z in spill.flammability]
-    out["exposures"] = [{
-        "zone": e.zone, "substance": e.substance, "peak_ppm": e.peak,
-        "peak_time_s": e.peak_time, "twa_8h_ppm": e.twa, "highest_15min_ppm": e.short_term,
-        "comparisons": [{"limit": label, "limit_ppm": limit_ppm, "ratio": ratio,
-                         "source": getattr(limit_for(result, e.substance, label), "source", None),
-                         "first_above_s": first, "back_below_s": back}
-                        for label, limit_ppm, ratio, first, back in e.comparisons]}
-        for e in spill.exposures]
+    out["exposures"] = _exposure_dicts(result, spill)
     out["distances"] = [{
         "limit": label, "source": next((lim.source for lim in result.scenario.limits
                                         if lim.label == label), None),
