@@ -729,56 +729,69 @@ def _composition(lines: list[str], notes: list[str]):
         line = raw.strip()
         if not line or k in used:
             continue
-        cas_match = [m for m in _CAS.finditer(line)]
-        if cas_match:
-            m = cas_match[0]
-            before, after = line[:m.start()], line[m.end():]
-            cleaned = _strip_noise(_CAS.sub(" ", after))
-            hit = _find_range(cleaned, True) or _find_range(cleaned, False)
-            j = k + 1
-            while hit is None and j < min(k + 6, len(lines)) and not _CAS.search(lines[j]):
-                nxt = _strip_noise(lines[j])
-                if len(re.findall(r"[A-Za-z]{2,}", nxt)) <= 4:
-                    hit = _find_range(nxt, True) or _find_range(nxt, False, False)
-                if hit is not None:
-                    used.add(j)
-                j += 1
-            name = _name(before)
-            if not name:
-                head = cleaned if hit is None else cleaned[:cleaned.find(hit[2])]
-                name = _name(re.sub(r"\d", " ", head)) if re.search("[A-Za-z]{3}", head) else ""
-            if not name and k > 0 and not _CAS.search(lines[k - 1]) \
-                    and _find_range(lines[k - 1], need_percent) is None:
-                name = _name(lines[k - 1])
-            cas = m.group(1)
-            if hit is None:
-                notes.append(f"could not read a concentration on the line {line!r}; the "
-                             f"ingredient {cas} was left out: enter it by hand")
-                continue
-            lo, hi, _ = hit
-            item_basis = _basis_of(line) or basis
-            found.append((cas, name or cas, lo, hi, item_basis, line))
+        m = _CAS.search(line)
+        if m is None:
+            item = _unnumbered_ingredient(line, need_percent, basis, notes)
+            if item is not None:
+                unknown.append(item)
             continue
-        stripped = _strip_noise(line)
-        hit = None if re.match(r"^\s*\d+(?:\.\d+)+\s", line) else (
-            _find_range(stripped, True) or _find_range(stripped, need_percent, False))
+        name, hit = _numbered_ingredient(lines, k, line, m, need_percent, used)
+        cas = m.group(1)
         if hit is None:
-            if _SECRET.search(line):
-                notes.append(f"the sheet says: {line!r}")
+            notes.append(f"could not read a concentration on the line {line!r}; the "
+                         f"ingredient {cas} was left out: enter it by hand")
             continue
-        words = re.findall(r"[A-Za-z]{2,}", line)
-        sentence = (len(words) > 12 or (line.endswith(".") and len(words) > 3)
-                    or re.search(r"\b(?:are|is|were|been|may|shall)\b", line, re.I))
-        if sentence:
-            notes.append(f"not read as an ingredient (a sentence): {line!r}")
-            continue
-        lo, hi, text = hit
-        name = _name(line[:line.find(text)] if text in line else line) or "unnamed ingredient"
-        reason = ("withheld as a trade secret" if _SECRET.search(line)
-                  else "no CAS number given")
-        unknown.append(SdsIngredient("", name, lo, hi, _basis_of(line) or basis, None,
-                                     reason, line))
+        lo, hi, _ = hit
+        found.append((cas, name or cas, lo, hi, _basis_of(line) or basis, line))
     return found, unknown
+
+
+def _numbered_ingredient(lines, k, line, m, need_percent, used):
+    """The name and range (or None) of the ingredient on line `k`, whose first CAS
+    number is the match `m`; a range on one of the next lines is taken (that line's
+    number added to `used`) when the line has none."""
+    before, after = line[:m.start()], line[m.end():]
+    cleaned = _strip_noise(_CAS.sub(" ", after))
+    hit = _find_range(cleaned, True) or _find_range(cleaned, False)
+    j = k + 1
+    while hit is None and j < min(k + 6, len(lines)) and not _CAS.search(lines[j]):
+        nxt = _strip_noise(lines[j])
+        if len(re.findall(r"[A-Za-z]{2,}", nxt)) <= 4:
+            hit = _find_range(nxt, True) or _find_range(nxt, False, False)
+        if hit is not None:
+            used.add(j)
+        j += 1
+    name = _name(before)
+    if not name:
+        head = cleaned if hit is None else cleaned[:cleaned.find(hit[2])]
+        name = _name(re.sub(r"\d", " ", head)) if re.search("[A-Za-z]{3}", head) else ""
+    if not name and k > 0 and not _CAS.search(lines[k - 1]) \
+            and _find_range(lines[k - 1], need_percent) is None:
+        name = _name(lines[k - 1])
+    return name, hit
+
+
+def _unnumbered_ingredient(line, need_percent, basis, notes):
+    """An ingredient line without a CAS number as an unidentified share, or None
+    (no range, or a sentence, noted)."""
+    stripped = _strip_noise(line)
+    hit = None if re.match(r"^\s*\d+(?:\.\d+)+\s", line) else (
+        _find_range(stripped, True) or _find_range(stripped, need_percent, False))
+    if hit is None:
+        if _SECRET.search(line):
+            notes.append(f"the sheet says: {line!r}")
+        return None
+    words = re.findall(r"[A-Za-z]{2,}", line)
+    sentence = (len(words) > 12 or (line.endswith(".") and len(words) > 3)
+                or re.search(r"\b(?:are|is|were|been|may|shall)\b", line, re.I))
+    if sentence:
+        notes.append(f"not read as an ingredient (a sentence): {line!r}")
+        return None
+    lo, hi, text = hit
+    name = _name(line[:line.find(text)] if text in line else line) or "unnamed ingredient"
+    reason = ("withheld as a trade secret" if _SECRET.search(line)
+              else "no CAS number given")
+    return SdsIngredient("", name, lo, hi, _basis_of(line) or basis, None, reason, line)
 
 
 def _ingredients(found, unknown, notes):
