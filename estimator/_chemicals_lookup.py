@@ -1040,6 +1040,36 @@ def smiles_ring_count(smiles: str) -> int | None:
     tokens = _SMILES_TOKEN.findall(smiles)
     if "".join(tokens) != smiles:
         return None
+    graph = _smiles_graph(tokens)
+    if graph is None:
+        return None
+    elements, aromatic, bonds, closures = graph
+    adjacency: dict[int, set[int]] = {i: set() for i in range(len(elements))}
+    for a, b in bonds:
+        adjacency[a].add(b)
+        adjacency[b].add(a)
+    count = 0
+    for a, b in closures:
+        ring = _closure_ring(adjacency, a, b)
+        if ring is None:
+            return None
+        members = set(ring)
+        in_ring_double: set[int] = set()
+        for (i, j), order in bonds.items():
+            if order in ("=", ":") and i in members and j in members:
+                in_ring_double.update((i, j))
+        kekule_aromatic = in_ring_double == members
+        if kekule_aromatic or any(aromatic[i] or elements[i] != "C" for i in ring):
+            count += 1
+    return count
+
+
+def _smiles_graph(tokens):
+    """The atoms and bonds of tokenised SMILES.
+
+    Returns (elements, aromatic flags, bonds {(i, j): order} with i < j, ring-closure
+    atom pairs), or None if the tokens do not form a molecule.
+    """
     elements: list[str] = []
     aromatic: list[bool] = []
     bonds: dict[tuple[int, int], str] = {}
@@ -1071,13 +1101,9 @@ def smiles_ring_count(smiles: str) -> int | None:
             prev = None
             pending = "-"
         else:
-            if tok.startswith("["):
-                m = re.match(r"\[\d*([A-Za-z][a-z]?)", tok)
-                if not m:
-                    return None
-                sym = m.group(1)
-            else:
-                sym = tok
+            sym = _atom_symbol(tok)
+            if sym is None:
+                return None
             idx = len(elements)
             is_arom = sym[0].islower()
             elements.append(sym.capitalize() if is_arom else sym)
@@ -1088,39 +1114,39 @@ def smiles_ring_count(smiles: str) -> int | None:
             pending = "-"
     if open_rings or stack:
         return None
-    adjacency: dict[int, set[int]] = {i: set() for i in range(len(elements))}
-    for a, b in bonds:
-        adjacency[a].add(b)
-        adjacency[b].add(a)
-    count = 0
-    for a, b in closures:
-        closure = (min(a, b), max(a, b))
-        parent: dict[int, int | None] = {a: None}
-        queue = deque([a])
-        while queue:
-            node = queue.popleft()
-            if node == b:
-                break
-            for nxt in adjacency[node]:
-                if (min(node, nxt), max(node, nxt)) != closure and nxt not in parent:
-                    parent[nxt] = node
-                    queue.append(nxt)
-        if b not in parent:
-            return None
-        ring: list[int] = []
-        node: int | None = b
-        while node is not None:
-            ring.append(node)
-            node = parent[node]
-        members = set(ring)
-        in_ring_double: set[int] = set()
-        for (i, j), order in bonds.items():
-            if order in ("=", ":") and i in members and j in members:
-                in_ring_double.update((i, j))
-        kekule_aromatic = in_ring_double == members
-        if kekule_aromatic or any(aromatic[i] or elements[i] != "C" for i in ring):
-            count += 1
-    return count
+    return elements, aromatic, bonds, closures
+
+
+def _atom_symbol(tok: str) -> str | None:
+    """The element symbol of an atom token (lower case if aromatic); None if unreadable."""
+    if not tok.startswith("["):
+        return tok
+    m = re.match(r"\[\d*([A-Za-z][a-z]?)", tok)
+    return m.group(1) if m else None
+
+
+def _closure_ring(adjacency, a: int, b: int) -> list[int] | None:
+    """The atoms of the ring a ring-closure bond a-b closes: the shortest path from a
+    to b without that bond (breadth-first); None if there is none."""
+    closure = (min(a, b), max(a, b))
+    parent: dict[int, int | None] = {a: None}
+    queue = deque([a])
+    while queue:
+        node = queue.popleft()
+        if node == b:
+            break
+        for nxt in adjacency[node]:
+            if (min(node, nxt), max(node, nxt)) != closure and nxt not in parent:
+                parent[nxt] = node
+                queue.append(nxt)
+    if b not in parent:
+        return None
+    ring: list[int] = []
+    step: int | None = b
+    while step is not None:
+        ring.append(step)
+        step = parent[step]
+    return ring
 
 
 def fuller_diffusion_volume(

@@ -371,20 +371,27 @@ def peak(times, concentrations) -> Peak:
     return Peak(float(c[i]), float(t[i]))
 
 
-def _upward_crossings(t, c, threshold):
-    """Times the series rises from at or below the threshold to above it."""
-    below, above = c[:-1] <= threshold, c[1:] > threshold
-    i = np.flatnonzero(below & above)
+def _crossings(t, c, threshold, rising):
+    """Times the series passes a threshold, interpolated linearly: rising (from at or
+    below it to above it) or falling (from above it to at or below it)."""
+    above, at_or_below = c > threshold, c <= threshold
+    passes = at_or_below[:-1] & above[1:] if rising else above[:-1] & at_or_below[1:]
+    i = np.flatnonzero(passes)
     fraction = (threshold - c[i]) / (c[i + 1] - c[i])
     return t[i] + fraction * (t[i + 1] - t[i])
 
 
-def _downward_crossings(t, c, threshold):
-    """Times the series falls from above the threshold to at or below it."""
-    above, below = c[:-1] > threshold, c[1:] <= threshold
-    i = np.flatnonzero(above & below)
-    fraction = (c[i] - threshold) / (c[i] - c[i + 1])
-    return t[i] + fraction * (t[i + 1] - t[i])
+def _edge_above(times, concentrations, threshold, last):
+    """First (or `last`) time the series is above a threshold: an end sample time when
+    the series is above it there, else the first rise (last fall) through it; None if
+    it is never above it."""
+    t, c = _series(times, concentrations)
+    x = _threshold(threshold)
+    end = -1 if last else 0
+    if c[end] > x:
+        return float(t[end])
+    crossings = _crossings(t, c, x, rising=not last)
+    return float(crossings[end]) if crossings.size else None
 
 
 def first_time_above(times, concentrations, threshold):
@@ -410,12 +417,7 @@ def first_time_above(times, concentrations, threshold):
     >>> first_time_above([0.0, 100.0], [0.0, 50.0], 10.0)
     20.0
     """
-    t, c = _series(times, concentrations)
-    x = _threshold(threshold)
-    if c[0] > x:
-        return float(t[0])
-    crossings = _upward_crossings(t, c, x)
-    return float(crossings[0]) if crossings.size else None
+    return _edge_above(times, concentrations, threshold, last=False)
 
 
 def last_time_above(times, concentrations, threshold):
@@ -441,12 +443,7 @@ def last_time_above(times, concentrations, threshold):
     >>> last_time_above([0.0, 100.0, 200.0], [0.0, 50.0, 0.0], 10.0)
     180.0
     """
-    t, c = _series(times, concentrations)
-    x = _threshold(threshold)
-    if c[-1] > x:
-        return float(t[-1])
-    crossings = _downward_crossings(t, c, x)
-    return float(crossings[-1]) if crossings.size else None
+    return _edge_above(times, concentrations, threshold, last=True)
 
 
 def time_back_below(times, concentrations, threshold, after=None):
@@ -498,7 +495,7 @@ def time_back_below(times, concentrations, threshold, after=None):
     later = t > start
     tail_t = np.concatenate(([start], t[later]))
     tail_c = np.concatenate(([level], c[later]))
-    crossings = _downward_crossings(tail_t, tail_c, x)
+    crossings = _crossings(tail_t, tail_c, x, rising=False)
     return float(crossings[0]) if crossings.size else None
 
 

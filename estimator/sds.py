@@ -729,56 +729,69 @@ def _composition(lines: list[str], notes: list[str]):
         line = raw.strip()
         if not line or k in used:
             continue
-        cas_match = [m for m in _CAS.finditer(line)]
-        if cas_match:
-            m = cas_match[0]
-            before, after = line[:m.start()], line[m.end():]
-            cleaned = _strip_noise(_CAS.sub(" ", after))
-            hit = _find_range(cleaned, True) or _find_range(cleaned, False)
-            j = k + 1
-            while hit is None and j < min(k + 6, len(lines)) and not _CAS.search(lines[j]):
-                nxt = _strip_noise(lines[j])
-                if len(re.findall(r"[A-Za-z]{2,}", nxt)) <= 4:
-                    hit = _find_range(nxt, True) or _find_range(nxt, False, False)
-                if hit is not None:
-                    used.add(j)
-                j += 1
-            name = _name(before)
-            if not name:
-                head = cleaned if hit is None else cleaned[:cleaned.find(hit[2])]
-                name = _name(re.sub(r"\d", " ", head)) if re.search("[A-Za-z]{3}", head) else ""
-            if not name and k > 0 and not _CAS.search(lines[k - 1]) \
-                    and _find_range(lines[k - 1], need_percent) is None:
-                name = _name(lines[k - 1])
-            cas = m.group(1)
-            if hit is None:
-                notes.append(f"could not read a concentration on the line {line!r}; the "
-                             f"ingredient {cas} was left out: enter it by hand")
-                continue
-            lo, hi, _ = hit
-            item_basis = _basis_of(line) or basis
-            found.append((cas, name or cas, lo, hi, item_basis, line))
+        m = _CAS.search(line)
+        if m is None:
+            item = _unnumbered_ingredient(line, need_percent, basis, notes)
+            if item is not None:
+                unknown.append(item)
             continue
-        stripped = _strip_noise(line)
-        hit = None if re.match(r"^\s*\d+(?:\.\d+)+\s", line) else (
-            _find_range(stripped, True) or _find_range(stripped, need_percent, False))
+        name, hit = _numbered_ingredient(lines, k, line, m, need_percent, used)
+        cas = m.group(1)
         if hit is None:
-            if _SECRET.search(line):
-                notes.append(f"the sheet says: {line!r}")
+            notes.append(f"could not read a concentration on the line {line!r}; the "
+                         f"ingredient {cas} was left out: enter it by hand")
             continue
-        words = re.findall(r"[A-Za-z]{2,}", line)
-        sentence = (len(words) > 12 or (line.endswith(".") and len(words) > 3)
-                    or re.search(r"\b(?:are|is|were|been|may|shall)\b", line, re.I))
-        if sentence:
-            notes.append(f"not read as an ingredient (a sentence): {line!r}")
-            continue
-        lo, hi, text = hit
-        name = _name(line[:line.find(text)] if text in line else line) or "unnamed ingredient"
-        reason = ("withheld as a trade secret" if _SECRET.search(line)
-                  else "no CAS number given")
-        unknown.append(SdsIngredient("", name, lo, hi, _basis_of(line) or basis, None,
-                                     reason, line))
+        lo, hi, _ = hit
+        found.append((cas, name or cas, lo, hi, _basis_of(line) or basis, line))
     return found, unknown
+
+
+def _numbered_ingredient(lines, k, line, m, need_percent, used):
+    """The name and range (or None) of the ingredient on line `k`, whose first CAS
+    number is the match `m`; a range on one of the next lines is taken (that line's
+    number added to `used`) when the line has none."""
+    before, after = line[:m.start()], line[m.end():]
+    cleaned = _strip_noise(_CAS.sub(" ", after))
+    hit = _find_range(cleaned, True) or _find_range(cleaned, False)
+    j = k + 1
+    while hit is None and j < min(k + 6, len(lines)) and not _CAS.search(lines[j]):
+        nxt = _strip_noise(lines[j])
+        if len(re.findall(r"[A-Za-z]{2,}", nxt)) <= 4:
+            hit = _find_range(nxt, True) or _find_range(nxt, False, False)
+        if hit is not None:
+            used.add(j)
+        j += 1
+    name = _name(before)
+    if not name:
+        head = cleaned if hit is None else cleaned[:cleaned.find(hit[2])]
+        name = _name(re.sub(r"\d", " ", head)) if re.search("[A-Za-z]{3}", head) else ""
+    if not name and k > 0 and not _CAS.search(lines[k - 1]) \
+            and _find_range(lines[k - 1], need_percent) is None:
+        name = _name(lines[k - 1])
+    return name, hit
+
+
+def _unnumbered_ingredient(line, need_percent, basis, notes):
+    """An ingredient line without a CAS number as an unidentified share, or None
+    (no range, or a sentence, noted)."""
+    stripped = _strip_noise(line)
+    hit = None if re.match(r"^\s*\d+(?:\.\d+)+\s", line) else (
+        _find_range(stripped, True) or _find_range(stripped, need_percent, False))
+    if hit is None:
+        if _SECRET.search(line):
+            notes.append(f"the sheet says: {line!r}")
+        return None
+    words = re.findall(r"[A-Za-z]{2,}", line)
+    sentence = (len(words) > 12 or (line.endswith(".") and len(words) > 3)
+                or re.search(r"\b(?:are|is|were|been|may|shall)\b", line, re.I))
+    if sentence:
+        notes.append(f"not read as an ingredient (a sentence): {line!r}")
+        return None
+    lo, hi, text = hit
+    name = _name(line[:line.find(text)] if text in line else line) or "unnamed ingredient"
+    reason = ("withheld as a trade secret" if _SECRET.search(line)
+              else "no CAS number given")
+    return SdsIngredient("", name, lo, hi, _basis_of(line) or basis, None, reason, line)
 
 
 def _ingredients(found, unknown, notes):
@@ -1154,6 +1167,62 @@ def dissolved_solid(sub: Substance) -> Substance:
 
 
 @dataclass
+class _Entries:
+    """The entries of a sheet as they are mapped: each entry's substances with their
+    shares, label and range; the substances once each, in order of first use."""
+
+    substances: list = field(default_factory=list)
+    rows: list = field(default_factory=list)
+    labels: list = field(default_factory=list)
+    lows: list = field(default_factory=list)
+    highs: list = field(default_factory=list)
+
+    def index(self, sub) -> int:
+        """The position of `sub` (by key) among the substances, added if new."""
+        for k, s in enumerate(self.substances):
+            if s.key == sub.key:
+                return k
+        self.substances.append(sub)
+        return len(self.substances) - 1
+
+    def add(self, parts, label, item) -> None:
+        """One entry: (substance index, share) parts, its label and the item's range."""
+        self.rows.append(parts)
+        self.labels.append(label)
+        self.lows.append(item.low)
+        self.highs.append(item.high)
+
+    def shares(self) -> np.ndarray:
+        """The share of each substance in each entry, entries x substances."""
+        shares = np.zeros((len(self.rows), len(self.substances)))
+        for e, parts in enumerate(self.rows):
+            for k, share in parts:
+                shares[e, k] += share
+        return shares
+
+
+def _add_unidentified(entries, items, unidentified, inert) -> str:
+    """Add the unidentified shares as the inert pseudo-component or the user's
+    surrogate; returns the words that say which."""
+    from .substances import as_substance
+
+    if unidentified == "inert" or unidentified is None:
+        surrogate = inert
+        treatment = ("unidentified shares taken as inert: a non-volatile, "
+                     "non-flammable diluent with the mean molar mass of the "
+                     "identified components; if they are volatile this "
+                     "under-estimates the vapour: pick a surrogate substance")
+    else:
+        surrogate = as_substance(unidentified, "surrogate for unidentified shares")
+        treatment = (f"unidentified shares taken as {surrogate.name} (surrogate "
+                     "chosen by the user)")
+    k = entries.index(surrogate)
+    for item in items:
+        entries.add([(k, 1.0)], item.name + (f" ({item.cas})" if item.cas else ""), item)
+    return treatment
+
+
+@dataclass
 class _Model:
     """Entries of the sheet (each a range) mapped onto the liquid's substances."""
 
@@ -1168,85 +1237,50 @@ class _Model:
 
     @classmethod
     def build(cls, reading: SdsReading, unidentified) -> "_Model":
-        from .substances import as_substance
-
         basis = reading.basis
         notes = []
         bases = {i.basis for i in reading.components + reading.unidentified}
         if len(bases) > 1:
             notes.append(f"the sheet mixes composition bases ({', '.join(sorted(bases))}): "
                          f"all taken as {basis}")
-        subs: list[Substance] = []
-        rows = []
-
-        def index(sub):
-            for k, s in enumerate(subs):
-                if s.key == sub.key:
-                    return k
-            subs.append(sub)
-            return len(subs) - 1
-
-        labels, lows, highs = [], [], []
+        entries = _Entries()
         solids = [i for i in reading.components if i.substance is not None
                   and (i.substance.melting_point or 0.0) > SOLID_ABOVE]
         for item in reading.components:
             if item in solids:
                 continue
             if item.substance is not None:
-                parts = [(index(item.substance), 1.0)]
+                parts = [(entries.index(item.substance), 1.0)]
             else:
                 _, split, _ = ISOMER_MIXTURES[item.cas]
-                parts = [(index(resolve_cas(c)), share) for c, share in split]
-            rows.append(parts)
-            labels.append(f"{item.name} ({item.cas})")
-            lows.append(item.low)
-            highs.append(item.high)
-        if not subs and (unidentified == "inert" or unidentified is None):
+                parts = [(entries.index(resolve_cas(c)), share) for c, share in split]
+            entries.add(parts, f"{item.name} ({item.cas})", item)
+        as_inert = unidentified == "inert" or unidentified is None
+        if not entries.substances and as_inert:
             raise InputError("safety data sheet", "no ingredient of the sheet is known by its "
                              "CAS number, so there is nothing to screen; pick a surrogate "
                              "substance for the unidentified shares, or enter the liquid "
                              "by hand")
         inert = None
-        if reading.unidentified and unidentified in ("inert", None):
-            if not subs:
+        if reading.unidentified and as_inert:
+            if not entries.substances:
                 raise InputError("safety data sheet", "no volatile ingredient of the sheet "
                                  "is known by its CAS number, so there is nothing to screen; "
                                  "pick a surrogate substance or enter the liquid by hand")
-            inert = inert_substance(*_mean_properties(reading, subs, rows, lows, highs, basis))
+            inert = inert_substance(*_mean_properties(
+                reading, entries.substances, entries.rows, entries.lows, entries.highs, basis))
         for item in solids:
-            rows.append([(index(dissolved_solid(item.substance)), 1.0)])
-            labels.append(f"{item.name} ({item.cas})")
-            lows.append(item.low)
-            highs.append(item.high)
+            entries.add([(entries.index(dissolved_solid(item.substance)), 1.0)],
+                        f"{item.name} ({item.cas})", item)
             notes.append(f"{item.name} ({item.cas}) melts at "
                          f"{item.substance.melting_point - 273.15:.0f} °C: taken as a "
                          "dissolved, non-volatile solid with its own molar mass")
+        treatment = ""
         if reading.unidentified:
-            if unidentified == "inert" or unidentified is None:
-                surrogate = inert
-                treatment = ("unidentified shares taken as inert: a non-volatile, "
-                             "non-flammable diluent with the mean molar mass of the "
-                             "identified components; if they are volatile this "
-                             "under-estimates the vapour: pick a surrogate substance")
-            else:
-                surrogate = as_substance(unidentified, "surrogate for unidentified shares")
-                treatment = (f"unidentified shares taken as {surrogate.name} (surrogate "
-                             "chosen by the user)")
-            k = index(surrogate)
-            for item in reading.unidentified:
-                rows.append([(k, 1.0)])
-                labels.append(item.name + (f" ({item.cas})" if item.cas else ""))
-                lows.append(item.low)
-                highs.append(item.high)
+            treatment = _add_unidentified(entries, reading.unidentified, unidentified, inert)
             notes.append(treatment)
-        else:
-            treatment = ""
-        shares = np.zeros((len(rows), len(subs)))
-        for e, parts in enumerate(rows):
-            for k, share in parts:
-                shares[e, k] += share
-        return cls(labels, np.array(lows), np.array(highs), shares, subs, basis, treatment,
-                   notes)
+        return cls(entries.labels, np.array(entries.lows), np.array(entries.highs),
+                   entries.shares(), entries.substances, basis, treatment, notes)
 
     def treatment_words(self) -> str:
         return f"; {self.treatment}" if self.treatment else ""

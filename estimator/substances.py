@@ -517,37 +517,10 @@ def user_substance(name: str, molar_mass: float, boiling_point: float,
     dh = None if enthalpy_of_vaporization is None else in_range(
         enthalpy_of_vaporization, "enthalpy_of_vaporization", "J/mol", 1000.0, 2e5,
         " (J/mol: 35000 for 35 kJ/mol)")
-    points = [tuple(p) for p in vapor_pressure_points]
-    for i, point in enumerate(points):
-        if len(point) != 2:
-            raise InputError(f"vapor_pressure_points[{i}]",
-                             "each point is (temperature in K, pressure in Pa)")
-        in_range(point[0], f"vapor_pressure_points[{i}] temperature", "K", 0.0,
-                  tc if tc is not None else math.inf)
-        in_range(point[1], f"vapor_pressure_points[{i}] pressure", "Pa")
-    tmin = tm if tm is not None else 0.0
+    points = _checked_points(vapor_pressure_points, boiling_point, tc)
     notes = []
-    ordered = sorted([(boiling_point, STANDARD_ATMOSPHERE)] + [(float(t), float(p))
-                                                              for t, p in points])
-    for (t1, p1), (t2, p2) in zip(ordered, ordered[1:]):
-        if t2 > t1 and p2 <= p1:
-            raise InputError("vapor_pressure_points", f"the vapour pressure falls from "
-                             f"{p1:g} Pa at {t1:g} K to {p2:g} Pa at {t2:g} K (the boiling "
-                             "point is 101325 Pa); it must rise with temperature: check the "
-                             "units and which pressure goes with which temperature")
-    if points:
-        fit = fit_clausius_clapeyron([boiling_point] + [p[0] for p in points],
-                                     [STANDARD_ATMOSPHERE] + [p[1] for p in points])
-        correlations = [_fit_correlation(
-            fit, f"line through the boiling point and {len(points)} point(s), {source}")]
-        correlations += _clausius_clapeyron_family(boiling_point, dh, tc, tmin,
-                                                   source)[:-1]
-    else:
-        correlations = _clausius_clapeyron_family(boiling_point, dh, tc, tmin, source)
-        if dh is None:
-            notes.append(f"{name}: no vapour pressure given; estimated from the boiling "
-                         "point with Trouton's rule, which can be far off (enter the "
-                         "SDS vapour pressure)")
+    correlations = _user_correlations(name, points, boiling_point, dh, tc,
+                                      tm if tm is not None else 0.0, source, notes)
     return Substance(
         key=_normalise(name) or "user",
         name=name.strip(),
@@ -566,6 +539,46 @@ def user_substance(name: str, molar_mass: float, boiling_point: float,
         origin="user",
         notes=tuple(notes),
     )
+
+
+def _checked_points(vapor_pressure_points, boiling_point, tc):
+    """The (temperature, pressure) points of `user_substance`, each checked, and
+    rising with temperature together with the boiling point."""
+    points = [tuple(p) for p in vapor_pressure_points]
+    for i, point in enumerate(points):
+        if len(point) != 2:
+            raise InputError(f"vapor_pressure_points[{i}]",
+                             "each point is (temperature in K, pressure in Pa)")
+        in_range(point[0], f"vapor_pressure_points[{i}] temperature", "K", 0.0,
+                  tc if tc is not None else math.inf)
+        in_range(point[1], f"vapor_pressure_points[{i}] pressure", "Pa")
+    ordered = sorted([(boiling_point, STANDARD_ATMOSPHERE)] + [(float(t), float(p))
+                                                              for t, p in points])
+    for (t1, p1), (t2, p2) in zip(ordered, ordered[1:]):
+        if t2 > t1 and p2 <= p1:
+            raise InputError("vapor_pressure_points", f"the vapour pressure falls from "
+                             f"{p1:g} Pa at {t1:g} K to {p2:g} Pa at {t2:g} K (the boiling "
+                             "point is 101325 Pa); it must rise with temperature: check the "
+                             "units and which pressure goes with which temperature")
+    return points
+
+
+def _user_correlations(name, points, boiling_point, dh, tc, tmin, source, notes):
+    """The vapour-pressure correlations of `user_substance`: a line through the boiling
+    point and the points first when there are points (a note when Trouton's rule is
+    all there is)."""
+    if points:
+        fit = fit_clausius_clapeyron([boiling_point] + [p[0] for p in points],
+                                     [STANDARD_ATMOSPHERE] + [p[1] for p in points])
+        correlations = [_fit_correlation(
+            fit, f"line through the boiling point and {len(points)} point(s), {source}")]
+        return correlations + _clausius_clapeyron_family(boiling_point, dh, tc, tmin,
+                                                         source)[:-1]
+    if dh is None:
+        notes.append(f"{name}: no vapour pressure given; estimated from the boiling "
+                     "point with Trouton's rule, which can be far off (enter the "
+                     "SDS vapour pressure)")
+    return _clausius_clapeyron_family(boiling_point, dh, tc, tmin, source)
 
 
 def _fit_correlation(fit, source) -> ClausiusClapeyronCorrelation:

@@ -17,6 +17,7 @@ from pathlib import Path
 
 import numpy as np
 
+from . import correlations
 from .correlations import (  # re-exported: the equations' public home is here too
     AntoineCorrelation,
     ClausiusClapeyronCorrelation,
@@ -38,18 +39,7 @@ from .correlations import same_shape as _same_shape
 from .errors import ExtrapolationWarning, InputError, OutOfRangeError
 
 __all__ = [
-    "clausius_clapeyron",
-    "fit_clausius_clapeyron",
-    "ClausiusClapeyronFit",
-    "antoine",
-    "antoine_to_si",
-    "dippr101",
-    "watson_enthalpy",
-    "clausius_clapeyron_watson",
-    "trouton_enthalpy",
-    "Dippr101Correlation",
-    "AntoineCorrelation",
-    "ClausiusClapeyronCorrelation",
+    *correlations.__all__,  # the re-exported equations, constants and correlation objects
     "vapor_pressure",
     "vapor_pressure_estimate",
     "VaporPressureEstimate",

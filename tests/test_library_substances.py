@@ -280,17 +280,18 @@ def test_inventory_rows_resolve_library_liquids(tmp_path):
     assert "check digit" in table["reason"].iloc[3]
 
 
-def test_browser_search_box_finds_library_liquid():
+def test_browser_search_box_finds_library_liquid(demo_results):
     """The tank page's search box selects a library liquid, marks it, and the headspace
-    on screen is the core's."""
+    on screen is the core's at the demo tank's temperature and pressure."""
     from streamlit.testing.v1 import AppTest
 
-    from estimator.headspace import barometric_pressure
     from estimator.limits import format_ppm
+
+    demo_tank = demo_results["coatings-day-tank"].tanks[0].headspace
 
     screens = Path(__file__).resolve().parents[1] / "ui" / "screens"
     at = AppTest.from_file(str(screens / "tank.py"), default_timeout=60).run()
-    at.selectbox(key="w:demo").select("coatings-day-tank.toml")  # its 34 degC and 210 m
+    at.selectbox(key="w:demo").select("coatings-day-tank.toml")
     at.run()
     at.button(key="load:sidebar").click()
     at.run()
@@ -302,7 +303,7 @@ def test_browser_search_box_finds_library_liquid():
     assert at.selectbox(key="w:tank.substance").value == "107-83-5"
     assert any("property library" in c.value for c in at.caption)
     assert any("not on record" in w.value for w in at.warning)
-    core = estimator.headspace("107-83-5", 307.15, barometric_pressure(210.0))
+    core = estimator.headspace("107-83-5", demo_tank.temperature, demo_tank.pressure)
     shown = next(m.value for m in at.metric if m.label == "Total vapour in the headspace")
     assert shown == f"{format_ppm(core.total_ppm)} ppm"
     at.text_input(key="w:tank.find").input("108-88-4")

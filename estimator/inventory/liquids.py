@@ -212,58 +212,15 @@ def resolve_liquids(texts, basis_words):
     pair_note = same_text(pairs, "")
     pair_set = np.full(pairs, -1, dtype=np.intp)
     pair_composition = np.zeros(pairs, dtype=np.intp)
-    names: dict[str, object] = {}
-
-    def component(name: str):
-        if name not in names:
-            try:
-                names[name] = make_liquid(name, field="liquid component").components[0]
-            except InputError as exc:
-                names[name] = exc
-        return names[name]
-
+    component = _component_lookup()
     pending: dict[tuple, list] = defaultdict(list)  # (keys, basis) -> [(pair, amounts, found)]
     for k, (text, basis_word) in enumerate(zip(texts, basis_words)):
-        if text.startswith("=") or basis_word.startswith("="):
-            pair_problem[k] = ("", None)  # reported as a formula
+        problem, read = _read_pair(text, basis_word, component)
+        if problem is not None:
+            pair_problem[k] = problem
             continue
-        basis = BASIS_WORDS.get(basis_word) if basis_word else "mass"
-        if not text:
-            pair_problem[k] = (_NO_LIQUID, "liquid")
-            continue
-        if basis is None:
-            pair_problem[k] = (f"{basis_word!r} is not a basis; use mole, mass or volume "
-                               "(blank means mass)", "basis")
-            continue
-        if "%" not in text:
-            found = component(text)
-            if isinstance(found, InputError):
-                pair_problem[k] = (found.reason, "liquid")
-                continue
-            pending[((found.key,), "mole")].append((k, np.ones(1), (found,)))
-            continue
-        parts = _mixture_parts(text)
-        if parts is None:
-            pair_problem[k] = (f"{text!r} cannot be read as a mixture: write each component "
-                               "as a name followed by its percentage, separated by commas, "
-                               "for example 'toluene 60%, o-xylene 40%'", "liquid")
-            continue
-        lowered = [name.lower() for name, _ in parts]
-        if len(set(lowered)) != len(lowered):
-            pair_problem[k] = ("a component is listed twice; give each component once",
-                               "liquid")
-            continue
-        found = [component(name) for name, _ in parts]
-        failed = next((f for f in found if isinstance(f, InputError)), None)
-        if failed is not None:
-            pair_problem[k] = (failed.reason, "liquid")
-            continue
-        keys = tuple(c.key for c in found)
-        if len(set(keys)) != len(keys):
-            pair_problem[k] = ("a component is listed twice (perhaps under two names)",
-                               "liquid")
-            continue
-        pending[(keys, basis)].append((k, np.array([a for _, a in parts]), tuple(found)))
+        keys, basis, amounts, found = read
+        pending[(keys, basis)].append((k, amounts, found))
     sets: list[_ComponentSet] = []
     set_index: dict[tuple, int] = {}
     for (keys, basis), members in pending.items():
@@ -283,10 +240,68 @@ def resolve_liquids(texts, basis_words):
                                    np.vstack([sets[s_id].fractions, x[good]]))
         pair_set[members_pairs[good]] = s_id
         pair_composition[members_pairs[good]] = offset + np.arange(int(good.sum()))
-        looked_up = "; ".join(n for c in components if c.origin == "lookup" for n in c.notes)
-        pair_note[members_pairs[good]] = ([f"{n}; {looked_up}" if n else looked_up
-                                           for n in notes[good]] if looked_up
-                                          else notes[good])
+        pair_note[members_pairs[good]] = _with_lookup_notes(notes[good], components)
         for m, problem in zip(members_pairs[~good], problems[~good]):
             pair_problem[m] = (problem, "liquid")
     return sets, pair_set, pair_composition, pair_problem, pair_note
+
+
+def _component_lookup():
+    """A function from a component name to its substance (or the InputError of the
+    look-up), each name looked up once."""
+    names: dict[str, object] = {}
+
+    def component(name: str):
+        if name not in names:
+            try:
+                names[name] = make_liquid(name, field="liquid component").components[0]
+            except InputError as exc:
+                names[name] = exc
+        return names[name]
+
+    return component
+
+
+def _read_pair(text, basis_word, component):
+    """Read one (liquid text, basis word) pair.
+
+    Returns (problem, None), the problem as `resolve_liquids` reports it, or (None,
+    (component keys, basis, amounts, components)).
+    """
+    if text.startswith("=") or basis_word.startswith("="):
+        return ("", None), None  # reported as a formula
+    basis = BASIS_WORDS.get(basis_word) if basis_word else "mass"
+    if not text:
+        return (_NO_LIQUID, "liquid"), None
+    if basis is None:
+        return (f"{basis_word!r} is not a basis; use mole, mass or volume "
+                "(blank means mass)", "basis"), None
+    if "%" not in text:
+        found = component(text)
+        if isinstance(found, InputError):
+            return (found.reason, "liquid"), None
+        return None, ((found.key,), "mole", np.ones(1), (found,))
+    parts = _mixture_parts(text)
+    if parts is None:
+        return (f"{text!r} cannot be read as a mixture: write each component "
+                "as a name followed by its percentage, separated by commas, "
+                "for example 'toluene 60%, o-xylene 40%'", "liquid"), None
+    lowered = [name.lower() for name, _ in parts]
+    if len(set(lowered)) != len(lowered):
+        return ("a component is listed twice; give each component once", "liquid"), None
+    found = [component(name) for name, _ in parts]
+    failed = next((f for f in found if isinstance(f, InputError)), None)
+    if failed is not None:
+        return (failed.reason, "liquid"), None
+    keys = tuple(c.key for c in found)
+    if len(set(keys)) != len(keys):
+        return ("a component is listed twice (perhaps under two names)", "liquid"), None
+    return None, (keys, basis, np.array([a for _, a in parts]), tuple(found))
+
+
+def _with_lookup_notes(notes, components):
+    """The composition notes with the notes of library-looked-up components added."""
+    looked_up = "; ".join(n for c in components if c.origin == "lookup" for n in c.notes)
+    if not looked_up:
+        return notes
+    return [f"{n}; {looked_up}" if n else looked_up for n in notes]

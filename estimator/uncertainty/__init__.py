@@ -129,12 +129,15 @@ from .results import (
     rank_correlations,
 )
 from .sampling import (
+    ChainSamples,
+    add_limit_ratios,
     check_bounds,
     check_pressures,
     draw_input,
     limit_tuple,
     method_factors,
     saturation_estimate,
+    start_chain,
     unique_labels,
 )
 from .headspace_chain import (

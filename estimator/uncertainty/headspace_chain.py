@@ -11,22 +11,9 @@ import numpy as np
 from ..checks import number
 from ..constants import OXYGEN_IN_AIR, STANDARD_ATMOSPHERE
 from ..errors import InputError, OutOfRangeError
-from .distributions import (
-    DirichletComposition,
-    as_distribution,
-    random_generator,
-    sample_count,
-)
-from .results import MonteCarloResult, monte_carlo_result
-from .sampling import (
-    check_bounds,
-    check_pressures,
-    draw_input,
-    limit_tuple,
-    method_factors,
-    saturation_estimate,
-    unique_labels,
-)
+from .distributions import DirichletComposition, as_distribution
+from .results import MonteCarloResult
+from .sampling import add_limit_ratios, check_bounds, check_pressures, start_chain
 
 __all__ = [
     "headspace_monte_carlo",
@@ -149,33 +136,48 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
     >>> round(r.percentiles["total_ppm"][50], -3), round(r.exceedance["10 % LFL alarm"], 2)
     (37000.0, 1.0)
     """
-    from ..headspace import le_chatelier
     from ..mixtures import liquid as make_liquid
 
     liq = make_liquid(liquid)
-    count = sample_count(n)
-    seed, rng = random_generator(seed)
-    alarm = number(lfl_alarm, "lfl_alarm")
-    if not 0.0 < alarm <= 100.0:
-        raise InputError("lfl_alarm", f"{alarm:g} must be above 0 and at most 100 % of the LFL")
+    samples, alarm, limit_list = start_chain(n, seed, lfl_alarm, limits,
+                                             include_method_uncertainty, liq.warnings)
     oxygen_level = number(oxygen_alarm, "oxygen_alarm")
     if not 0.0 < oxygen_level < 100.0 * OXYGEN_IN_AIR:
         raise InputError("oxygen_alarm", f"{oxygen_level:g} must be above 0 and below the "
                          f"{100 * OXYGEN_IN_AIR:g} % of fresh air")
-    limit_list = limit_tuple(limits)
-    if not isinstance(include_method_uncertainty, bool):
-        raise InputError("include_method_uncertainty", "must be True or False")
+    t = samples.temperature(temperature)
+    p_total = check_pressures(samples.draw(pressure, "pressure", "Pa"), "pressure")
+    x = _composition_samples(liq, composition, composition_basis, samples.count, samples.rng,
+                             samples.inputs, samples.input_samples)
+    p_sat = _saturation_pressures(liq, t, samples, include_method_uncertainty)
 
-    inputs: dict[str, str] = {}
-    input_samples: dict[str, np.ndarray] = {}
-    notes = list(liq.warnings)
-    t = draw_input(temperature, "temperature", "K", count, rng, inputs, input_samples)
-    check_bounds(t, "temperature", "K", above=0.0, why=" (temperatures are in kelvin)")
-    p_total = draw_input(pressure, "pressure", "Pa", count, rng, inputs, input_samples)
-    check_pressures(p_total, "pressure")
-    x = _composition_samples(liq, composition, composition_basis, count, rng, inputs,
-                             input_samples)
+    # Raoult's law and the assembly of estimator.headspace, per sample
+    p_i = x * liq.activity_coefficients[:, None] * p_sat
+    p_sum = p_i.sum(axis=0)
+    boiling = p_sum >= p_total
+    y = p_i / np.maximum(p_sum, p_total)
+    if np.any(boiling):
+        samples.notes.append(f"in {100 * np.mean(boiling):.3g} % of samples the liquid boils "
+                             "(its vapour pressure reaches the pressure of the space, which "
+                             "then holds essentially pure vapour)")
+    outputs, units, exceedance = _headspace_outputs(liq, y, alarm, oxygen_level,
+                                                    samples.notes)
+    keys = [c.key for c in liq.components]
 
+    def ratio(lim):
+        if lim.substance not in keys:
+            return None
+        return y[keys.index(lim.substance)] / lim.volume_fraction_at(t, p_total)
+
+    add_limit_ratios(limit_list, ratio, ", which is not in the liquid", outputs, units,
+                     exceedance, samples.notes)
+    samples.notes.append("equilibrium headspace: the worst case for a closed space left long "
+                         "enough; measure the real atmosphere before entry")
+    return samples.result("headspace", outputs, units, exceedance)
+
+
+def _saturation_pressures(liq, t, samples, include_method_uncertainty):
+    """Vapour pressure of each component per sample, shape (components, n). [Pa]"""
     if not liq.is_pure:
         from ..vapor import component_vapor_pressure_estimates
 
@@ -184,30 +186,21 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
         except OutOfRangeError as error:
             raise OutOfRangeError(error.field, error.reason + "; bound the temperature "
                                   "distribution to the liquid range") from None
-    estimates = [saturation_estimate(c, t, subcooled=not liq.is_pure)
-                 for c in liq.components]
-    p_sat = np.stack([np.asarray(e.pressure, dtype=float) for e in estimates])
-    for i, (c, e) in enumerate(zip(liq.components, estimates)):
-        notes.extend(e.warnings)
-        name = ("vapor_pressure_factor" if liq.is_pure
-                else f"vapor_pressure_factor[{c.name}]")
-        factors = method_factors(e, c.name, count, rng, include_method_uncertainty, inputs,
-                                  input_samples, notes, name)
-        if include_method_uncertainty:
-            p_sat[i] *= factors
+    names = (["vapor_pressure_factor"] if liq.is_pure
+             else [f"vapor_pressure_factor[{c.name}]" for c in liq.components])
+    p_sat = samples.saturation_pressures(liq.components, t, include_method_uncertainty, names,
+                                         subcooled=not liq.is_pure)
     if not include_method_uncertainty:
-        notes.append("the uncertainty of the vapour-pressure methods is not included")
+        samples.notes.append("the uncertainty of the vapour-pressure methods is not included")
+    return p_sat
 
-    # Raoult's law and the assembly of estimator.headspace, per sample
-    p_i = x * liq.activity_coefficients[:, None] * p_sat
-    p_sum = p_i.sum(axis=0)
-    boiling = p_sum >= p_total
-    y = p_i / np.maximum(p_sum, p_total)
+
+def _headspace_outputs(liq, y, alarm, oxygen_level, notes):
+    """Total ppm, %LFL (Le Chatelier) and oxygen of the headspace mole fractions `y`, with
+    their units and alarm exceedances."""
+    from ..headspace import le_chatelier
+
     y_total = y.sum(axis=0)
-    if np.any(boiling):
-        notes.append(f"in {100 * np.mean(boiling):.3g} % of samples the liquid boils (its "
-                     "vapour pressure reaches the pressure of the space, which then holds "
-                     "essentially pure vapour)")
     outputs = {"total_ppm": y_total * 1e6}
     units = {"total_ppm": "ppm"}
     exceedance = {}
@@ -228,18 +221,4 @@ def headspace_monte_carlo(liquid, temperature, pressure=STANDARD_ATMOSPHERE, lim
     outputs["oxygen_percent"] = oxygen
     units["oxygen_percent"] = "% by volume"
     exceedance[f"oxygen below {oxygen_level:g} %"] = float(np.mean(oxygen < oxygen_level))
-
-    keys = [c.key for c in liq.components]
-    for lim, label in zip(limit_list, unique_labels(limit_list)):
-        if lim.substance not in keys:
-            notes.append(f"limit {label} is for {lim.substance}, which is not in the liquid; "
-                         "it was left out")
-            continue
-        ratio = y[keys.index(lim.substance)] / lim.volume_fraction_at(t, p_total)
-        outputs[f"ratio to {label}"] = ratio
-        units[f"ratio to {label}"] = "-"
-        exceedance[label] = float(np.mean(ratio > 1.0))
-    notes.append("equilibrium headspace: the worst case for a closed space left long "
-                 "enough; measure the real atmosphere before entry")
-    return monte_carlo_result("headspace", count, seed, inputs, input_samples, outputs, units,
-                   exceedance, notes)
+    return outputs, units, exceedance

@@ -5,14 +5,22 @@ factors.
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Mapping
+from collections.abc import Callable, Iterable, Mapping
+import dataclasses
 
 import numpy as np
 
-from ..checks import PRESSURE_RANGE, PRESSURE_RANGE_TEXT
+from ..checks import PRESSURE_RANGE, PRESSURE_RANGE_TEXT, number
 from ..errors import InputError, OutOfRangeError
 from ..limits import ExposureLimit
-from .distributions import as_distribution, unit_text, vapor_pressure_factor
+from .distributions import (
+    as_distribution,
+    random_generator,
+    sample_count,
+    unit_text,
+    vapor_pressure_factor,
+)
+from .results import MonteCarloResult, monte_carlo_result
 
 __all__ = [
 ]
@@ -56,6 +64,92 @@ def check_pressures(samples, field):
     check_bounds(samples, field, "Pa", minimum=low, maximum=high,
              why=f" ({PRESSURE_RANGE_TEXT})")
     return samples
+
+
+@dataclasses.dataclass
+class ChainSamples:
+    """What one run of a chain draws and gathers: the sample count, the seed and its
+    generator, each input's description and samples (in the order drawn) and the notes.
+
+    Every chain draws through one of these, in a fixed order, so a seed reproduces
+    every sample.
+    """
+
+    count: int
+    seed: int
+    rng: np.random.Generator
+    notes: list[str]
+    inputs: dict[str, str] = dataclasses.field(default_factory=dict)
+    input_samples: dict[str, np.ndarray] = dataclasses.field(default_factory=dict)
+
+    def draw(self, value, field, unit, **bounds) -> np.ndarray:
+        """Samples of one input (a number or a distribution), recorded under `field` and
+        checked against the `bounds` of `check_bounds` when given."""
+        samples = draw_input(value, field, unit, self.count, self.rng, self.inputs,
+                             self.input_samples)
+        if bounds:
+            check_bounds(samples, field, unit, **bounds)
+        return samples
+
+    def temperature(self, value) -> np.ndarray:
+        """Samples of the temperature input, checked to be above 0 K. [K]"""
+        return self.draw(value, "temperature", "K", above=0.0,
+                         why=" (temperatures are in kelvin)")
+
+    def saturation_pressures(self, components, temperature, include, input_names, *,
+                             subcooled=False) -> np.ndarray:
+        """Vapour pressures of the components over the sampled temperatures, shape
+        (components, count), each times its method-uncertainty factor when `include`
+        (the factor drawn under its name in `input_names`). [Pa]"""
+        estimates = [saturation_estimate(c, temperature, subcooled=subcooled)
+                     for c in components]
+        p_sat = np.stack([np.asarray(e.pressure, dtype=float) for e in estimates])
+        for i, (c, e, name) in enumerate(zip(components, estimates, input_names)):
+            self.notes.extend(e.warnings)
+            factors = method_factors(e, c.name, self.count, self.rng, include, self.inputs,
+                                     self.input_samples, self.notes, name)
+            if include:
+                p_sat[i] *= factors
+        return p_sat
+
+    def result(self, model, outputs, units, exceedance) -> MonteCarloResult:
+        """The chain's `MonteCarloResult` from its outputs and what was drawn."""
+        return monte_carlo_result(model, self.count, self.seed, self.inputs,
+                                  self.input_samples, outputs, units, exceedance, self.notes)
+
+
+def start_chain(n, seed, lfl_alarm, limits, include_method_uncertainty, notes):
+    """The checked options every chain takes and its samples' start.
+
+    Returns (`ChainSamples`, the LFL alarm level [% LFL], the limits as a tuple).
+    """
+    count = sample_count(n)
+    seed, rng = random_generator(seed)
+    alarm = number(lfl_alarm, "lfl_alarm")
+    if not 0.0 < alarm <= 100.0:
+        raise InputError("lfl_alarm", f"{alarm:g} must be above 0 and at most 100 % of the LFL")
+    limit_list = limit_tuple(limits)
+    if not isinstance(include_method_uncertainty, bool):
+        raise InputError("include_method_uncertainty", "must be True or False")
+    return ChainSamples(count, seed, rng, list(notes)), alarm, limit_list
+
+
+def add_limit_ratios(limits, concentration_ratio: Callable, left_out: str, outputs, units,
+                     exceedance, notes) -> None:
+    """Add each limit's ``ratio to <label>`` output and its exceedance (ratio above 1).
+
+    `concentration_ratio(limit)` gives the samples' ratios to the limit, or None for a
+    limit of another substance, which is left out with a note (`left_out` follows "limit
+    <label> is for <substance>").
+    """
+    for lim, label in zip(limits, unique_labels(limits)):
+        ratio = concentration_ratio(lim)
+        if ratio is None:
+            notes.append(f"limit {label} is for {lim.substance}{left_out}; it was left out")
+            continue
+        outputs[f"ratio to {label}"] = ratio
+        units[f"ratio to {label}"] = "-"
+        exceedance[label] = float(np.mean(ratio > 1.0))
 
 
 def limit_tuple(limits) -> tuple[ExposureLimit, ...]:

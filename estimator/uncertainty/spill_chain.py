@@ -20,17 +20,8 @@ from ..constants import (
 from ..errors import InputError, UllageWarning
 from ..evaporation import HIGH_VOLATILITY_RATIO, LOW_AIR_SPEED, low_air_speed_note
 from ..indoor import phi1, phi2
-from .distributions import random_generator, sample_count
-from .results import MonteCarloResult, monte_carlo_result
-from .sampling import (
-    check_bounds,
-    check_pressures,
-    draw_input,
-    limit_tuple,
-    method_factors,
-    saturation_estimate,
-    unique_labels,
-)
+from .results import MonteCarloResult
+from .sampling import add_limit_ratios, check_bounds, check_pressures, start_chain
 
 __all__ = [
     "indoor_spill_monte_carlo",
@@ -219,14 +210,48 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
     >>> round(r.percentiles["twa_ppm"][50]), next(iter(r.sensitivity["twa_ppm"]))
     (69, 'ventilation_rate')
     """
-    from ..evaporation import (
-        air_diffusivity,
-        air_kinematic_viscosity,
-        evaporation_flux,
-        mackay_matsugu_coefficient,
-        pool_diameter,
-        schmidt_number,
-    )
+    sub = _pure_substance(substance_or_key)
+    period = number(duration, "duration")
+    if period <= 0.0:
+        raise InputError("duration", f"{period:g} s must be above 0")
+    samples, alarm, limit_list = start_chain(n, seed, lfl_alarm, limits,
+                                             include_method_uncertainty, sub.notes)
+    p_air = float(check_pressures(np.asarray(number(pressure, "pressure")), "pressure"))
+    spill = _SpillDraws.draw(samples, sub, temperature, pool_area, air_speed, room_volume,
+                             ventilation_rate, mixing_factor, spilled_mass)
+    t = spill.temperature
+    p_sat = samples.saturation_pressures([sub], t, include_method_uncertainty,
+                                         ["vapor_pressure_factor"])[0]
+    if not include_method_uncertainty:
+        samples.notes.append("the uncertainty of the vapour-pressure method is not included")
+    rate = _evaporation_rate(sub, spill, p_sat, p_air, samples.notes)
+    with np.errstate(divide="ignore"):  # a rate that underflows to 0 never runs dry
+        lifetime = spill.mass / rate
+
+    # well-mixed room, constant source until dry, capped at saturation
+    saturation = np.minimum(p_sat, p_air) * sub.molar_mass / (GAS_CONSTANT * t)
+    source_end = lifetime if source_removed_at is None else np.minimum(
+        lifetime, float(source_removed_at))
+    room = _RoomHistory.build(rate / spill.volume, spill.flow / (spill.mixing * spill.volume),
+                              saturation, source_end)
+    to_ppm = GAS_CONSTANT * t / (p_air * sub.molar_mass) * 1e6
+    outputs = {
+        "evaporation_rate": rate,
+        "pool_lifetime": lifetime,
+        "peak_ppm": room.concentration(np.minimum(source_end, period)) * to_ppm,
+        "twa_ppm": room.integral(np.full(samples.count, period)) / EIGHT_HOUR_SHIFT * to_ppm,
+        "short_term_ppm": room.highest_window_average(period, SHORT_TERM_PERIOD) * to_ppm,
+    }
+    units = {"evaporation_rate": "kg/s", "pool_lifetime": "s", "peak_ppm": "ppm",
+             "twa_ppm": "ppm", "short_term_ppm": "ppm"}
+    exceedance = _compare(sub, outputs, units, limit_list, alarm, t, p_air, samples.notes)
+    _add_spill_notes(samples.notes, room.saturation_time < np.minimum(source_end, period),
+                     spill.speed, p_sat / p_air, period)
+    return samples.result("indoor spill", outputs, units, exceedance)
+
+
+def _pure_substance(substance_or_key):
+    """The one substance of a pure liquid; a mixture is refused."""
     from ..mixtures import Liquid
     from ..substances import as_substance
 
@@ -239,86 +264,67 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
     if isinstance(substance_or_key, Mapping):
         raise InputError("substance_or_key", "this chain is for pure liquids; give one "
                          "substance (use estimator.spill.indoor_spill for a mixture)")
-    sub = as_substance(substance_or_key, "substance_or_key")
-    count = sample_count(n)
-    seed, rng = random_generator(seed)
-    period = number(duration, "duration")
-    if period <= 0.0:
-        raise InputError("duration", f"{period:g} s must be above 0")
-    alarm = number(lfl_alarm, "lfl_alarm")
-    if not 0.0 < alarm <= 100.0:
-        raise InputError("lfl_alarm", f"{alarm:g} must be above 0 and at most 100 % of the LFL")
-    p_air = float(check_pressures(np.asarray(number(pressure, "pressure")), "pressure"))
-    limit_list = limit_tuple(limits)
-    if not isinstance(include_method_uncertainty, bool):
-        raise InputError("include_method_uncertainty", "must be True or False")
+    return as_substance(substance_or_key, "substance_or_key")
 
-    inputs: dict[str, str] = {}
-    input_samples: dict[str, np.ndarray] = {}
-    notes = list(sub.notes)
 
-    def draw(value, field, unit):
-        return draw_input(value, field, unit, count, rng, inputs, input_samples)
+@dataclass(frozen=True)
+class _SpillDraws:
+    """The sampled inputs of an indoor spill, one value per sample (SI units)."""
 
-    t = draw(temperature, "temperature", "K")
-    check_bounds(t, "temperature", "K", above=0.0, why=" (temperatures are in kelvin)")
-    check_bounds(t, "temperature", "K", below=sub.boiling_point,
-             why=f", the normal boiling point of {sub.name}: the pool would boil, which "
-                 "these evaporation models do not cover")
-    area = draw(pool_area, "pool_area", "m2")
-    check_bounds(area, "pool_area", "m2", above=0.0)
-    speed = draw(air_speed, "air_speed", "m/s")
-    check_bounds(speed, "air_speed", "m/s", above=0.0,
-             why=" (the evaporation model needs moving air; indoors 0.05-0.3 m/s is typical)")
-    volume = draw(room_volume, "room_volume", "m3")
-    check_bounds(volume, "room_volume", "m3", above=0.0)
-    flow = draw(ventilation_rate, "ventilation_rate", "m3/s")
-    check_bounds(flow, "ventilation_rate", "m3/s", minimum=0.0, why=" (use 0 for a closed room)")
-    mixing = draw(mixing_factor, "mixing_factor", "")
-    check_bounds(mixing, "mixing_factor", "", minimum=1.0,
-             why=" (K >= 1 divides the ventilation rate; for a mixing efficiency m <= 1 use "
-                 "K = 1/m)")
-    mass = draw(spilled_mass, "spilled_mass", "kg")
-    check_bounds(mass, "spilled_mass", "kg", above=0.0)
+    temperature: np.ndarray
+    area: np.ndarray
+    speed: np.ndarray
+    volume: np.ndarray
+    flow: np.ndarray
+    mixing: np.ndarray
+    mass: np.ndarray
 
-    estimate = saturation_estimate(sub, t)
-    notes.extend(estimate.warnings)
-    p_sat = np.asarray(estimate.pressure, dtype=float) * method_factors(
-        estimate, sub.name, count, rng, include_method_uncertainty, inputs, input_samples,
-        notes, "vapor_pressure_factor")
-    if not include_method_uncertainty:
-        notes.append("the uncertainty of the vapour-pressure method is not included")
+    @classmethod
+    def draw(cls, samples, sub, temperature, pool_area, air_speed, room_volume,
+             ventilation_rate, mixing_factor, spilled_mass):
+        """Draw the inputs in their fixed order, each checked against its bounds."""
+        t = samples.temperature(temperature)
+        check_bounds(t, "temperature", "K", below=sub.boiling_point,
+                     why=f", the normal boiling point of {sub.name}: the pool would boil, "
+                         "which these evaporation models do not cover")
+        area = samples.draw(pool_area, "pool_area", "m2", above=0.0)
+        speed = samples.draw(air_speed, "air_speed", "m/s", above=0.0,
+                             why=" (the evaporation model needs moving air; indoors "
+                                 "0.05-0.3 m/s is typical)")
+        volume = samples.draw(room_volume, "room_volume", "m3", above=0.0)
+        flow = samples.draw(ventilation_rate, "ventilation_rate", "m3/s", minimum=0.0,
+                            why=" (use 0 for a closed room)")
+        mixing = samples.draw(mixing_factor, "mixing_factor", "", minimum=1.0,
+                              why=" (K >= 1 divides the ventilation rate; for a mixing "
+                                  "efficiency m <= 1 use K = 1/m)")
+        mass = samples.draw(spilled_mass, "spilled_mass", "kg", above=0.0)
+        return cls(t, area, speed, volume, flow, mixing, mass)
 
-    # Mackay-Matsugu evaporation rate, as estimator.evaporation.evaporation_rate
+
+def _evaporation_rate(sub, spill, p_sat, p_air, notes):
+    """Mackay-Matsugu evaporation rate per sample, as
+    `estimator.evaporation.evaporation_rate`. [kg/s]"""
+    from ..evaporation import (
+        air_diffusivity,
+        air_kinematic_viscosity,
+        evaporation_flux,
+        mackay_matsugu_coefficient,
+        pool_diameter,
+        schmidt_number,
+    )
+
+    t = spill.temperature
     with warnings.catch_warnings(record=True) as caught:
         warnings.simplefilter("always", UllageWarning)
         diffusivity = np.asarray(air_diffusivity(sub, t, p_air))
     notes.extend(str(w.message) for w in caught)
     sc = np.asarray(schmidt_number(air_kinematic_viscosity(t, p_air), diffusivity))
-    k = np.asarray(mackay_matsugu_coefficient(speed, pool_diameter(area), sc))
-    rate = np.asarray(evaporation_flux(k, p_sat, sub.molar_mass, t)) * area
-    with np.errstate(divide="ignore"):  # a rate that underflows to 0 never runs dry
-        lifetime = mass / rate
+    k = np.asarray(mackay_matsugu_coefficient(spill.speed, pool_diameter(spill.area), sc))
+    return np.asarray(evaporation_flux(k, p_sat, sub.molar_mass, t)) * spill.area
 
-    # well-mixed room, constant source until dry, capped at saturation
-    saturation = np.minimum(p_sat, p_air) * sub.molar_mass / (GAS_CONSTANT * t)
-    source_end = lifetime if source_removed_at is None else np.minimum(
-        lifetime, float(source_removed_at))
-    room = _RoomHistory.build(rate / volume, flow / (mixing * volume), saturation, source_end)
-    peak = room.concentration(np.minimum(source_end, period))
-    twa = room.integral(np.full(count, period)) / EIGHT_HOUR_SHIFT
-    short_term = room.highest_window_average(period, SHORT_TERM_PERIOD)
-    to_ppm = GAS_CONSTANT * t / (p_air * sub.molar_mass) * 1e6
 
-    outputs = {
-        "evaporation_rate": rate,
-        "pool_lifetime": lifetime,
-        "peak_ppm": peak * to_ppm,
-        "twa_ppm": twa * to_ppm,
-        "short_term_ppm": short_term * to_ppm,
-    }
-    units = {"evaporation_rate": "kg/s", "pool_lifetime": "s", "peak_ppm": "ppm",
-             "twa_ppm": "ppm", "short_term_ppm": "ppm"}
+def _compare(sub, outputs, units, limit_list, alarm, t, p_air, notes):
+    """Add %LFL and the limit ratios to the outputs; the exceedance probabilities."""
     metric = {"TWA": "twa_ppm", "STEL": "short_term_ppm", "ceiling": "peak_ppm",
               "emergency": "peak_ppm"}
     exceedance = {}
@@ -329,27 +335,29 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
     else:
         notes.append(f"{sub.name} has no LFL on record: the peak is not compared with the "
                      "LFL alarm (it may still burn; enter the LFL from the safety data sheet)")
-    for lim, label in zip(limit_list, unique_labels(limit_list)):
+
+    def ratio(lim):
         if lim.substance != sub.key:
-            notes.append(f"limit {label} is for {lim.substance}, not {sub.key}; it was "
-                         "left out")
-            continue
-        ratio = outputs[metric[lim.kind]] / lim.ppm_at(t, p_air)
-        outputs[f"ratio to {label}"] = ratio
-        units[f"ratio to {label}"] = "-"
-        exceedance[label] = float(np.mean(ratio > 1.0))
+            return None
+        return outputs[metric[lim.kind]] / lim.ppm_at(t, p_air)
+
+    add_limit_ratios(limit_list, ratio, f", not {sub.key}", outputs, units, exceedance, notes)
     if "peak_percent_lfl" in outputs:
         exceedance[f"{alarm:g} % LFL alarm"] = float(np.mean(
             outputs["peak_percent_lfl"] >= alarm))
+    return exceedance
 
-    capped = room.saturation_time < np.minimum(source_end, period)
+
+def _add_spill_notes(notes, capped, speed, pressure_ratio, period):
+    """The cautions on the samples: capped at saturation, still air, near boiling, a
+    period past 8 h, and the model's assumptions."""
     if np.any(capped):
         notes.append(f"in {100 * np.mean(capped):.3g} % of samples the room air reaches the "
                      "saturated vapour concentration and is capped there; evaporation would "
                      "slow and the pool last longer than m/G")
     if np.any(speed < LOW_AIR_SPEED):
         notes.append(low_air_speed_note(float(np.mean(speed < LOW_AIR_SPEED))))
-    volatile = p_sat / p_air > HIGH_VOLATILITY_RATIO
+    volatile = pressure_ratio > HIGH_VOLATILITY_RATIO
     if np.any(volatile):
         notes.append(f"in {100 * np.mean(volatile):.3g} % of samples the vapour pressure is "
                      f"above {100 * HIGH_VOLATILITY_RATIO:g} % of the ambient pressure; the "
@@ -359,5 +367,3 @@ def indoor_spill_monte_carlo(substance_or_key, temperature, pool_area, air_speed
                      "is divided by 8 h for the TWA")
     notes.append("pool at the air temperature (no evaporative cooling), fixed pool area, "
                  "well-mixed room: next to the pool the air is more concentrated")
-    return monte_carlo_result("indoor spill", count, seed, inputs, input_samples, outputs, units,
-                   exceedance, notes)
