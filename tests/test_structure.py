@@ -118,3 +118,32 @@ def test_the_wheel_lists_every_package_and_the_version_has_one_home():
 
     assert estimator.__version__ == _meta.__version__
     assert estimator.CAUTIONS is _meta.CAUTIONS
+
+
+#: The longest function body (docstring not counted) in the package and the front
+#: end: past it, a named step is to be pulled out.
+LONGEST_BODY = 80
+
+
+def _body_lines(node) -> int:
+    body = node.body
+    first = body[0]
+    if (isinstance(first, ast.Expr) and isinstance(first.value, ast.Constant)
+            and isinstance(first.value.value, str)):
+        start = body[1].lineno if len(body) > 1 else first.end_lineno
+    else:
+        start = first.lineno
+    return node.end_lineno - start + 1
+
+
+def test_no_function_runs_past_the_longest_body():
+    """Every function of estimator/ and ui/ reads as named steps: no body over
+    LONGEST_BODY lines."""
+    long = []
+    for path in sorted([*PACKAGE.rglob("*.py"), *(ROOT / "ui").rglob("*.py")]):
+        for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
+            if isinstance(node, (ast.FunctionDef, ast.AsyncFunctionDef)):
+                lines = _body_lines(node)
+                if lines > LONGEST_BODY:
+                    long.append(f"{path.relative_to(ROOT)}:{node.lineno} {node.name} ({lines})")
+    assert not long, "functions to split into named steps: " + "; ".join(long)

@@ -1,4 +1,4 @@
-"""Probabilistic screening: uncertain inputs as distributions, propagated by Monte Carlo.
+r"""Probabilistic screening: uncertain inputs as distributions, propagated by Monte Carlo.
 
 Exposure assessors describe inputs they do not know exactly as distributions
 (a liquid temperature somewhere between 30 and 45 degC, an air speed summarised
