@@ -3,7 +3,6 @@
 import csv
 import io
 import os
-import time
 import warnings
 from pathlib import Path
 
@@ -298,9 +297,7 @@ def test_ten_thousand_rows_with_five_percent_corrupted():
         column, value = corruptions[k % len(corruptions)]
         frame.at[row, column] = value
         expected[row] = column
-    start = time.perf_counter()
     table = _screen(frame).table
-    elapsed = time.perf_counter() - start
     assert len(table) == n
     assert list(table["container"]) == list(frame["container"])
     is_bad = np.zeros(n, dtype=bool)
@@ -317,7 +314,6 @@ def test_ten_thousand_rows_with_five_percent_corrupted():
             spec = {"toluene": 0.6, "o-xylene": 0.4}
         single = headspace(spec, frame["temperature_C"].iat[row] + 273.15, basis="mass")
         assert table["headspace_ppm"].iat[row] == pytest.approx(single.total_ppm, rel=1e-12)
-    assert elapsed < 20.0  # measured well under 1 s; a generous guard
 
 
 def test_headspace_arrays_marks_bad_rows_instead_of_raising():

@@ -15,21 +15,11 @@ from streamlit.testing.v1 import AppTest
 from estimator import CAUTIONS
 from estimator.headspace import barometric_pressure, headspace
 from estimator.inventory import screen_inventory
-from estimator.limits import format_ppm
+from estimator.limits import format_number, format_ppm
 from estimator.scenario import dumps_scenario, load_scenario, loads_scenario
 from estimator.screening import run_scenario
 
 ROOT = Path(__file__).resolve().parents[1]
-
-from streamlit import config  # noqa: E402
-from streamlit.testing.v1 import AppTest  # noqa: E402
-
-from estimator import CAUTIONS  # noqa: E402
-from estimator.headspace import barometric_pressure, headspace  # noqa: E402
-from estimator.inventory import screen_inventory  # noqa: E402
-from estimator.limits import format_number, format_ppm  # noqa: E402
-from estimator.scenario import dumps_scenario, load_scenario, loads_scenario  # noqa: E402
-from estimator.screening import run_scenario  # noqa: E402
 
 SCREENS = ROOT / "ui" / "screens"
 DEMOS = sorted((ROOT / "scenarios").glob("*.toml"))
@@ -673,10 +663,9 @@ def test_indoor_spill_ranges_shown_equal_core():
     assert "driven most by the air speed over the pool" in "\n".join(m.value for m in at.markdown)
 
 
-def test_monte_carlo_is_cached_and_fast(monkeypatch):
-    """Samples are drawn again only when their own inputs change; 5000 take well under a second."""
-    import time
-
+def test_monte_carlo_is_cached(monkeypatch):
+    """Samples are drawn again only when their own inputs change (the speed of 5000:
+    benchmarks/bench_monte_carlo.py)."""
     from estimator import uncertainty
     from ullage_ui import case, views
 
@@ -709,9 +698,7 @@ def test_monte_carlo_is_cached_and_fast(monkeypatch):
     state[case.key("mc.seed")] = 515151
     text = dumps_scenario(case.monte_carlo_document(state, "tank"))
     views.uncertainty_view.__wrapped__(text.replace("515151", "515152"), "SI")  # imports
-    start = time.perf_counter()
     view = views.uncertainty_view.__wrapped__(text, "SI")
-    assert time.perf_counter() - start < 1.0
     assert view["error"] is None and view["n"] == 5000
 
 
