@@ -25,7 +25,6 @@ import os
 import socket
 import statistics
 import subprocess
-import sys
 import tempfile
 import time
 import urllib.request
@@ -48,11 +47,34 @@ SETTLE_TIMEOUT = 30.0
 #: Reads the headspace tile and whether the app is running, in one round trip.
 _PROBE = """(label) => {
   const tiles = Array.from(document.querySelectorAll('[data-testid="stMetric"]'));
-  const tile = tiles.find(t => t.innerText.includes(label));
-  const value = tile ? tile.querySelector('[data-testid="stMetricValue"]').innerText : null;
+  const tile = tiles.find(t => t.textContent.includes(label));
+  const value = tile ? tile.querySelector('[data-testid="stMetricValue"]').textContent : null;
   const running = document.querySelector('[data-testid="stStatusWidget"]') !== null;
   return [value, running];
 }"""
+
+#: Resolves once the tile shows a value other than `before` and the app has stopped
+#: running. It looks again only when the page changes (a MutationObserver, at most
+#: once a task), so that the waiting itself takes next to no time from the browser,
+#: which shares the machine with the server and the other sessions.
+_SETTLED = """([label, before]) => new Promise((resolve) => {
+  const probe = """ + _PROBE + """;
+  let queued = false;
+  const observer = new MutationObserver(() => {
+    if (!queued) { queued = true; setTimeout(look, 0); }
+  });
+  function look() {
+    queued = false;
+    const [value, running] = probe(label);
+    if (value && value !== before && value.endsWith("ppm") && !running) {
+      observer.disconnect();
+      resolve(value);
+    }
+  }
+  observer.observe(document.body, {subtree: true, childList: true, characterData: true,
+                                   attributes: true});
+  look();
+})"""
 
 
 def _free_port() -> int:
@@ -93,13 +115,7 @@ def _stop(process) -> None:
 
 
 async def _settled(page, before: str) -> None:
-    deadline = time.monotonic() + SETTLE_TIMEOUT
-    while time.monotonic() < deadline:
-        value, running = await page.evaluate(_PROBE, TILE)
-        if value and value != before and value.endswith("ppm") and not running:
-            return
-        await asyncio.sleep(0.05)
-    raise TimeoutError("the page did not settle")
+    await asyncio.wait_for(page.evaluate(_SETTLED, [TILE, before]), SETTLE_TIMEOUT)
 
 
 async def _open_session(browser, base: str):
