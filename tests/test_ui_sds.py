@@ -3,6 +3,8 @@ number shown is the core's for the liquid the sheet gives."""
 
 from pathlib import Path
 
+import pytest
+
 from streamlit.testing.v1 import AppTest
 
 from estimator.headspace import barometric_pressure, headspace
@@ -118,3 +120,33 @@ def test_uploaded_pdf_is_read():
 
     rows = case.filled_rows(state[case.table_key("tank.sds_ingredients")])
     assert [r["CAS"] for r in rows] == ["75-09-2", "67-56-1", "108-88-3"]
+
+
+def test_property_table_follows_the_unit_switch():
+    """With US units the section-9 table shows °F, mmHg and lb/gal (°F = 1.8 °C + 32, and
+    1 mmHg = 133.322 Pa, 1 US gallon = 3.785411784 L, 1 lb = 0.45359237 kg: NIST SP 811);
+    the checks under it read the same values either way."""
+    at = pasted("reach-thinner.txt")
+    checks_si = [c.value for c in at.caption if "the sheet gives" in c.value]
+    at.toggle(key="w:units").set_value(True)
+    at.run()
+    assert not at.exception, at.exception
+    table = at.session_state["ullage"]["tbl:tank.sds_properties:current"]
+    rows = {r["property"]: (r["value"], r["unit"]) for r in table.to_dict("records")}
+    reading = read_sds(SHEETS / "reach-thinner.txt")
+    value, unit = rows["flash point"]
+    assert unit == "°F"
+    assert value == pytest.approx(1.8 * (reading.flash_point - 273.15) + 32.0, abs=0.01)
+    if reading.vapor_pressure is not None:
+        value, unit = rows["vapour pressure"]
+        assert unit == "mmHg"
+        assert value == pytest.approx(reading.vapor_pressure[1] / 133.322, rel=1e-3)
+    if reading.density is not None:
+        value, unit = rows["density"]
+        assert unit == "lb/gal"
+        assert value == pytest.approx(reading.density * 3.785411784e-3 / 0.45359237, rel=1e-3)
+    assert [c.value for c in at.caption if "the sheet gives" in c.value] == checks_si
+    at.toggle(key="w:units").set_value(False)
+    at.run()
+    table = at.session_state["ullage"]["tbl:tank.sds_properties:current"]
+    assert dict(zip(table["property"], table["unit"]))["flash point"] == "°C"

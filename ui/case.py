@@ -57,6 +57,18 @@ UNITS = {
                    "core": "kg/mol"},
 }
 
+#: The section-9 properties of a safety data sheet shown for checking: name ->
+#: (field of `estimator.sds.SdsReading`, kind of unit in UNITS).
+SDS_PROPERTIES = {
+    "flash point": ("flash_point", "temperature"),
+    "vapour pressure": ("vapor_pressure", "vapour_pressure"),
+    "at temperature": ("vapor_pressure_temperature", "temperature"),
+    "initial boiling point": ("boiling_point", "temperature"),
+    "lower flammability limit": ("lower_flammability_limit", "percent"),
+    "upper flammability limit": ("upper_flammability_limit", "percent"),
+    "density": ("density", "density"),
+}
+
 #: Every numeric input with a unit: input name -> (kind, default in SI display units).
 #: None as a default leaves the box empty (an optional input).
 QUANTITIES = {
@@ -229,6 +241,16 @@ def unit_label(kind: str, units: str) -> str:
     return UNITS[kind][units][0]
 
 
+def from_display(value, kind: str, units: str) -> float:
+    """A value in the display unit of `units` as the core's SI value."""
+    return convert(float(value), UNITS[kind][units][2], UNITS[kind]["core"])
+
+
+def system_of(kind: str, label: str | None) -> str:
+    """The unit system whose screen label of `kind` is `label` (SI when unknown)."""
+    return next((units for units in ("SI", "US") if UNITS[kind][units][0] == label), "SI")
+
+
 def to_display(value_si, kind: str, units: str):
     """A core SI value in the display unit (None stays None), rounded for the box."""
     if value_si is None:
@@ -273,6 +295,22 @@ def switch_units(state, old: str, new: str) -> None:
             continue
         state[key(name)] = round_shown(convert(float(value), UNITS[kind][old][2],
                                           UNITS[kind][new][2]))
+    # the safety data sheet's property tables, row by row in the unit each names
+    for name in [n for n in state if isinstance(n, str) and n.startswith("tbl:")
+                 and n.endswith(".sds_properties:current")]:
+        frame = state[name]
+        if not isinstance(frame, pd.DataFrame) or not len(frame):
+            continue
+        frame = frame.copy()
+        for i, row in frame.iterrows():
+            kind = SDS_PROPERTIES.get(row["property"], (None, None))[1]
+            if kind is None or row["unit"] != UNITS[kind][old][0]:
+                continue
+            if pd.notna(row["value"]):
+                frame.at[i, "value"] = to_display(from_display(row["value"], kind, old), kind, new)
+            frame.at[i, "unit"] = UNITS[kind][new][0]
+        state[name] = frame
+        state["tbl.generation"] = state.get("tbl.generation", 0) + 1
     # the downwind distances are text with their own units: nothing to convert
 
 

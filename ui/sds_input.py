@@ -25,15 +25,9 @@ INGREDIENT_COLUMNS = ["CAS", "ingredient", "low %", "high %"]
 UNLISTED_COLUMNS = ["share", "low %", "high %"]
 PROPERTY_COLUMNS = ["property", "value", "unit"]
 #: property row -> (reading field, unit shown)
-PROPERTIES = {
-    "flash point": ("flash_point", "°C"),
-    "vapour pressure": ("vapor_pressure", "kPa"),
-    "at temperature": ("vapor_pressure_temperature", "°C"),
-    "initial boiling point": ("boiling_point", "°C"),
-    "lower flammability limit": ("lower_flammability_limit", "% by volume"),
-    "upper flammability limit": ("upper_flammability_limit", "% by volume"),
-    "density": ("density", "kg/m³"),
-}
+#: The section-9 properties shown for checking: name -> (field of the reading,
+#: kind of unit). The table is in the units on screen; its unit column says which.
+PROPERTIES = case.SDS_PROPERTIES
 
 
 def _store() -> dict:
@@ -54,25 +48,24 @@ def _frames(reading) -> tuple[pd.DataFrame, pd.DataFrame, pd.DataFrame]:
         [(i.name + (f" ({i.cas})" if i.cas else ""), pct(i.low), pct(i.high))
          for i in reading.unidentified], columns=UNLISTED_COLUMNS).astype(
         {"share": "object", "low %": "float", "high %": "float"})
-    vp = reading.vapor_pressure
-
-    def celsius(v):
-        return None if v is None else round(v - 273.15, 4)
-
-    def percent(v):
-        return None if v is None else round(100 * v, 6)
-
-    values = {"flash point": celsius(reading.flash_point),
-              "vapour pressure": None if vp is None else round(vp[1] / 1000, 6),
-              "at temperature": None if vp is None else celsius(vp[0]),
-              "initial boiling point": celsius(reading.boiling_point),
-              "lower flammability limit": percent(reading.lower_flammability_limit),
-              "upper flammability limit": percent(reading.upper_flammability_limit),
-              "density": None if reading.density is None else round(reading.density, 4)}
-    properties = pd.DataFrame([(name, values[name], unit) for name, (_, unit)
-                               in PROPERTIES.items()], columns=PROPERTY_COLUMNS).astype(
-        {"property": "object", "value": "float", "unit": "object"})
+    properties = property_frame(reading, case.system(_store()))
     return ingredients, unlisted, properties
+
+
+def property_frame(reading, units: str) -> pd.DataFrame:
+    """The section-9 values of a reading in the unit system on screen."""
+    vp = reading.vapor_pressure
+    si = {"flash_point": reading.flash_point,
+          "vapor_pressure": None if vp is None else vp[1],
+          "vapor_pressure_temperature": None if vp is None else vp[0],
+          "boiling_point": reading.boiling_point,
+          "lower_flammability_limit": reading.lower_flammability_limit,
+          "upper_flammability_limit": reading.upper_flammability_limit,
+          "density": reading.density}
+    rows = [(name, case.to_display(si[field], kind, units), case.UNITS[kind][units][0])
+            for name, (field, kind) in PROPERTIES.items()]
+    return pd.DataFrame(rows, columns=PROPERTY_COLUMNS).astype(
+        {"property": "object", "value": "float", "unit": "object"})
 
 
 def _put(prefix: str, reading, text: str, source: str) -> None:
@@ -248,20 +241,13 @@ def _edited_reading(state, prefix: str):
     if problems:
         return None, problems
     values = {}
-    rows = {r.get("property"): r.get("value")
+    rows = {r.get("property"): (r.get("value"), r.get("unit"))
             for r in case.filled_rows(state.get(table_key(f"{prefix}.sds_properties")))}
-    for name, (field, _) in PROPERTIES.items():
-        value = rows.get(name)
+    for name, (field, kind) in PROPERTIES.items():
+        value, unit = rows.get(name, (None, None))
         if value is None:
             continue
-        if field in ("flash_point", "boiling_point", "vapor_pressure_temperature"):
-            values[field] = float(value) + 273.15
-        elif field.endswith("flammability_limit"):
-            values[field] = float(value) / 100.0
-        elif field == "vapor_pressure":
-            values[field] = float(value) * 1000.0
-        else:
-            values[field] = float(value)
+        values[field] = case.from_display(value, kind, case.system_of(kind, unit))
     p = values.pop("vapor_pressure", None)
     t = values.pop("vapor_pressure_temperature", None)
     if p is not None:
