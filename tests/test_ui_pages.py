@@ -802,6 +802,66 @@ def test_bad_purge_flow_keeps_the_rest_of_the_tank():
     assert "Purge before entry" not in shown
 
 
+def test_bad_near_field_radius_keeps_the_room_result():
+    """A negative near-field radius is refused by its label beside the room block; the
+    well-mixed room result is still shown, the near field is not."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:room.near_field_radius").set_value(-1.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Near-field radius**" in text and "radius:" not in text
+    assert "the near-field results are left out" in text
+    labels = [m.label for m in at.metric]
+    assert "Peak, room" in labels and "8-h TWA" in labels
+    assert "Peak, near field" not in labels
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "| near field |" not in shown  # the table row of the near field
+
+
+def test_bad_cleanup_time_keeps_the_spill_result_with_the_pool_left_in_place():
+    """A negative "Pool removed at" is named; the result is shown with the pool left
+    until it is dry, and says so."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:indoor.cleanup").set_value(-5.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Pool removed at**" in text and "left in place until it is dry" in text
+    assert "[[spill]]" not in text and "cleanup_after" not in text
+    assert "Peak, near field" in [m.label for m in at.metric]
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "cleaned up at" not in shown  # depends on the clean-up time
+
+
+def test_bad_time_modelled_keeps_only_what_stands_without_the_run():
+    """A run of zero length is refused by its label; the results over time are left
+    out, the pool area and the initial evaporation rates are still shown."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:indoor.duration").set_value(0.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Time modelled**: must be above 0" in text
+    assert "8-h TWA" not in [m.label for m in at.metric]
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "**Pool:**" in shown and "Initial evaporation rate" in shown
+
+
+def test_bad_room_volume_still_blanks_the_indoor_result():
+    """The room volume feeds every result: a bad one leaves nothing to show."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:room.volume").set_value(-1.0)
+    at.run()
+    assert not at.exception
+    assert "**Room volume**" in errors(at)
+    assert not [m for m in at.metric if m.label == "8-h TWA"]
+
+
 # ------------------------------------------------------------ numbers as read
 
 SCIENTIFIC = r"\d(?:\.\d+)?e[+-]?\d"
