@@ -851,6 +851,59 @@ def test_bad_time_modelled_keeps_only_what_stands_without_the_run():
     assert "**Pool:**" in shown and "Initial evaporation rate" in shown
 
 
+def test_one_bad_downwind_distance_leaves_the_others_and_the_release_rate():
+    """A negative distance and a word among good distances are each refused by the
+    box's label; the good distances and the release rate are still shown."""
+    at = page("spill_outdoors.py")
+    load_demo(at, WAREHOUSE)
+    at.text_input(key="w:weather.receptors").input("100 m, -5 m, far, 1 km")
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Downwind distances**: '-5 m' is not above 0" in text
+    assert "'far' does not start with a number" in text
+    assert "[outdoors]" not in text and "receptors" not in text
+    rows = table_rows(at)
+    assert "| 100 |" in rows and "| 1,000 |" in rows and "| -5 |" not in rows
+    assert metric(at, "Release rate to air").endswith("g/s")
+    assert "Distance to the LFL" in [m.label for m in at.metric]
+
+
+def test_bad_cloud_cover_keeps_the_release_rate_only_with_the_wind_at_10_m():
+    """Cloud cover of 9 oktas is named; the release rate (which does not depend on the
+    stability class when the wind is given at 10 m) stays, everything downwind goes.
+    With the wind measured at another height the release rate depends on the class
+    too (the power law), and the whole result is blanked."""
+    at = page("spill_outdoors.py")
+    load_demo(at, WAREHOUSE)
+    rate = metric(at, "Release rate to air")
+    at.number_input(key="w:weather.cloud").set_value(9.0)
+    at.run()
+    assert not at.exception
+    assert "**Cloud cover**: give it in oktas" in errors(at)
+    assert metric(at, "Release rate to air") == rate
+    labels = [m.label for m in at.metric]
+    assert "Stability class" not in labels and "Distance to the LFL" not in labels
+    assert "centreline" not in table_rows(at)
+    at.number_input(key="w:weather.wind_height").set_value(2.0)
+    at.run()
+    assert not at.exception
+    assert "**Cloud cover**" in errors(at)
+    assert "Release rate to air" not in [m.label for m in at.metric]
+
+
+def test_bad_wind_height_is_named_and_blanks_the_outdoor_result():
+    """The wind height feeds the wind at 10 m, which every outdoor result uses."""
+    at = page("spill_outdoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:weather.wind_height").set_value(-1.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Wind measured at height**" in text and "reference_height" not in text
+    assert not at.metric
+
+
 def test_bad_room_volume_still_blanks_the_indoor_result():
     """The room volume feeds every result: a bad one leaves nothing to show."""
     at = page("spill_indoors.py")

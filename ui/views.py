@@ -701,8 +701,20 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
     """Run the outdoor spill of a one-spill scenario; plain values for the page.
 
     `receptors` are the distances the user asked for, in the display length unit;
-    the scenario may hold more (a grid for the plot).
+    the scenario may hold more (a grid for the plot). A bad cloud cover leaves the
+    stability class and everything downwind out (``left_out``), the release rate is
+    kept when the wind is given at 10 m.
     """
+    view = _separated(toml_text, lambda text: _outdoor_view(text, units, receptors))
+    if "plume" in view["left_out"] and not view["error"]:
+        view["findings"] = [f for f in view["findings"] if not f.startswith(
+            ("Downwind", "Near the pool", "Britter", "Release rate to air"))]
+        view["warnings"] = [w for w in view["warnings"] if not any(
+            word in w for word in ("centreline", "stability class", "Briggs", "downwind"))]
+    return view
+
+
+def _outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
     try:
         scenario, spill, problem = _spill_result(toml_text)
     except (UllageError, ValueError) as exc:
