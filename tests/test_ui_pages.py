@@ -904,6 +904,41 @@ def test_bad_wind_height_is_named_and_blanks_the_outdoor_result():
     assert not at.metric
 
 
+def test_bad_alarm_level_is_named_and_leaves_the_rest_of_the_limits_page():
+    """An LFL alarm of 150 % is refused by its screen label; the limits in use and the
+    site pressure are still shown."""
+    at = page("limits.py")
+    at.number_input(key="w:alarm.percent_lfl").set_value(150.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Flammable vapour [% of LFL]**: must be above 0 and at most 100 %" in text
+    assert "LFL alarm:" not in text and "percent_lfl" not in text
+    captions = "\n".join(c.value for c in at.caption)
+    assert "limit(s) in use" in captions
+    assert "Pressure used: 98.8 kPa" in captions  # the first demo's 210 m (ISO 2533)
+
+
+def test_bad_barometric_pressure_is_named_and_leaves_the_alarms_alone():
+    """A barometric pressure of 20 kPa is refused (the core's 30-120 kPa range) by its
+    label; the alarm levels raise nothing and the limits are still shown."""
+    at = page("limits.py")
+    at.radio(key="w:site.mode").set_value("barometric")
+    at.run()
+    at.number_input(key="w:site.barometric").set_value(20.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Barometric pressure**" in text and "between 30 and 120 kPa" in text
+    assert "Flammable vapour" not in text and "Oxygen" not in text
+    captions = "\n".join(c.value for c in at.caption)
+    assert "limit(s) in use" in captions and "Pressure used" not in captions
+    at.number_input(key="w:site.barometric").set_value(95.0)
+    at.run()
+    assert not errors(at)
+    assert "Pressure used: 95 kPa" in "\n".join(c.value for c in at.caption)
+
+
 def test_bad_room_volume_still_blanks_the_indoor_result():
     """The room volume feeds every result: a bad one leaves nothing to show."""
     at = page("spill_indoors.py")

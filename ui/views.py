@@ -113,7 +113,10 @@ _KEY_LABELS["worst_temperature"] = "Worst-case temperature"
 
 #: Core argument names as people know them.
 _CORE_LABELS = {"wind_speed": "Wind speed", "pressure": "Pressure in the vapour space",
-                "residual_area": "Area of liquid left in the tank"}
+                "residual_area": "Area of liquid left in the tank",
+                "LFL alarm": "Flammable vapour [% of LFL]",
+                "oxygen bounds": "Oxygen low [%] and Oxygen high [%]",
+                "elevation": "Site elevation", "barometric pressure": "Barometric pressure"}
 
 
 def field_label(field: str) -> str:
