@@ -939,6 +939,45 @@ def test_bad_barometric_pressure_is_named_and_leaves_the_alarms_alone():
     assert "Pressure used: 95 kPa" in "\n".join(c.value for c in at.caption)
 
 
+def test_bad_input_of_case_b_is_named_beside_it_and_case_a_stays():
+    """A mixing factor below 1 in case B is named by B's own label; case A is shown."""
+    at = page("compare.py", WAREHOUSE)
+    at.radio(key="w:cmp.study").set_value("indoor")
+    at.run()
+    before = [m.value for m in at.metric if m.label == "8-h TWA"]
+    at.number_input(key="w:cmp.mixing").set_value(0.5)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Mixing factor in B**: must be 1 or more" in text
+    assert "[[room]]" not in text and "mixing_factor" not in text
+    assert [m.value for m in at.metric if m.label == "8-h TWA"] == before[:1]
+
+
+def test_bad_input_of_case_a_leaves_case_b_shown():
+    """Case A's air changes (entered on its study page) below 0 blank case A only: B,
+    with the fan off, is still computed, and A's error names the study page's box."""
+    at = page("compare.py", WAREHOUSE)
+    at.radio(key="w:cmp.study").set_value("indoor")
+    at.run()
+    at.session_state["ullage"]["in:room.air_changes"] = -1.0
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Air changes (on the page Spill indoors)**" in text
+    assert len([m for m in at.metric if m.label == "8-h TWA"]) == 1  # case B's
+
+
+def test_tank_input_that_fails_alone_keeps_both_cases():
+    """A negative tank volume is named in each case; both headspaces are still shown."""
+    at = page("compare.py")
+    at.session_state["ullage"]["in:tank.volume"] = -5.0
+    at.run()
+    assert not at.exception
+    assert "**Tank volume (on the page Tank headspace)**: must be above 0" in errors(at)
+    assert len([m for m in at.metric if m.label == "Total vapour in the headspace"]) == 2
+
+
 def test_bad_room_volume_still_blanks_the_indoor_result():
     """The room volume feeds every result: a bad one leaves nothing to show."""
     at = page("spill_indoors.py")

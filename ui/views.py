@@ -119,6 +119,13 @@ _CORE_LABELS = {"wind_speed": "Wind speed", "pressure": "Pressure in the vapour 
                 "elevation": "Site elevation", "barometric pressure": "Barometric pressure"}
 
 
+def field_key(field: str) -> tuple[str, str | None] | None:
+    """The (section, key) of a scenario field as an error names it ("[[room]] #1
+    air_changes (line 9)" -> ("room", "air_changes")); None for a core argument."""
+    match = _SCENARIO_FIELD.match(re.sub(r"\s*\(line \d+\)", "", str(field or "")).strip())
+    return match.group(1, 3) if match else None
+
+
 def field_label(field: str) -> str:
     """An error's field as the page labels it: "[[tank]] #1 volume (line 21)" ->
     "Tank volume"; never a TOML path or an internal key ("" when the page's block
