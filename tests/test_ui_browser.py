@@ -246,6 +246,29 @@ def test_one_bad_input_fails_alone(browser, server):
         page.context.close()
 
 
+def test_one_bad_downwind_distance_fails_alone(browser, server):
+    """On the outdoor page a negative distance is named by its box's label beside it;
+    the other distances and the release rate are still shown."""
+    page = _open(browser, f"{server}/spill-outdoors")
+    try:
+        _load_demo(page, "warehouse-drum-spill.toml")
+        before = _metric_text(page, "Release rate to air")
+        box = page.get_by_role("textbox", name="Downwind distances, each with its unit, "
+                                                "separated by commas")
+        box.fill("100 m, -5 m, 1 km")
+        box.press("Enter")
+        page.get_by_text("is not above 0").first.wait_for()
+        _settle(page)
+        alert = page.locator('[data-testid="stAlert"]').filter(has_text="Downwind distances")
+        assert "'-5 m' is not above 0" in alert.first.inner_text()
+        assert _metric_text(page, "Release rate to air") == before
+        table = page.locator("table").filter(has_text="distance [m]").first.inner_text()
+        assert "1,000" in table and "-5" not in table
+        assert "[outdoors]" not in _main_text(page)
+    finally:
+        page.context.close()
+
+
 def test_save_then_load_gives_the_same_scenario(browser, server):
     """A saved file, loaded again and saved again, is the same scenario, the same text."""
     from estimator.scenario import load_scenario, loads_scenario

@@ -789,6 +789,193 @@ def test_bad_purge_flow_keeps_the_rest_of_the_tank():
     assert "Purge before entry" not in shown
 
 
+def test_bad_near_field_radius_keeps_the_room_result():
+    """A negative near-field radius is refused by its label beside the room block; the
+    well-mixed room result is still shown, the near field is not."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:room.near_field_radius").set_value(-1.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Near-field radius**" in text and "radius:" not in text
+    assert "the near-field results are left out" in text
+    labels = [m.label for m in at.metric]
+    assert "Peak, room" in labels and "8-h TWA" in labels
+    assert "Peak, near field" not in labels
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "| near field |" not in shown  # the table row of the near field
+
+
+def test_bad_cleanup_time_keeps_the_spill_result_with_the_pool_left_in_place():
+    """A negative "Pool removed at" is named; the result is shown with the pool left
+    until it is dry, and says so."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:indoor.cleanup").set_value(-5.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Pool removed at**" in text and "left in place until it is dry" in text
+    assert "[[spill]]" not in text and "cleanup_after" not in text
+    assert "Peak, near field" in [m.label for m in at.metric]
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "cleaned up at" not in shown  # depends on the clean-up time
+
+
+def test_bad_time_modelled_keeps_only_what_stands_without_the_run():
+    """A run of zero length is refused by its label; the results over time are left
+    out, the pool area and the initial evaporation rates are still shown."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:indoor.duration").set_value(0.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Time modelled**: must be above 0" in text
+    assert "8-h TWA" not in [m.label for m in at.metric]
+    shown = "\n".join(m.value for m in at.markdown)
+    assert "**Pool:**" in shown and "Initial evaporation rate" in shown
+
+
+def test_one_bad_downwind_distance_leaves_the_others_and_the_release_rate():
+    """A negative distance and a word among good distances are each refused by the
+    box's label; the good distances and the release rate are still shown."""
+    at = page("spill_outdoors.py")
+    load_demo(at, WAREHOUSE)
+    at.text_input(key="w:weather.receptors").input("100 m, -5 m, far, 1 km")
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Downwind distances**: '-5 m' is not above 0" in text
+    assert "'far' does not start with a number" in text
+    assert "[outdoors]" not in text and "receptors" not in text
+    rows = table_rows(at)
+    assert "| 100 |" in rows and "| 1,000 |" in rows and "| -5 |" not in rows
+    assert metric(at, "Release rate to air").endswith("g/s")
+    assert "Distance to the LFL" in [m.label for m in at.metric]
+
+
+def test_bad_cloud_cover_keeps_the_release_rate_only_with_the_wind_at_10_m():
+    """Cloud cover of 9 oktas is named; the release rate (which does not depend on the
+    stability class when the wind is given at 10 m) stays, everything downwind goes.
+    With the wind measured at another height the release rate depends on the class
+    too (the power law), and the whole result is blanked."""
+    at = page("spill_outdoors.py")
+    load_demo(at, WAREHOUSE)
+    rate = metric(at, "Release rate to air")
+    at.number_input(key="w:weather.cloud").set_value(9.0)
+    at.run()
+    assert not at.exception
+    assert "**Cloud cover**: give it in oktas" in errors(at)
+    assert metric(at, "Release rate to air") == rate
+    labels = [m.label for m in at.metric]
+    assert "Stability class" not in labels and "Distance to the LFL" not in labels
+    assert "centreline" not in table_rows(at)
+    at.number_input(key="w:weather.wind_height").set_value(2.0)
+    at.run()
+    assert not at.exception
+    assert "**Cloud cover**" in errors(at)
+    assert "Release rate to air" not in [m.label for m in at.metric]
+
+
+def test_bad_wind_height_is_named_and_blanks_the_outdoor_result():
+    """The wind height feeds the wind at 10 m, which every outdoor result uses."""
+    at = page("spill_outdoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:weather.wind_height").set_value(-1.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Wind measured at height**" in text and "reference_height" not in text
+    assert not at.metric
+
+
+def test_bad_alarm_level_is_named_and_leaves_the_rest_of_the_limits_page():
+    """An LFL alarm of 150 % is refused by its screen label; the limits in use and the
+    site pressure are still shown."""
+    at = page("limits.py")
+    at.number_input(key="w:alarm.percent_lfl").set_value(150.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Flammable vapour [% of LFL]**: must be above 0 and at most 100 %" in text
+    assert "LFL alarm:" not in text and "percent_lfl" not in text
+    captions = "\n".join(c.value for c in at.caption)
+    assert "limit(s) in use" in captions
+    assert "Pressure used: 98.8 kPa" in captions  # the first demo's 210 m (ISO 2533)
+
+
+def test_bad_barometric_pressure_is_named_and_leaves_the_alarms_alone():
+    """A barometric pressure of 20 kPa is refused (the core's 30-120 kPa range) by its
+    label; the alarm levels raise nothing and the limits are still shown."""
+    at = page("limits.py")
+    at.radio(key="w:site.mode").set_value("barometric")
+    at.run()
+    at.number_input(key="w:site.barometric").set_value(20.0)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Barometric pressure**" in text and "between 30 and 120 kPa" in text
+    assert "Flammable vapour" not in text and "Oxygen" not in text
+    captions = "\n".join(c.value for c in at.caption)
+    assert "limit(s) in use" in captions and "Pressure used" not in captions
+    at.number_input(key="w:site.barometric").set_value(95.0)
+    at.run()
+    assert not errors(at)
+    assert "Pressure used: 95 kPa" in "\n".join(c.value for c in at.caption)
+
+
+def test_bad_input_of_case_b_is_named_beside_it_and_case_a_stays():
+    """A mixing factor below 1 in case B is named by B's own label; case A is shown."""
+    at = page("compare.py", WAREHOUSE)
+    at.radio(key="w:cmp.study").set_value("indoor")
+    at.run()
+    before = [m.value for m in at.metric if m.label == "8-h TWA"]
+    at.number_input(key="w:cmp.mixing").set_value(0.5)
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Mixing factor in B**: must be 1 or more" in text
+    assert "[[room]]" not in text and "mixing_factor" not in text
+    assert [m.value for m in at.metric if m.label == "8-h TWA"] == before[:1]
+
+
+def test_bad_input_of_case_a_leaves_case_b_shown():
+    """Case A's air changes (entered on its study page) below 0 blank case A only: B,
+    with the fan off, is still computed, and A's error names the study page's box."""
+    at = page("compare.py", WAREHOUSE)
+    at.radio(key="w:cmp.study").set_value("indoor")
+    at.run()
+    at.session_state["ullage"]["in:room.air_changes"] = -1.0
+    at.run()
+    assert not at.exception
+    text = errors(at)
+    assert "**Air changes (on the page Spill indoors)**" in text
+    assert len([m for m in at.metric if m.label == "8-h TWA"]) == 1  # case B's
+
+
+def test_tank_input_that_fails_alone_keeps_both_cases():
+    """A negative tank volume is named in each case; both headspaces are still shown."""
+    at = page("compare.py")
+    at.session_state["ullage"]["in:tank.volume"] = -5.0
+    at.run()
+    assert not at.exception
+    assert "**Tank volume (on the page Tank headspace)**: must be above 0" in errors(at)
+    assert len([m for m in at.metric if m.label == "Total vapour in the headspace"]) == 2
+
+
+def test_bad_room_volume_still_blanks_the_indoor_result():
+    """The room volume feeds every result: a bad one leaves nothing to show."""
+    at = page("spill_indoors.py")
+    load_demo(at, WAREHOUSE)
+    at.number_input(key="w:room.volume").set_value(-1.0)
+    at.run()
+    assert not at.exception
+    assert "**Room volume**" in errors(at)
+    assert not [m for m in at.metric if m.label == "8-h TWA"]
+
+
 # ------------------------------------------------------------ numbers as read
 
 SCIENTIFIC = r"\d(?:\.\d+)?e[+-]?\d"

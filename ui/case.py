@@ -1035,6 +1035,32 @@ def receptor_values(state) -> list[float]:
     return [to_display(x, "length", system(state)) for x in receptor_distances(raw)]
 
 
+def receptor_entries(state) -> tuple[list[float], list[str]]:
+    """The downwind distances typed that can be used, in the display length unit, and
+    the problem of each of the others (each is left out, the rest kept)."""
+    from estimator.checks import positive
+    from estimator.errors import UllageError
+
+    values, problems = [], []
+    for part in str(state.get(key("weather.receptors")) or "").replace(";", ",").split(","):
+        part = part.strip()
+        if not part:
+            continue
+        try:
+            (distance,) = receptor_distances(part)
+        except (UllageError, ValueError) as exc:
+            problems.append(getattr(exc, "reason", None) or f"'{part}' is not a distance")
+            continue
+        try:
+            positive(distance, "Downwind distances", "m")
+        except UllageError:
+            problems.append(f"'{part}' is not above 0; a distance downwind of the pool "
+                            "must be positive")
+            continue
+        values.append(to_display(distance, "length", system(state)))
+    return values, problems
+
+
 def receptor_distances(raw: str) -> list[float]:
     """Downwind distances typed as text with units ("100 m, 0.5 km, 2000 ft") -> [m].
 

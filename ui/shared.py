@@ -70,7 +70,7 @@ class Slots:
     def show(self, error: dict) -> None:
         area = error.get("area", "general")
         place = self.places.get(area) or self.places.get("general")
-        field = views.field_label(error.get("field") or "")
+        field = error.get("label") or views.field_label(error.get("field") or "")
         words = AREA_NAMES.get(area, "Input")
         head = f"**{field}**" if field else f"**{words}**"
         message = f"{head}: {error.get('reason', '')}.".replace("..", ".")

@@ -113,7 +113,17 @@ _KEY_LABELS["worst_temperature"] = "Worst-case temperature"
 
 #: Core argument names as people know them.
 _CORE_LABELS = {"wind_speed": "Wind speed", "pressure": "Pressure in the vapour space",
-                "residual_area": "Area of liquid left in the tank"}
+                "residual_area": "Area of liquid left in the tank",
+                "LFL alarm": "Flammable vapour [% of LFL]",
+                "oxygen bounds": "Oxygen low [%] and Oxygen high [%]",
+                "elevation": "Site elevation", "barometric pressure": "Barometric pressure"}
+
+
+def field_key(field: str) -> tuple[str, str | None] | None:
+    """The (section, key) of a scenario field as an error names it ("[[room]] #1
+    air_changes (line 9)" -> ("room", "air_changes")); None for a core argument."""
+    match = _SCENARIO_FIELD.match(re.sub(r"\s*\(line \d+\)", "", str(field or "")).strip())
+    return match.group(1, 3) if match else None
 
 
 def field_label(field: str) -> str:
@@ -372,26 +382,7 @@ def tank_view(toml_text: str, units: str) -> dict:
     An input that fails alone (a negative tank volume, a bad purge flow) is left out
     and reported in ``field_errors``; the results that do not depend on it are kept.
     """
-    import tomllib
-
-    from estimator.scenario import dumps_scenario
-
-    field_errors = []
-    text = toml_text
-    for _ in range(len(_SEPARABLE)):
-        view = _tank_view(text, units)
-        error = view["error"]
-        match = _SCENARIO_FIELD.match(str(error["field"])) if error else None
-        if not match or match.group(1) != "tank" or match.group(3) not in _SEPARABLE:
-            break
-        doc = tomllib.loads(text)
-        for name in _SEPARABLE[match.group(3)]:
-            doc["tank"][0].pop(name, None)
-        field_errors.append(dict(error, reason=error["reason"] + "; the results that depend "
-                                 "on it are left out until it is corrected"))
-        text = dumps_scenario(doc)
-    view["field_errors"] = field_errors
-    return view
+    return _separated(toml_text, lambda text: _tank_view(text, units))
 
 
 def _tank_view(toml_text: str, units: str) -> dict:
@@ -466,6 +457,24 @@ def _tank_view(toml_text: str, units: str) -> dict:
 
 # ----------------------------------------------------------------------- spills
 
+#: Argument names of the spill models -> the scenario field they come from, so that
+#: an error of a run names the input on screen and lands beside its block.
+_RUN_FIELDS = {"source removed at": "[[spill]] cleanup_after",
+               "radius": "[[room]] near_field_radius",
+               "random_air_speed": "[[room]] random_air_speed",
+               "reference_height": "[outdoors] wind_height",
+               "distance": "[outdoors] receptors"}
+
+
+def _run_error(message: str) -> dict:
+    """A spill run's error as a record naming the scenario field of its input."""
+    name, _, reason = str(message).partition(": ")
+    field = _RUN_FIELDS.get(name)
+    if field is None or not reason:
+        return _split_message(message)
+    return {"field": field, "reason": reason, "area": area_of(field)}
+
+
 def _spill_result(toml_text: str):
     from estimator.screening import run_scenario
 
@@ -474,8 +483,102 @@ def _spill_result(toml_text: str):
         warnings.simplefilter("ignore")
         result = run_scenario(scenario)
     if result.errors:
-        return scenario, None, _split_message(result.errors[0][1])
+        return scenario, None, _run_error(result.errors[0][1])
     return scenario, result.spills[0], None
+
+
+def _outdoor_wind_at_10_m(doc: dict) -> bool:
+    """True when the wind is given at 10 m: the release rate then does not depend on
+    the stability class (elsewhere the power law taking it to 10 m does)."""
+    from estimator.units import parse_quantity
+
+    height = doc.get("outdoors", {}).get("wind_height")
+    try:
+        return height is None or abs(parse_quantity(height, "length", "wind height")
+                                     - 10.0) < 1e-9
+    except (UllageError, ValueError):
+        return False
+
+
+#: Spill inputs whose results stand apart from the rest: (section, key) of the
+#: field -> (keys taken out of that section, or replaced, as key -> value; the
+#: result groups left out; what is shown instead, in words; when it applies).
+#: "run" is every result over time of an indoor spill, "plume" every result
+#: downwind of an outdoor one.
+_SPILL_SEPARABLE = {
+    ("room", "near_field_radius"): (
+        {"near_field_radius": None, "random_air_speed": None}, ("near field",),
+        "the near-field results are left out until it is corrected (the room is shown "
+        "well mixed)", None),
+    ("spill", "cleanup_after"): (
+        {"cleanup_after": None}, ("clean-up",),
+        "until it is corrected the pool is left in place until it is dry (an upper "
+        "bound of the exposure)", None),
+    ("spill", "duration"): (
+        {"duration": None}, ("run",),
+        "the results over time are left out until it is corrected", None),
+    ("outdoors", "cloud_cover"): (
+        {"cloud_cover": None, "insolation": None, "daytime": None, "stability": "D"},
+        ("plume",), "the stability class and every result downwind are left out until "
+        "it is corrected", _outdoor_wind_at_10_m),
+}
+_SPILL_SEPARABLE[("room", "random_air_speed")] = _SPILL_SEPARABLE[("room", "near_field_radius")]
+_SPILL_SEPARABLE[("outdoors", "daytime")] = _SPILL_SEPARABLE[("outdoors", "cloud_cover")]
+_SPILL_SEPARABLE[("outdoors", "insolation")] = _SPILL_SEPARABLE[("outdoors", "cloud_cover")]
+
+
+def _leave_out(toml_text: str, error: dict | None):
+    """The scenario text without the input an error names, when that input fails
+    alone (`_SEPARABLE` for a tank, `_SPILL_SEPARABLE` for a spill), as (text, the
+    reason to show, the result groups left out); None when the error is not one
+    of those."""
+    import tomllib
+
+    from estimator.scenario import dumps_scenario
+
+    match = _SCENARIO_FIELD.match(str(error["field"])) if error else None
+    if not match:
+        return None
+    section, name = match.group(1, 3)
+    if section == "tank" and name in _SEPARABLE:
+        changes, groups, applies = dict.fromkeys(_SEPARABLE[name]), (), None
+        words = "the results that depend on it are left out until it is corrected"
+    elif (section, name) in _SPILL_SEPARABLE:
+        changes, groups, words, applies = _SPILL_SEPARABLE[(section, name)]
+    else:
+        return None
+    doc = tomllib.loads(toml_text)
+    if applies is not None and not applies(doc):
+        return None
+    found = doc.get(section)
+    table = found[0] if isinstance(found, list) and found else found
+    if not isinstance(table, dict):
+        return None
+    for key_, value in changes.items():
+        if value is None:
+            table.pop(key_, None)
+        else:
+            table[key_] = value
+    return dumps_scenario(doc), f"{error['reason']}; {words}", groups
+
+
+def _separated(toml_text: str, view_function) -> dict:
+    """Run `view_function` on a one-item scenario, leaving out each input that fails
+    alone (`_leave_out`) with the results that depend on it; the view lists the
+    errors in ``field_errors`` and the result groups left out in ``left_out``."""
+    field_errors, left_out = [], []
+    text = toml_text
+    for _ in range(len(_SEPARABLE) + len(_SPILL_SEPARABLE)):
+        view = view_function(text)
+        separated = _leave_out(text, view["error"])
+        if separated is None:
+            break
+        text, reason, groups = separated
+        field_errors.append(dict(view["error"], reason=reason))
+        left_out += [g for g in groups if g not in left_out]
+    view["field_errors"] = field_errors
+    view["left_out"] = left_out
+    return view
 
 
 def _exposure_tables(spill) -> tuple[pd.DataFrame, pd.DataFrame]:
@@ -504,7 +607,26 @@ def _rates_text(spill) -> str:
 
 @st.cache_data(max_entries=64, show_spinner=False)
 def indoor_view(toml_text: str, units: str) -> dict:
-    """Run the indoor spill of a one-spill scenario; plain values for the page."""
+    """Run the indoor spill of a one-spill scenario; plain values for the page.
+
+    An input that fails alone (the near field, the clean-up time, the time modelled)
+    is left out and reported in ``field_errors``; ``left_out`` names the results
+    that depend on it, which the page does not show.
+    """
+    view = _separated(toml_text, lambda text: _indoor_view(text, units))
+    if "run" in view["left_out"] and not view["error"]:
+        # only the pool and the initial evaporation rates stand without the run
+        for name in ("peak_text", "twa_text", "short_text", "lfl_peak_text",
+                     "oxygen_text", "pool_text", "mass_balance_text"):
+            view[name] = None
+        view["series"] = view["lfl_series"] = None
+        view["findings"] = []
+        view["metrics"] = view["metrics"].iloc[0:0]
+        view["comparisons"] = view["comparisons"].iloc[0:0]
+    return view
+
+
+def _indoor_view(toml_text: str, units: str) -> dict:
     try:
         scenario, spill, problem = _spill_result(toml_text)
     except (UllageError, ValueError) as exc:
@@ -589,8 +711,20 @@ def outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
     """Run the outdoor spill of a one-spill scenario; plain values for the page.
 
     `receptors` are the distances the user asked for, in the display length unit;
-    the scenario may hold more (a grid for the plot).
+    the scenario may hold more (a grid for the plot). A bad cloud cover leaves the
+    stability class and everything downwind out (``left_out``), the release rate is
+    kept when the wind is given at 10 m.
     """
+    view = _separated(toml_text, lambda text: _outdoor_view(text, units, receptors))
+    if "plume" in view["left_out"] and not view["error"]:
+        view["findings"] = [f for f in view["findings"] if not f.startswith(
+            ("Downwind", "Near the pool", "Britter", "Release rate to air"))]
+        view["warnings"] = [w for w in view["warnings"] if not any(
+            word in w for word in ("centreline", "stability class", "Briggs", "downwind"))]
+    return view
+
+
+def _outdoor_view(toml_text: str, units: str, receptors: tuple) -> dict:
     try:
         scenario, spill, problem = _spill_result(toml_text)
     except (UllageError, ValueError) as exc:
@@ -819,20 +953,40 @@ def _monte_carlo_run(toml_text: str) -> dict:
     """The scenario, its one item and the item's Monte Carlo result, or an error view."""
     from estimator.screening import run_scenario
 
-    try:
-        scenario = _load(toml_text)
-        with warnings.catch_warnings():
-            warnings.simplefilter("ignore")
-            result = run_scenario(scenario)
-    except (UllageError, ValueError) as exc:
-        return _uncertainty_error(error_record(exc))
-    items = list(result.tanks) + list(result.spills)
-    for item, message in result.errors:
-        record = _split_message(message)
-        if item.endswith("(probabilistic)"):
+    text = toml_text
+    for _ in range(len(_SEPARABLE) + len(_SPILL_SEPARABLE) + 1):
+        try:
+            scenario = _load(text)
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore")
+                result = run_scenario(scenario)
+        except (UllageError, ValueError) as exc:
+            record, stated = error_record(exc), False
+        else:
+            stated = next(((item, _run_error(message)) for item, message in result.errors
+                           if not item.endswith("(probabilistic)")), None)
+            own = next((_split_message(message) for item, message in result.errors
+                        if item.endswith("(probabilistic)")), None)
+            if stated is None and own is not None:
+                return _uncertainty_error(own)
+            if stated is None:
+                break
+            record = stated[1]
+        # an input the stated result does without is left out of the samples too,
+        # unless every sample runs over it (the time modelled)
+        separated = _leave_out(text, record)
+        if separated is None:
+            if stated:
+                return _uncertainty_error(record, "the result at the stated values could "
+                                                  "not be computed, so neither could the "
+                                                  "samples: ")
             return _uncertainty_error(record)
-        return _uncertainty_error(record, "the result at the stated values could not be "
-                                          "computed, so neither could the samples: ")
+        if "run" in separated[2]:
+            return _uncertainty_error(dict(record, reason=record["reason"] + "; every sample "
+                                           "depends on it, so the samples are left out "
+                                           "until it is corrected"))
+        text = separated[0]
+    items = list(result.tanks) + list(result.spills)
     item = items[0] if items else None
     mc = getattr(item, "monte_carlo", None)
     if mc is None:

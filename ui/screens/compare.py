@@ -25,10 +25,8 @@ units = system(state)
 study = shared.choice("Compare", "cmp.study", list(STUDIES), format_func=STUDIES.get,
                       horizontal=True)
 limit_rows = shared.limits_summary(slots)
-try:
-    asked = case.receptor_values(state) if study == "outdoor" else None
-except ValueError:
-    asked = []
+# the distances that can be used (the outdoor page names the others)
+asked = case.receptor_entries(state)[0] if study == "outdoor" else None
 doc_a, problems_a = case.study_document(state, study, limits=limit_rows)
 
 
@@ -69,8 +67,26 @@ elif study == "outdoor":
     shared.quantity("Wind speed in B", "cmp.wind", container=a)
     shared.bound(b.selectbox, "Stability class in B", "cmp.stability", options=CLASSES,
                  format_func=lambda k: "the same as in A" if k == SAME else k)
+b_slots = shared.Slots()
+b_slots.add("general")
 st.button("Start B again from A (10 degrees hotter, fan off, half the wind)", on_click=seed_b)
 slots.add("general")
+
+#: Inputs of case B, by the (section, key) of the scenario field they set.
+B_LABELS = {("tank", "temperature"): "Temperature in B",
+            ("spill", "temperature"): "Temperature in B",
+            ("room", "air_changes"): "Air changes in B",
+            ("room", "mixing_factor"): "Mixing factor in B",
+            ("outdoors", "wind_speed"): "Wind speed in B",
+            ("outdoors", "stability"): "Stability class in B"}
+#: Core argument names fed by an input of case B.
+CORE_B_LABELS = {"temperature": "Temperature in B", "wind_speed": "Wind speed in B",
+                 "wind speed": "Wind speed in B", "mixing factor": "Mixing factor in B",
+                 "ventilation rate": "Air changes in B"}
+#: The page state of each input of case B.
+B_INPUTS = {"Temperature in B": "cmp.temperature", "Air changes in B": "cmp.air_changes",
+            "Mixing factor in B": "cmp.mixing", "Wind speed in B": "cmp.wind",
+            "Stability class in B": "cmp.stability"}
 
 
 def build_b(doc: dict) -> dict:
@@ -88,6 +104,7 @@ def build_b(doc: dict) -> dict:
     if study == "indoor":
         room = out["room"][0]
         if case.text(state, "cmp.air_changes") is not None:
+            room.pop("ventilation_rate", None)  # the file's, replaced by B's air changes
             room["air_changes"] = case.text(state, "cmp.air_changes")
         if state.get(key("cmp.mixing")) is not None:
             room["mixing_factor"] = float(state[key("cmp.mixing")])
@@ -208,12 +225,43 @@ def result_words(va: dict, vb: dict) -> list[str]:
     return out
 
 
+def b_label(error: dict) -> str | None:
+    """The label of case B's own input that an error of case B is about, or None when
+    the error is about an input B shares with A (entered on the study page)."""
+    where = views.field_key(error.get("field"))
+    if where is None:  # a core argument: the input of B that feeds it
+        label = CORE_B_LABELS.get(str(error.get("field") or "").strip().lower())
+        return label if label and state.get(key(B_INPUTS[label])) is not None else None
+    if where[0] in ("liquid", "substance") or where[1] == "liquid":
+        return "Liquid in B" if (state.get(key("cmp.substance")) or SAME) != SAME else None
+    label = B_LABELS.get(where)
+    if label is None or state.get(key(B_INPUTS[label])) in (None, SAME):
+        return None
+    return label
+
+
+def errors_of(view: dict, label: str, here) -> None:
+    """Show the errors of one case: those of B's own inputs beside them, the others
+    in the case's column, named by their label on the study page."""
+    page = STUDIES[study]
+    for error in list(view.get("field_errors", ())) + ([view["error"]] if view["error"]
+                                                      else []):
+        own = b_label(error) if label == "B" else None
+        if own:
+            b_slots.show(dict(error, label=own))
+            continue
+        name = views.field_label(error.get("field") or "")
+        here.show(dict(error, label=f"{name} (on the page {page})" if name else ""))
+
+
 def column(view: dict, label: str) -> None:
     st.markdown(f"### Case {label}")
+    here = shared.Slots()
+    here.add("general")
+    errors_of(view, label, here)
     if view["error"]:
-        here = shared.Slots()
-        here.add("general")
-        here.show(view["error"])
+        if label == "B" and b_label(view["error"]):
+            st.info(f"Case B is shown once **{b_label(view['error'])}** above is corrected.")
         return
     if study == "tank":
         now = view["now"]

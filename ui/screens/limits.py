@@ -21,7 +21,15 @@ shared.alarms_block(slots)
 shared.site_block(slots)
 
 
+def _record(exc, area: str) -> dict:
+    """A core error as an error record of the block `area`, naming its field."""
+    return {"field": getattr(exc, "field", ""), "reason": getattr(exc, "reason", str(exc)),
+            "area": area}
+
+
 def _check_alarms() -> None:
+    """The alarm levels, checked on their own: a bad one is named beside its block and
+    leaves the limits and the site pressure shown."""
     from estimator.limits import FlammabilityAlarms
 
     try:
@@ -30,11 +38,13 @@ def _check_alarms() -> None:
                            float(state.get(key("alarm.oxygen_high")) or 0.0),
                            str(state.get(key("alarm.source")) or ""))
     except (UllageError, ValueError) as exc:
-        slots.show({"field": getattr(exc, "field", ""), "reason": getattr(exc, "reason", str(exc)),
-                    "area": "alarms"})
+        slots.show(_record(exc, "alarms"))
 
 
 def _check_site() -> None:
+    """The site pressure, checked on its own (the range of a barometric pressure is
+    `estimator.checks.check_barometric_pressure`'s)."""
+    from estimator.checks import check_barometric_pressure
     from estimator.headspace import barometric_pressure
     from estimator.units import parse_quantity
 
@@ -44,15 +54,12 @@ def _check_site() -> None:
             pressure = barometric_pressure(parse_quantity(conditions["elevation"], "length",
                                                           "elevation"))
         elif "barometric_pressure" in conditions:
-            pressure = parse_quantity(conditions["barometric_pressure"], "pressure",
-                                      "barometric pressure")
-            if not 3e4 < pressure < 1.2e5:
-                raise ValueError("the barometric pressure must be between 30 and 120 kPa")
+            pressure = check_barometric_pressure(parse_quantity(
+                conditions["barometric_pressure"], "pressure", "barometric pressure"))
         else:
             pressure = 101325.0
     except (UllageError, ValueError) as exc:
-        slots.show({"field": getattr(exc, "field", ""), "reason": getattr(exc, "reason", str(exc)),
-                    "area": "site"})
+        slots.show(_record(exc, "site"))
         return
     st.caption(f"Pressure used: {format_number(pressure / 1000.0)} kPa (barometric; a tank's gauge "
                "pressure is added on the tank page).")

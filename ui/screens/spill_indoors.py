@@ -63,6 +63,13 @@ def draw_inputs(slots):
 
 def show(view: dict) -> None:
     st.subheader(f"{view['name']} in {view['where']}")
+    if "run" in view.get("left_out", ()):
+        # the time modelled is wrong: only what stands without the run is shown
+        st.markdown(f"**Pool:** {view['pool_area_text']}.")
+        st.markdown(f"**Method.** {view['model']}. Initial evaporation rate by both "
+                    f"models: {view['rates_text']}.")
+        shared.show_notes(view)
+        return
     a, b, c = st.columns(3)
     a.metric(f"Peak, {view['peak_zone']}", view["peak_text"],
              help=f"at {view['peak_time_text']}")

@@ -61,6 +61,14 @@ with inputs:
 
 def show(view: dict) -> None:
     st.subheader(view["name"])
+    if "plume" in view.get("left_out", ()):
+        # the stability class is unknown: only the release rate stands without it
+        st.metric("Release rate to air", view["source_text"], help="initial evaporation rate")
+        st.markdown(f"**Method.** Initial evaporation rate by both models: "
+                    f"{view['rates_text']} (their spread is a measure of the model "
+                    "uncertainty).")
+        shared.show_notes(view)
+        return
     a, b, c = st.columns(3)
     a.metric("Release rate to air", view["source_text"], help="initial evaporation rate")
     b.metric("Stability class", view["stability"])
@@ -88,7 +96,10 @@ def show(view: dict) -> None:
         st.info("No exposure limit entered for this liquid: no distance to a limit is "
                 "computed.")
     st.markdown("**Centreline concentration at the distances asked for**")
-    shared.table(view["receptors"])
+    if len(view["receptors"]):
+        shared.table(view["receptors"])
+    else:
+        st.info("No downwind distance that can be used: list them in the box on the left.")
     unit = view["distance_unit"]
     shared.chart(view["series"], x="distance", x_title=f"downwind distance [{unit}]", y="ppm",
                  y_title="centreline concentration [ppm]", log_x=True, log_y=True,
@@ -103,25 +114,25 @@ def show(view: dict) -> None:
 with results:
     st.subheader("Result")
     slots.add("general")
-    try:
-        asked = case.receptor_values(state)
-    except ValueError as exc:
-        asked = None
-        reason = getattr(exc, "reason", None) or (
-            f"'{state.get(case.key('weather.receptors'))}' is not a list of distances")
-        slots.show({"field": "", "area": "receptors", "reason": reason})
-    if asked is not None:
-        grid = [case.to_display(x, "length", units) for x in np.geomspace(100.0, 10000.0, 33)]
-        everything = sorted(set(asked) | set(grid))
-        doc, problems = case.study_document(state, "outdoor", receptors=everything,
-                                            limits=limit_rows)
-        if problems:
-            slots.problems("liquid", problems)
+    asked, bad = case.receptor_entries(state)
+    for reason in bad:
+        slots.show({"field": "", "area": "receptors",
+                    "reason": f"{reason}; this distance is left out until it is corrected, "
+                              "the others are shown"})
+    grid = [case.to_display(x, "length", units) for x in np.geomspace(100.0, 10000.0, 33)]
+    everything = sorted(set(asked) | set(grid))
+    doc, problems = case.study_document(state, "outdoor", receptors=everything,
+                                        limits=limit_rows)
+    if problems:
+        slots.problems("liquid", problems)
+    else:
+        view = views.outdoor_view(dumps_scenario(doc), units, tuple(asked))
+        for error in view.get("field_errors", ()):
+            slots.show(error)
+        if view["error"]:
+            slots.show(view["error"])
         else:
-            view = views.outdoor_view(dumps_scenario(doc), units, tuple(asked))
-            if view["error"]:
-                slots.show(view["error"])
-            else:
-                show(view)
-                mine, _ = case.study_document(state, "outdoor", limits=limit_rows)
-                shared.downloads(dumps_scenario(mine), shared.file_stem(view["name"]))
+            show(view)
+            mine, _ = case.study_document(state, "outdoor", limits=limit_rows,
+                                          receptors=asked if bad else None)
+            shared.downloads(dumps_scenario(mine), shared.file_stem(view["name"]))
