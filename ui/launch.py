@@ -40,6 +40,10 @@ DEFAULTS = {
     # which would take CPU from every session
     "--server.fileWatcherType": "none",
     "--server.runOnSave": "false",
+    # no full garbage collection after every rerun: with the property data and the
+    # numerical libraries in memory it took more CPU than the rerun itself (profiled
+    # with 8 sessions); Python's own collector still runs
+    "--runner.postScriptGC": "false",
 }
 
 
