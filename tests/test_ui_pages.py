@@ -854,6 +854,13 @@ def test_one_bad_downwind_distance_leaves_the_others_and_the_release_rate():
     assert "| 100 |" in rows and "| 1,000 |" in rows and "| -5 |" not in rows
     assert metric(at, "Release rate to air").endswith("g/s")
     assert "Distance to the LFL" in [m.label for m in at.metric]
+    # saving keeps what was typed, the bad entries too; loading names them
+    from ullage_ui import case
+
+    doc = case.full_document(at.session_state["ullage"])
+    assert doc["outdoors"]["receptors"] == ["100 m", "-5 m", "far", "1 km"]
+    with pytest.raises(Exception, match="receptors"):
+        loads_scenario(dumps_scenario(doc))
 
 
 def test_bad_cloud_cover_keeps_the_release_rate_only_with_the_wind_at_10_m():

@@ -1029,12 +1029,6 @@ def spill_item(state, prefix: str, liquid_name: str) -> dict:
     return _carry({k: v for k, v in item.items() if v is not None}, state, prefix)
 
 
-def receptor_values(state) -> list[float]:
-    """Receptor distances as typed, in the display length unit."""
-    raw = str(state.get(key("weather.receptors")) or "")
-    return [to_display(x, "length", system(state)) for x in receptor_distances(raw)]
-
-
 def receptor_entries(state) -> tuple[list[float], list[str]]:
     """The downwind distances typed that can be used, in the display length unit, and
     the problem of each of the others (each is left out, the rest kept)."""
@@ -1101,13 +1095,15 @@ def outdoors_item(state, receptors=None) -> dict:
         item["daytime"] = True
         item["insolation"] = str(state.get(key("weather.insolation")) or "moderate")
     item["terrain"] = str(state.get(key("weather.terrain")) or "open")
-    values = receptor_values(state) if receptors is None else receptors
+    # saving keeps every distance as typed, one that cannot be read included (the
+    # page names it); the file then says what is wrong with it when loaded
+    values, problems = receptor_entries(state) if receptors is None else (receptors, [])
     written = base_item(state, "outdoors")
     loaded = ((state.get("case.base_si", {}) or {}).get("outdoors") or {}).get("receptors")
-    if (receptors is None and written.get("receptors") and loaded
+    if (receptors is None and not problems and written.get("receptors") and loaded
             and values == [to_display(x, "length", system(state)) for x in loaded]):
         item["receptors"] = list(written["receptors"])
-    elif receptors is None and values:
+    elif receptors is None and (values or problems):
         item["receptors"] = [part.strip() for part in str(
             state.get(key("weather.receptors")) or "").replace(";", ",").split(",")
             if part.strip()]
