@@ -376,6 +376,31 @@ def test_compare_page_other_solvent():
     assert "Acetone (case B)" in text
 
 
+def test_compare_page_offers_liquids_found_in_the_library():
+    """A liquid found in the property library on another page can be case B's liquid;
+    its headspace is the core's for that liquid at B's temperature."""
+    from ullage_ui import case
+
+    tank = page("tank.py")
+    tank.radio(key="w:tank.kind").set_value("table")
+    tank.run()
+    tank.text_input(key="w:tank.find").input("isohexane")
+    tank.run()
+    found = tank.session_state["ullage"][case.LIBRARY_FOUND]
+    (isohexane,) = [k for k, v in found.items() if "107-83-5" in v["label"]]
+    at = AppTest.from_file(str(SCREENS / "compare.py"), default_timeout=30)
+    at.session_state["ullage"] = tank.session_state["ullage"]
+    at.run()
+    assert isohexane in at.selectbox(key="w:cmp.substance").options or any(
+        "107-83-5" in o for o in at.selectbox(key="w:cmp.substance").options)
+    at.selectbox(key="w:cmp.substance").set_value(isohexane)
+    at.run()
+    assert not at.exception, at.exception
+    shown = [m.value for m in at.metric if m.label == "Total vapour in the headspace"]
+    core = headspace({isohexane: 1.0}, 317.15, barometric_pressure(DEMO_ELEVATION))
+    assert shown[1] == f"{format_ppm(core.total_ppm)} ppm"
+
+
 @pytest.mark.parametrize("name", PAGES)
 def test_cautions_on_every_page(name):
     """Every page shows every caution, unfolded, and runs without an exception."""

@@ -426,7 +426,7 @@ def _library_found() -> dict:
     return store().setdefault(case.LIBRARY_FOUND, {})
 
 
-def _choices() -> dict:
+def substance_choices() -> dict:
     """Substance key -> label: the curated table, then liquids found in the library."""
     return {**substance_labels(), **{k: v["label"] for k, v in _library_found().items()}}
 
@@ -463,12 +463,12 @@ def substance_chooser(prefix: str, slots: Slots) -> None:
     """A selectbox over the table and a search box with close matches."""
     inputs = store()
     current = inputs.get(key(f"{prefix}.substance"))
-    if current and current not in _choices():  # a liquid named in a loaded scenario
+    if current and current not in substance_choices():  # a liquid named in a loaded scenario
         hit = find_substance(str(current))
         _library_found().update(hit["library"])
         if hit["key"]:
             set_input(f"{prefix}.substance", hit["key"])
-    labels = _choices()
+    labels = substance_choices()
     options = list(labels)
     if inputs.get(key(f"{prefix}.substance")) not in labels:
         set_input(f"{prefix}.substance", case.LIQUID_DEFAULTS.get(prefix, options[0]))
@@ -481,7 +481,7 @@ def substance_chooser(prefix: str, slots: Slots) -> None:
     if text:
         hit = find_substance(text)
         _library_found().update(hit["library"])
-        labels = _choices()
+        labels = substance_choices()
         if hit["key"]:
             st.caption(f"'{text}' is {labels.get(hit['key'], hit['key'])}.")
             if hit["notes"]:

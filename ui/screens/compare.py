@@ -54,7 +54,7 @@ if state.get("cmp.seeded") != study:
 st.subheader("What changes in case B")
 a, b = st.columns(2)
 shared.quantity("Temperature in B", "cmp.temperature", container=a)
-labels = shared.substance_labels()
+labels = shared.substance_choices()  # the table, then liquids found in the library
 shared.bound(b.selectbox, "Liquid in B", "cmp.substance", options=[SAME] + list(labels),
              format_func=lambda k: "the same as in A" if k == SAME else labels.get(k, k))
 if study == "indoor":
@@ -96,7 +96,9 @@ def build_b(doc: dict) -> dict:
         item["temperature"] = case.text(state, "cmp.temperature")
     chosen = state.get(key("cmp.substance")) or SAME
     if chosen != SAME:
-        name = shared.substance_table().set_index("key").loc[chosen, "name"]
+        names = {**shared.substance_table().set_index("key")["name"].to_dict(),
+                 **{k: v["name"] for k, v in state.get(case.LIBRARY_FOUND, {}).items()}}
+        name = names.get(chosen, chosen)
         out["liquid"] = [{"name": f"{name} (case B)", "substance": chosen}]
         item["liquid"] = out["liquid"][0]["name"]
         if "tank" in out and study != "tank":
