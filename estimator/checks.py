@@ -193,8 +193,9 @@ def check_barometric_pressure(pressure, field: str = "barometric pressure") -> f
     p = number(pressure, field, "Pa")
     low, high = BAROMETRIC_RANGE
     if not low < p < high:
-        raise InputError(field, f"{p:g} Pa: must be between 30 and 120 kPa (a barometric "
-                                "pressure, absolute; 101.325 kPa at sea level)")
+        raise InputError(field, f"{p:g} Pa: must be between {low / 1e3:g} and "
+                                f"{high / 1e3:g} kPa (a barometric pressure, absolute; "
+                                "101.325 kPa at sea level)")
     return p
 
 

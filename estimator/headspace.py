@@ -93,7 +93,8 @@ def barometric_pressure(elevation):
     h = np.asarray(elevation, dtype=float)
     low, high = ELEVATION_RANGE
     if not np.all(np.isfinite(h)) or np.any(h < low) or np.any(h > high):
-        raise InputError("elevation", "must be between -500 m and 11000 m above sea level")
+        raise InputError("elevation", f"must be between {low:g} m and {high:g} m above sea "
+                                      "level")
     exponent = STANDARD_GRAVITY * MOLAR_MASS_AIR / (GAS_CONSTANT * _LAPSE_RATE)
     p = STANDARD_ATMOSPHERE * (1.0 - _LAPSE_RATE * h / _SEA_LEVEL_TEMPERATURE) ** exponent
     return float(p) if np.ndim(elevation) == 0 else p

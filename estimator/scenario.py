@@ -365,8 +365,8 @@ def _read_conditions(r, doc):
     if baro is not None:
         try:
             pressure = check_barometric_pressure(baro)
-        except InputError:
-            r.fail("conditions", None, "barometric_pressure", "must be between 30 and 120 kPa")
+        except InputError as exc:
+            r.fail("conditions", None, "barometric_pressure", exc.reason)
     elif elev is not None:
         try:
             pressure = barometric_pressure(elev)

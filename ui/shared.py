@@ -13,6 +13,7 @@ import pandas as pd
 import streamlit as st
 
 from estimator import CAUTIONS
+from estimator.checks import BAROMETRIC_RANGE, ELEVATION_RANGE
 from estimator.errors import UllageError
 
 from ullage_ui import case, views
@@ -27,8 +28,9 @@ ADVICE = {
               "its source.",
     "alarms": "Give an LFL alarm above 0 and at most 100 %, and oxygen bounds with "
               "low below high.",
-    "site": "Give a site elevation between -500 and 11000 m, or a barometric pressure "
-            "between 30 and 120 kPa.",
+    "site": f"Give a site elevation between {ELEVATION_RANGE[0]:g} and "
+            f"{ELEVATION_RANGE[1]:g} m, or a barometric pressure between "
+            f"{BAROMETRIC_RANGE[0] / 1e3:g} and {BAROMETRIC_RANGE[1] / 1e3:g} kPa.",
     "tank": "Check the tank volume, fill level and gauge pressure.",
     "details": "Check the tank details (daily temperatures, pumped volume, purge).",
     "amount": "Check the spilled amount and the pool or dike area.",

@@ -21,6 +21,7 @@ import pandas as pd
 import streamlit as st
 
 from estimator.errors import UllageError
+from estimator.evaporation import MODEL_NAMES
 from estimator.limits import format_number, format_ppm, format_ratio
 from estimator.units import convert
 
@@ -144,8 +145,7 @@ def field_label(field: str) -> str:
 
 
 #: Method ids of the core in words.
-METHOD_WORDS = {"mackay-matsugu": "Mackay–Matsugu", "epa-rmp": "US EPA RMP",
-                "well-mixed": "well-mixed room", "two-zone": "two-zone"}
+METHOD_WORDS = {**MODEL_NAMES, "well-mixed": "well-mixed room", "two-zone": "two-zone"}
 
 #: Phrases of core messages that point at an input this page does not have.
 _PAGE_PHRASES = {
@@ -600,8 +600,8 @@ def _exposure_tables(spill) -> tuple[pd.DataFrame, pd.DataFrame]:
 
 
 def _rates_text(spill) -> str:
-    names = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
-    parts = [f"{names.get(m, m)} {format_number(1000.0 * r)} g/s" for m, r in spill.initial_rates.items()]
+    parts = [f"{MODEL_NAMES.get(m, m)} {format_number(1000.0 * r)} g/s"
+             for m, r in spill.initial_rates.items()]
     return ", ".join(parts)
 
 

@@ -64,6 +64,7 @@ from .mass_transfer import (
     MACKAY_MATSUGU_SCHMIDT_EXPONENT,
     MACKAY_MATSUGU_WIND_EXPONENT,
     MODELS,
+    MODEL_NAMES,
     ModelComparison,
     boiling_check,
     check_model,
@@ -110,6 +111,7 @@ from .heat import (
 
 __all__ = [
     "MODELS",
+    "MODEL_NAMES",
     "GROUND_TYPES",
     "DEPLETED_FRACTION",
     "fuller_diffusivity",

@@ -32,6 +32,7 @@ from .air import (
 
 __all__ = [
     "MODELS",
+    "MODEL_NAMES",
     "EvaporationSolverError",
     "mackay_matsugu_coefficient",
     "evaporation_flux",
@@ -50,6 +51,9 @@ MODELS = {
     "epa-rmp": "US EPA RMP offsite consequence analysis guidance (1999/2009), "
                "Appendix D, Eq. D-1",
 }
+
+#: Model keywords and their short names, for screens and tables.
+MODEL_NAMES = {"mackay-matsugu": "Mackay–Matsugu", "epa-rmp": "US EPA RMP"}
 
 #: Mackay & Matsugu's coefficient for k and U in m/h and X in m. [-]
 MACKAY_MATSUGU_COEFFICIENT = 0.0292

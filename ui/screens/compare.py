@@ -7,12 +7,13 @@ import streamlit as st
 
 from estimator.scenario import dumps_scenario
 from estimator.limits import format_number
+from estimator.outdoor import STABILITY_CLASSES
 from ullage_ui import case, shared, views
 from ullage_ui.case import key, system
 
 STUDIES = {"tank": "Tank headspace", "indoor": "Spill indoors", "outdoor": "Spill outdoors"}
 SAME = ""
-CLASSES = [SAME, "A", "B", "C", "D", "E", "F"]
+CLASSES = [SAME, *STABILITY_CLASSES]
 
 slots = shared.setup_page(
     "Two cases side by side",

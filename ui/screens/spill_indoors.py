@@ -2,9 +2,10 @@
 
 import streamlit as st
 
+from estimator.evaporation import MODEL_NAMES
+
 from ullage_ui import shared, views
 
-MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
 
 shared.setup_page(
     "Spill indoors", "indoor",
@@ -32,7 +33,8 @@ def draw_inputs(slots):
                     help="Empty: the liquid spreads to 1 cm depth (US EPA RMP guidance), "
                          "or covers the dike floor.")
     shared.quantity("Dike or bund floor", "indoor.dike", optional=True, container=b)
-    shared.choice("Evaporation model", "indoor.model", list(MODELS), format_func=MODELS.get,
+    shared.choice("Evaporation model", "indoor.model", list(MODEL_NAMES),
+                  format_func=MODEL_NAMES.get,
                   horizontal=True)
     slots.add("amount")
     st.subheader("Room")

@@ -3,13 +3,13 @@
 import numpy as np
 import streamlit as st
 
+from estimator.evaporation import MODEL_NAMES
+from estimator.outdoor import INSOLATION, STABILITY_CLASSES
+
 from estimator.scenario import dumps_scenario
 from ullage_ui import case, shared, views
 from ullage_ui.case import system
 
-MODELS = {"mackay-matsugu": "Mackay-Matsugu", "epa-rmp": "US EPA RMP"}
-INSOLATION = ["strong", "moderate", "slight"]
-CLASSES = ["A", "B", "C", "D", "E", "F"]
 
 slots = shared.setup_page(
     "Spill outdoors", "outdoor",
@@ -31,7 +31,8 @@ with inputs:
                     help="Empty: the liquid spreads to 1 cm depth (US EPA RMP guidance), "
                          "or covers the dike floor.")
     shared.quantity("Dike or bund floor", "outdoor.dike", optional=True, container=b)
-    shared.choice("Evaporation model", "outdoor.model", list(MODELS), format_func=MODELS.get,
+    shared.choice("Evaporation model", "outdoor.model", list(MODEL_NAMES),
+                  format_func=MODEL_NAMES.get,
                   horizontal=True)
     slots.add("amount")
     st.subheader("Weather")
@@ -42,13 +43,13 @@ with inputs:
                         horizontal=True)
     a, b = st.columns(2)
     if sky == "day":
-        shared.choice("Incoming sunshine", "weather.insolation", INSOLATION, container=a,
+        shared.choice("Incoming sunshine", "weather.insolation", list(INSOLATION), container=a,
                       horizontal=True)
     elif sky == "night":
         shared.number("Cloud cover [oktas, 0-8]", "weather.cloud", container=a)
     else:
         shared.bound(a.selectbox, "Pasquill stability class", "weather.stability",
-                     options=CLASSES)
+                     options=list(STABILITY_CLASSES))
     shared.choice("Terrain", "weather.terrain", ["open", "urban"], container=b,
                   horizontal=True)
     slots.add("weather")
