@@ -959,6 +959,12 @@ def chart(data: pd.DataFrame, *, x: str, x_title: str, y: str, y_title: str,
                      height=_chart_height(data, color, lines))
 
 
+def downloads_withheld() -> None:
+    """Instead of the downloads while an input is left out of the result."""
+    st.caption("The report and results downloads come back once the inputs named "
+               "beside their boxes are corrected: a report leaves nothing out.")
+
+
 def downloads(toml_text: str | None, stem: str) -> None:
     """Download buttons for the HTML report and the CSV results of the case on screen."""
     if toml_text is None:
@@ -1116,6 +1122,9 @@ def _draw_result(kind: str, view_function, show, slots: Slots, limit_rows) -> di
         slots.show(view["error"])
         return None
     show(view)
-    report_doc, _ = case.study_document(state, kind, limits=limit_rows, uncertain=True)
-    downloads(dumps_scenario(report_doc), file_stem(view["name"]))
+    if view.get("field_errors"):
+        downloads_withheld()
+    else:
+        report_doc, _ = case.study_document(state, kind, limits=limit_rows, uncertain=True)
+        downloads(dumps_scenario(report_doc), file_stem(view["name"]))
     return view

@@ -134,6 +134,8 @@ with results:
             slots.show(view["error"])
         else:
             show(view)
-            mine, _ = case.study_document(state, "outdoor", limits=limit_rows,
-                                          receptors=asked if bad else None)
-            shared.downloads(dumps_scenario(mine), shared.file_stem(view["name"]))
+            if bad or view.get("field_errors"):
+                shared.downloads_withheld()
+            else:
+                mine, _ = case.study_document(state, "outdoor", limits=limit_rows)
+                shared.downloads(dumps_scenario(mine), shared.file_stem(view["name"]))
