@@ -83,3 +83,21 @@ def test_address_defaults_to_loopback():
 
     assert build_parser().parse_args(["app"]).address == "127.0.0.1"
     assert build_parser().parse_args(["app", "--address", "0.0.0.0"]).address == "0.0.0.0"
+
+
+def test_the_server_neither_polls_its_files_nor_collects_after_every_rerun():
+    """An installed app does not change while it runs, and a full garbage collection
+    after every rerun cost more CPU than the rerun (benchmarks/README.md): both are
+    off by default, and an option given on the command line still wins."""
+    from ullage_ui.launch import command
+
+    def options(args):
+        return dict(zip(args[5::2], args[6::2]))  # after: python -m streamlit run app.py
+
+    default = options(command([]))
+    assert default["--server.fileWatcherType"] == "none"
+    assert default["--runner.postScriptGC"] == "false"
+    assert default["--server.address"] == "127.0.0.1"
+    mine = command(["--runner.postScriptGC", "true"])
+    assert mine.count("--runner.postScriptGC") == 1
+    assert mine[mine.index("--runner.postScriptGC") + 1] == "true"
