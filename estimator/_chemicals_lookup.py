@@ -209,7 +209,7 @@ WATER_CAS = "7732-18-5"
 REFERENCE_TEMPERATURE = 298.15
 
 
-def _chemicals():
+def chemicals_package():
     """Import and return the ``chemicals`` package.
 
     Raises
@@ -333,7 +333,7 @@ def _chemsep_database() -> dict[str, Any]:
     import glob
     import xml.etree.ElementTree as ET
 
-    chemicals = _chemicals()
+    chemicals = chemicals_package()
     folder = os.path.join(os.path.dirname(chemicals.__file__), "Misc")
     paths = sorted(glob.glob(os.path.join(folder, "ChemSep*.xml")))
     if not paths:
@@ -405,7 +405,7 @@ def identity(cas: str) -> dict[str, Any]:
         ``cas``, ``name`` (the common name in the ``chemicals`` database)
         and ``formula`` (Hill order); name and formula are None if unknown.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals.identifiers import search_chemical
 
     try:
@@ -457,7 +457,7 @@ def molar_mass(cas: str, formula: str | None = None) -> dict[str, Any]:
     dict
         ``formula``, ``molar_mass`` [kg/mol] and ``molar_mass_source``.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals.elements import molecular_weight, simple_formula_parser
 
     if formula is None:
@@ -541,7 +541,7 @@ def phase_change_temperatures(cas: str, boiling_point_source: str | None = None)
     ValueError
         If ``boiling_point_source`` is not a known source.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals import phase_change
 
     order = list(BOILING_POINT_SOURCES)
@@ -592,7 +592,7 @@ def critical_constants(cas: str) -> dict[str, Any]:
         ``critical_temperature`` [K], ``critical_pressure`` [Pa] and
         ``critical_source``.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals import critical, iapws
 
     if cas == WATER_CAS:
@@ -638,7 +638,7 @@ def enthalpy_of_vaporization(cas: str, boiling_point: float | None = None) -> di
     dict
         ``enthalpy_vaporization_nbp`` [J/mol] and ``enthalpy_source``.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals import phase_change
     from chemicals.dippr import EQ106
 
@@ -738,7 +738,7 @@ def dippr_vapor_pressure(cas: str) -> dict[str, Any]:
         and ``dippr_source``; the form is
         ``ln(p/Pa) = C1 + C2/T + C3 ln T + C4 T**C5``.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals import vapor_pressure
 
     keys = ("dippr_c1", "dippr_c2", "dippr_c3", "dippr_c4", "dippr_c5", "dippr_tmin", "dippr_tmax")
@@ -814,7 +814,7 @@ def antoine_vapor_pressure(cas: str, boiling_point: float | None = None) -> dict
         ``antoine_a``, ``antoine_b``, ``antoine_c``, ``antoine_tmin`` [K],
         ``antoine_tmax`` [K] and ``antoine_source``.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals import vapor_pressure
 
     ln10 = math.log(10.0)
@@ -884,7 +884,7 @@ def liquid_density(
         ``liquid_density`` [kg/m3], ``liquid_density_temperature`` [K] and
         ``liquid_density_source``.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals import iapws, volume
     from chemicals.dippr import EQ105
 
@@ -954,7 +954,7 @@ def flammability_limits(cas: str) -> dict[str, Any]:
         ``lfl`` and ``ufl`` [volume fraction], ``flammability_source`` and
         ``flammability_note`` (None unless the compilations disagree).
     """
-    _chemicals()
+    chemicals_package()
     from chemicals import safety
 
     out: dict[str, Any] = {"flammability_note": None}
@@ -1003,7 +1003,7 @@ def flash_point(cas: str) -> dict[str, Any]:
     dict
         ``flash_point`` [K] and ``flash_point_source``.
     """
-    _chemicals()
+    chemicals_package()
     from chemicals import safety
 
     for df, src in ((safety.IEC_2010_data, SRC_IEC), (safety.NFPA_2008_data, SRC_NFPA)):
@@ -1260,7 +1260,7 @@ def lookup(
 
 def _identifier_db():
     """The identifier database of ``chemicals`` (names, synonyms, CAS numbers)."""
-    _chemicals()
+    chemicals_package()
     from chemicals.identifiers import get_pubchem_db
 
     return get_pubchem_db()
@@ -1324,7 +1324,7 @@ def _index_of(df, mask=None) -> set[str]:
 
 def boiling_point_cas() -> set[str]:
     """CAS numbers with a normal boiling point in a source of :data:`BOILING_POINT_SOURCES`."""
-    _chemicals()
+    chemicals_package()
     from chemicals import phase_change
 
     phase_change.Tb("7732-18-5")  # loads the tables
@@ -1339,7 +1339,7 @@ def boiling_point_cas() -> set[str]:
 def correlation_cas() -> set[str]:
     """CAS numbers with a DIPPR-101 or Antoine vapour-pressure correlation in a
     source that :func:`dippr_vapor_pressure` or :func:`antoine_vapor_pressure` reads."""
-    _chemicals()
+    chemicals_package()
     from chemicals import vapor_pressure
 
     out: set[str] = set()
@@ -1359,7 +1359,7 @@ def correlation_cas() -> set[str]:
 def flammability_cas() -> tuple[set[str], set[str]]:
     """CAS numbers with a lower flammability limit, and with a flash point, in
     IEC 60079-20-1:2010 or NFPA 497 (2008)."""
-    _chemicals()
+    chemicals_package()
     from chemicals import safety
 
     safety.LFL(CASRN="67-64-1")  # loads the tables

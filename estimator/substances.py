@@ -289,7 +289,7 @@ def _library():
     try:
         from . import _chemicals_lookup
 
-        _chemicals_lookup._chemicals()
+        _chemicals_lookup.chemicals_package()
     except ImportError:
         return None
     return _chemicals_lookup

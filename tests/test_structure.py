@@ -147,3 +147,42 @@ def test_no_function_runs_past_the_longest_body():
                 if lines > LONGEST_BODY:
                     long.append(f"{path.relative_to(ROOT)}:{node.lineno} {node.name} ({lines})")
     assert not long, "functions to split into named steps: " + "; ".join(long)
+
+
+def _private_uses(path: Path, package: str) -> list[str]:
+    """`from <package>... import _x` and `<module>._x` on a module of `package` (the
+    import's own name bound in the file)."""
+    tree = ast.parse(path.read_text(encoding="utf-8"))
+    modules, found = set(), []
+    for node in ast.walk(tree):
+        if isinstance(node, ast.ImportFrom) and (node.level or (node.module or "").split(
+                ".")[0] == package):
+            for alias in node.names:
+                # a module of the package kept out of its public face (`_meta`) may be
+                # imported; a private name of another module may not
+                is_module = node.level == 1 and not node.module and (
+                    path.parent / f"{alias.name}.py").exists()
+                if alias.name.startswith("_") and not alias.name.startswith("__") \
+                        and not is_module:
+                    found.append(f"imports {alias.name}")
+                modules.add(alias.asname or alias.name)
+        elif isinstance(node, ast.Import):
+            for alias in node.names:
+                if alias.name.split(".")[0] == package:
+                    modules.add(alias.asname or alias.name.split(".")[0])
+    for node in ast.walk(tree):
+        if (isinstance(node, ast.Attribute) and isinstance(node.value, ast.Name)
+                and node.value.id in modules and node.attr.startswith("_")
+                and not node.attr.startswith("__")):
+            found.append(f"uses {node.value.id}.{node.attr}")
+    return found
+
+
+@pytest.mark.parametrize("folder, package", [("estimator", "estimator"), ("ui", "ullage_ui")])
+def test_no_private_name_of_another_module_by_attribute(folder, package):
+    """Neither `from ullage_ui.case import _x` nor `case._x` in another module of the
+    package or the front end: what is shared is public where it belongs."""
+    found = []
+    for path in sorted((ROOT / folder).rglob("*.py")):
+        found += [f"{path.relative_to(ROOT)} {use}" for use in _private_uses(path, package)]
+    assert not found, found
