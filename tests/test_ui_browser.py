@@ -208,7 +208,8 @@ def test_no_scientific_notation_in_the_page_text(browser, server, address):
 
 @pytest.mark.parametrize("width", [1024, 1400])
 def test_tiles_are_not_cut_off(browser, server, width):
-    """Every tile's value and label fit in their boxes at 1024 px and wider."""
+    """Every tile's value and label fit in their boxes at 1024 px and wider, and no
+    table runs out of its column."""
     page = _open(browser, f"{server}/tank", width)
     try:
         _load_demo(page)
@@ -223,6 +224,11 @@ def test_tiles_are_not_cut_off(browser, server, width):
             assert sizes, address
             for text, scroll, client in sizes:
                 assert scroll <= client + 1, (address, width, text)
+            # a table wider than its column stays inside it (and scrolls sideways)
+            overhangs = page.evaluate("""() => Array.from(document.querySelectorAll(
+                '[data-testid="stMarkdownContainer"] table')).map(t =>
+                t.getBoundingClientRect().right - t.parentElement.getBoundingClientRect().right)""")
+            assert all(x <= 1 for x in overhangs), (address, width, overhangs)
     finally:
         page.context.close()
 

@@ -98,7 +98,8 @@ class Slots:
 
 # ------------------------------------------------------------------- the page
 
-#: Tiles (st.metric) wrap a long value or its unit instead of cutting it off.
+#: Tiles (st.metric) wrap a long value or its unit instead of cutting it off; a
+#: table wider than its column scrolls sideways instead of running under the next.
 TILE_STYLE = """<style>
 [data-testid="stMetricValue"], [data-testid="stMetricValue"] > div {
   white-space: normal !important; overflow: visible !important;
@@ -108,6 +109,9 @@ TILE_STYLE = """<style>
 [data-testid="stMetricLabel"], [data-testid="stMetricLabel"] * {
   white-space: normal !important; overflow: visible !important; text-overflow: clip !important;
   word-break: normal !important; overflow-wrap: normal !important;
+}
+[data-testid="stMarkdownContainer"] table {
+  display: block; max-width: 100%; overflow-x: auto;
 }
 </style>"""
 
