@@ -33,13 +33,14 @@ def test_wheel_holds_everything_the_job_needs(wheel):
     names = set(wheel.namelist())
     expected = {
         "ullage_ui/__init__.py", "ullage_ui/app.py", "ullage_ui/launch.py",
-        "ullage_ui/case.py", "ullage_ui/shared.py", "ullage_ui/views.py",
+        "ullage_ui/shared.py", "ullage_ui/views.py",
         "ullage_ui/example_inventory.csv",
         "estimator/demos/inventory_example.csv",
         "estimator/data/substances.csv", "estimator/data/method_uncertainty.csv",
         "estimator/data/henry_constants.csv",
     }
     expected |= {f"ullage_ui/screens/{p.name}" for p in (ROOT / "ui" / "screens").glob("*.py")}
+    expected |= {f"ullage_ui/case/{p.name}" for p in (ROOT / "ui" / "case").glob("*.py")}
     expected |= {f"estimator/demos/{p.name}" for p in (ROOT / "scenarios").glob("*.toml")}
     assert expected <= names, sorted(expected - names)
     assert not any(n.startswith(("ui/", "tests/", "scenarios/")) for n in names)

@@ -1,0 +1,177 @@
+"""The case on screen: input defaults, a loaded scenario turned into inputs, inputs
+turned back into a scenario document.
+
+Everything here reads and writes a plain mapping of input values (the page's
+``st.session_state``), so it can be used and tested without a running page. Input
+values are held in the unit system chosen on screen; the scenario documents built
+from them carry those units as text ("34.0 degC", "2500.0 gal"), so that
+`estimator.scenario.loads_scenario` converts them at the edge. No physics here.
+
+The package holds one idea per module: `units` (unit systems, the inputs with a
+unit, conversions and rounding, `switch_units`), `defaults` (the inputs without a
+unit, a new case, the demo files), `items` (the scenario tables of the pages built
+from the inputs), `documents` (a page's study, view and Monte Carlo documents, the
+whole case for saving), `loading` (a loaded scenario put on screen,
+`apply_scenario`) and `uncertain` (inputs given as ranges). Every public name is
+importable from `ullage_ui.case`.
+"""
+
+from __future__ import annotations
+
+from .units import (
+    SYSTEMS,
+    UNITS,
+    SDS_PROPERTIES,
+    QUANTITIES,
+    key,
+    table_key,
+    system,
+    unit_label,
+    from_display,
+    system_of,
+    to_display,
+    SHOWN_DIGITS,
+    round_shown,
+    text,
+    switch_units,
+    unchanged,
+)
+from .defaults import (
+    EXAMPLE_INVENTORY,
+    MAX_SCENARIO_UPLOAD,
+    MAX_INVENTORY_UPLOAD,
+    PLAIN,
+    LIQUID_PREFIXES,
+    LIQUID_DEFAULTS,
+    LIQUID_KINDS,
+    LIMIT_COLUMNS,
+    MIXTURE_COLUMNS,
+    DISSOLVED_COLUMNS,
+    SKY,
+    empty_limits,
+    mixture_frame,
+    dissolved_frame,
+    reset_defaults,
+    NEW_CASE,
+    new_case,
+    demo_files,
+)
+from .items import (
+    EDITED_KEYS,
+    base_item,
+    kept,
+    filled_rows,
+    own_substance,
+    liquid_item,
+    uses_own_substance,
+    conditions,
+    alarms,
+    limit_rows,
+    tank_item,
+    room_item,
+    spill_item,
+    receptor_entries,
+    receptor_distances,
+    outdoors_item,
+)
+from .documents import (
+    monte_carlo_document,
+    study_document,
+    view_document,
+    full_document,
+)
+from .loading import (
+    LIBRARY_FOUND,
+    remember_library_substance,
+    apply_scenario,
+)
+from .uncertain import (
+    DISTRIBUTIONS,
+    DISTRIBUTION_WORDS,
+    PARAMETER_WORDS,
+    UNCERTAIN,
+    DEFAULT_SAMPLES,
+    MAX_SAMPLES,
+    DEFAULT_SEED,
+    uncertain_name,
+    written_distribution,
+    uncertainty_unavailable,
+    distribution_problem,
+    carried_uncertain,
+    uncertain_entries,
+    monte_carlo_table,
+)
+
+__all__ = [
+    "SYSTEMS",
+    "UNITS",
+    "SDS_PROPERTIES",
+    "QUANTITIES",
+    "key",
+    "table_key",
+    "system",
+    "unit_label",
+    "from_display",
+    "system_of",
+    "to_display",
+    "SHOWN_DIGITS",
+    "round_shown",
+    "text",
+    "switch_units",
+    "unchanged",
+    "EXAMPLE_INVENTORY",
+    "MAX_SCENARIO_UPLOAD",
+    "MAX_INVENTORY_UPLOAD",
+    "PLAIN",
+    "LIQUID_PREFIXES",
+    "LIQUID_DEFAULTS",
+    "LIQUID_KINDS",
+    "LIMIT_COLUMNS",
+    "MIXTURE_COLUMNS",
+    "DISSOLVED_COLUMNS",
+    "SKY",
+    "empty_limits",
+    "mixture_frame",
+    "dissolved_frame",
+    "reset_defaults",
+    "NEW_CASE",
+    "new_case",
+    "demo_files",
+    "EDITED_KEYS",
+    "base_item",
+    "kept",
+    "filled_rows",
+    "own_substance",
+    "liquid_item",
+    "uses_own_substance",
+    "conditions",
+    "alarms",
+    "limit_rows",
+    "tank_item",
+    "room_item",
+    "spill_item",
+    "receptor_entries",
+    "receptor_distances",
+    "outdoors_item",
+    "monte_carlo_document",
+    "study_document",
+    "view_document",
+    "full_document",
+    "LIBRARY_FOUND",
+    "remember_library_substance",
+    "apply_scenario",
+    "DISTRIBUTIONS",
+    "DISTRIBUTION_WORDS",
+    "PARAMETER_WORDS",
+    "UNCERTAIN",
+    "DEFAULT_SAMPLES",
+    "MAX_SAMPLES",
+    "DEFAULT_SEED",
+    "uncertain_name",
+    "written_distribution",
+    "uncertainty_unavailable",
+    "distribution_problem",
+    "carried_uncertain",
+    "uncertain_entries",
+    "monte_carlo_table",
+]
